@@ -1,0 +1,1 @@
+export * from './fft.js';
