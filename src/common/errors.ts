@@ -1,0 +1,32 @@
+/**
+ * The one registry of problem codes. Each becomes the RFC 9457 `type` `/problems/<code>`, which the
+ * service itself serves as documentation (GET /problems/<code>). A test checks that every code is
+ * documented in docs/problems.md and that the HTTP layer emits no code missing here.
+ */
+export const PROBLEMS = {
+  'invalid-request': { status: 400, title: 'The request is malformed', about: 'The body or query does not match the schema; `pointer` names the first offending field.' },
+  'invalid-signal': { status: 422, title: 'The signal cannot be used', about: 'Ragged rows, too few samples, duplicate channel names, a bad sampling rate or non-finite samples; `pointer` says where.' },
+  'invalid-recipe': { status: 422, title: 'The recipe is invalid', about: 'An unknown or misspelt setting, a value out of range or a contradiction between settings; `pointer` names the field.' },
+  'recipe-unfit': { status: 422, title: 'The recipe does not fit the signal', about: 'Segments longer than the epoch, bands above Nyquist or narrower than the resolution, fftLength shorter than a segment.' },
+  'non-finite': { status: 422, title: 'The signal holds non-finite samples', about: 'An epoch contains NaN or ±Inf; the recipe can set "nonFinite": "skip-epoch".' },
+  'no-usable-epochs': { status: 422, title: 'No epoch is left to analyze', about: 'Every epoch was left out (for example, all hold non-finite samples).' },
+  'limit-exceeded': { status: 422, title: 'A size limit of this server is exceeded', about: 'Too many channels, epochs, samples or too long an FFT; limits are configuration.' },
+  'payload-too-large': { status: 413, title: 'The body is too large', about: 'The request body exceeds BODY_LIMIT_BYTES.' },
+  'unsupported-media-type': { status: 415, title: 'The content type is not supported', about: 'Send application/json or application/octet-stream.' },
+  'signal-not-found': { status: 404, title: 'Signal not found', about: 'No signal with this id is stored.' },
+  'recipe-not-found': { status: 404, title: 'Recipe not found', about: 'No pinned recipe with this id.' },
+  'job-not-found': { status: 404, title: 'Job not found', about: 'No job with this id.' },
+  'record-not-ready': { status: 409, title: 'The record is not ready', about: 'The job has not succeeded (yet); poll the job.' },
+  'not-found': { status: 404, title: 'Not found', about: 'No route matches.' },
+  'method-not-allowed': { status: 405, title: 'Method not allowed', about: 'The route exists but not with this method.' },
+  'rate-limited': { status: 429, title: 'Too many requests', about: 'Slow down; Retry-After says when.' },
+  'queue-unavailable': { status: 503, title: 'The job queue is unavailable', about: 'Redis cannot be reached; Retry-After says when to try again.' },
+  'worker-crashed': { status: 500, title: 'The computation failed', about: 'A worker failed for a reason outside the input after every retry.' },
+  'internal': { status: 500, title: 'Internal error', about: 'An unexpected fault; the request id in the body helps the operator find it in the logs.' },
+} as const satisfies Record<string, { status: number; title: string; about: string }>;
+
+export type ProblemCode = keyof typeof PROBLEMS;
+
+export function problemType(code: ProblemCode): string {
+  return `/problems/${code}`;
+}

@@ -1,0 +1,11 @@
+import { createHash } from 'node:crypto';
+import { canonicalJson } from './canonical-json.js';
+
+export function sha256Hex(data: string | Uint8Array): string {
+  return createHash('sha256').update(data).digest('hex');
+}
+
+/** SHA-256 of the canonical JSON text of `value`. */
+export function hashCanonical(value: unknown): string {
+  return sha256Hex(canonicalJson(value));
+}

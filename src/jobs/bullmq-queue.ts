@@ -1,0 +1,177 @@
+import { Queue, type Job } from 'bullmq';
+import { Redis } from 'ioredis';
+import { PROBLEMS, problemType } from '../common/errors.js';
+import type { JobOutcome } from './run-job.js';
+import type { JobQueue } from './queue.js';
+import { newJobView, type JobProblem, type JobSpec, type JobState, type JobView } from './spec.js';
+import { waitForJob } from './wait.js';
+
+export interface BullQueueOptions {
+  url: string;
+  /** BullMQ key prefix (never an ioredis keyPrefix) */
+  prefix: string;
+  queueName: string;
+  /** attempts for transient faults; bad input fails at once (UnrecoverableError in the worker) */
+  attempts?: number;
+  /** first retry delay, doubled on every further attempt */
+  backoffMs?: number;
+}
+
+export const CANCELED_MARK = 'canceled:';
+
+/** Redis key a worker watches to abandon a running job. */
+export function cancelKey(prefix: string, queueName: string, jobId: string): string {
+  return `${prefix}:${queueName}:rhythmetric-cancel:${jobId}`;
+}
+
+/**
+ * The distributed adapter: jobs go to a BullMQ queue, `rhythmetric worker` processes consume them.
+ * The API's connection fails fast (no offline queue) so that a Redis outage answers 503 instead of
+ * hanging requests.
+ */
+export class BullQueue implements JobQueue {
+  readonly mode = 'distributed' as const;
+  readonly queue: Queue;
+  private readonly connection: Redis;
+
+  constructor(private readonly options: BullQueueOptions) {
+    this.connection = new Redis(options.url, { maxRetriesPerRequest: 1, enableOfflineQueue: false });
+    this.connection.on('error', () => {
+      // Surfaces through failing commands and /readyz.
+    });
+    this.queue = new Queue(options.queueName, { connection: this.connection, prefix: options.prefix, skipWaitingForReady: true });
+    this.queue.on('error', () => {});
+  }
+
+  async submit(spec: JobSpec, jobId: string): Promise<{ job: JobView; created: boolean }> {
+    const existing = await this.queue.getJob(jobId);
+    if (existing) {
+      const view = await this.view(existing);
+      if (view.state !== 'failed' && view.state !== 'canceled') return { job: view, created: false };
+      await existing.remove();
+    }
+    await this.connection.del(cancelKey(this.options.prefix, this.options.queueName, jobId), this.tombstoneKey(jobId));
+    const job = await this.queue.add('analyze', spec, {
+      jobId,
+      attempts: this.options.attempts ?? 3,
+      backoff: { type: 'exponential', delay: this.options.backoffMs ?? 1000 },
+      removeOnComplete: { age: 30 * 24 * 3600 },
+      removeOnFail: { age: 30 * 24 * 3600 },
+    });
+    return { job: await this.view(job), created: true };
+  }
+
+  async get(jobId: string): Promise<JobView | null> {
+    const job = await this.queue.getJob(jobId);
+    if (job) return this.view(job);
+    const tombstone = await this.connection.get(this.tombstoneKey(jobId));
+    return tombstone ? (JSON.parse(tombstone) as JobView) : null;
+  }
+
+  async cancel(jobId: string): Promise<JobView | null> {
+    const job = await this.queue.getJob(jobId);
+    if (!job) return null;
+    const state = await job.getState();
+    if (state === 'waiting' || state === 'delayed' || state === 'prioritized') {
+      // A job that never started leaves the queue; a tombstone keeps its canceled state visible.
+      const view = this.canceledView(job);
+      await job.remove();
+      await this.connection.set(this.tombstoneKey(jobId), JSON.stringify(view), 'EX', 30 * 24 * 3600);
+      return view;
+    }
+    if (state === 'active') {
+      await this.connection.set(cancelKey(this.options.prefix, this.options.queueName, jobId), '1', 'EX', 3600);
+      return waitForJob(this, jobId, 15_000).catch(async () => (await this.get(jobId))!);
+    }
+    return this.view(job);
+  }
+
+  waitFor(jobId: string, timeoutMs: number): Promise<JobView> {
+    return waitForJob(this, jobId, timeoutMs);
+  }
+
+  async ready(): Promise<boolean> {
+    try {
+      return (await this.connection.ping()) === 'PONG';
+    } catch {
+      return false;
+    }
+  }
+
+  async close(): Promise<void> {
+    await this.queue.close().catch(() => undefined);
+    await this.connection.quit().catch(() => this.connection.disconnect());
+  }
+
+  private tombstoneKey(jobId: string): string {
+    return `${this.options.prefix}:${this.options.queueName}:rhythmetric-canceled:${jobId}`;
+  }
+
+  private canceledView(job: Job): JobView {
+    const spec = job.data as JobSpec;
+    return {
+      ...baseView(job, spec),
+      state: 'canceled',
+      finishedAt: new Date().toISOString(),
+    };
+  }
+
+  private async view(job: Job): Promise<JobView> {
+    const spec = job.data as JobSpec;
+    const raw = await job.getState();
+    let state: JobState;
+    let problem: JobProblem | null = null;
+    switch (raw) {
+      case 'active':
+        state = 'running';
+        break;
+      case 'completed':
+        state = 'succeeded';
+        break;
+      case 'failed':
+        if (job.failedReason?.startsWith(CANCELED_MARK)) {
+          state = 'canceled';
+        } else {
+          state = 'failed';
+          problem = problemFromReason(job.failedReason ?? 'unknown failure', job.attemptsMade);
+        }
+        break;
+      default:
+        state = 'queued';
+    }
+    const outcome = job.returnvalue as JobOutcome | null | undefined;
+    return {
+      ...baseView(job, spec),
+      state,
+      progress: state === 'succeeded' ? 1 : typeof job.progress === 'number' ? job.progress : 0,
+      resultHash: outcome?.resultHash ?? null,
+      finishedAt: job.finishedOn ? new Date(job.finishedOn).toISOString() : null,
+      problem,
+    };
+  }
+}
+
+function baseView(job: Job, spec: JobSpec): JobView {
+  return {
+    ...newJobView(job.id!, spec, new Date(job.timestamp).toISOString()),
+    attempts: job.attemptsMade,
+    startedAt: job.processedOn ? new Date(job.processedOn).toISOString() : null,
+  };
+}
+
+/** Workers fail bad-input jobs with the problem as JSON; anything else is a crash after retries. */
+function problemFromReason(reason: string, attempts: number): JobProblem {
+  if (reason.startsWith('{')) {
+    try {
+      return JSON.parse(reason) as JobProblem;
+    } catch {
+      // fall through: not one of ours
+    }
+  }
+  return {
+    type: problemType('worker-crashed'),
+    title: PROBLEMS['worker-crashed'].title,
+    status: 500,
+    detail: `the computation failed ${attempts} time(s); last error: ${reason}`,
+  };
+}

@@ -1,0 +1,80 @@
+import { UnrecoverableError, Worker, type Job } from 'bullmq';
+import { Redis } from 'ioredis';
+import type { StoreConfig } from '../stores/store.js';
+import { CANCELED_MARK, cancelKey } from './bullmq-queue.js';
+import type { ComputePool } from './compute-pool.js';
+import type { JobOutcome } from './run-job.js';
+import type { JobSpec } from './spec.js';
+
+export interface BullWorkerOptions {
+  url: string;
+  prefix: string;
+  queueName: string;
+  store: StoreConfig;
+  pool: ComputePool;
+  /** jobs at once; default the pool's thread count */
+  concurrency?: number;
+  /** ms; a job whose lock is not renewed within it is redelivered */
+  lockDurationMs?: number;
+  /** redeliveries after stalls before the job fails */
+  maxStalledCount?: number;
+  onEvent?: (event: 'completed' | 'failed' | 'stalled' | 'error', detail: Record<string, unknown>) => void;
+}
+
+/**
+ * A BullMQ worker whose processor hands the spectral work to worker threads, so this process's
+ * event loop stays free to renew job locks. Bad input fails without retry (UnrecoverableError);
+ * other faults are retried with exponential back-off by BullMQ.
+ */
+export function startBullWorker(options: BullWorkerOptions): { worker: Worker; close: () => Promise<void> } {
+  const connection = new Redis(options.url, { maxRetriesPerRequest: null });
+  connection.on('error', (error) => options.onEvent?.('error', { message: error.message }));
+  const processor = async (job: Job<JobSpec, JobOutcome>): Promise<JobOutcome> => {
+    const abort = new AbortController();
+    const key = cancelKey(options.prefix, options.queueName, job.id!);
+    const watch = setInterval(() => {
+      connection.exists(key).then((n) => n > 0 && abort.abort(), () => undefined);
+    }, 250);
+    let last = -1;
+    try {
+      const output = await options.pool.run(
+        job.data,
+        options.store,
+        'distributed',
+        (fraction) => {
+          const step = Math.floor(fraction * 20);
+          if (step > last) {
+            last = step;
+            void job.updateProgress(fraction).catch(() => undefined);
+          }
+        },
+        abort.signal,
+      );
+      if (!output.ok) throw new UnrecoverableError(JSON.stringify(output.problem));
+      return output.outcome;
+    } catch (error) {
+      if (abort.signal.aborted) throw new UnrecoverableError(`${CANCELED_MARK} canceled by request while running`);
+      throw error;
+    } finally {
+      clearInterval(watch);
+    }
+  };
+  const worker = new Worker<JobSpec, JobOutcome>(options.queueName, processor, {
+    connection,
+    prefix: options.prefix,
+    concurrency: options.concurrency ?? options.pool.threads,
+    lockDuration: options.lockDurationMs ?? 30_000,
+    maxStalledCount: options.maxStalledCount ?? 2,
+  });
+  worker.on('completed', (job) => options.onEvent?.('completed', { jobId: job.id, resultHash: job.returnvalue?.resultHash }));
+  worker.on('failed', (job, error) => options.onEvent?.('failed', { jobId: job?.id, reason: error.message }));
+  worker.on('stalled', (jobId) => options.onEvent?.('stalled', { jobId }));
+  worker.on('error', (error) => options.onEvent?.('error', { message: error.message }));
+  return {
+    worker,
+    close: async () => {
+      await worker.close();
+      await connection.quit().catch(() => connection.disconnect());
+    },
+  };
+}

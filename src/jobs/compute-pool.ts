@@ -1,0 +1,41 @@
+import { availableParallelism } from 'node:os';
+import { MessageChannel } from 'node:worker_threads';
+import { Piscina } from 'piscina';
+import type { StoreConfig } from '../stores/store.js';
+import type { PoolTaskInput, PoolTaskOutput } from './pool-task.js';
+import type { JobSpec } from './spec.js';
+
+export interface ComputePool {
+  readonly threads: number;
+  run(spec: JobSpec, store: StoreConfig, mode: 'embedded' | 'distributed', onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<PoolTaskOutput>;
+  close(): Promise<void>;
+}
+
+/**
+ * Worker threads that run the spectral work off the event loop. From the TypeScript sources (tsx,
+ * vitest) the threads load the `.ts` task through tsx; from `dist/` they load the compiled `.js`.
+ */
+export function createComputePool(threads = Math.max(1, availableParallelism())): ComputePool {
+  const fromSource = import.meta.url.endsWith('.ts');
+  const pool = new Piscina({
+    filename: new URL(fromSource ? './pool-task.ts' : './pool-task.js', import.meta.url).href,
+    minThreads: 1,
+    maxThreads: threads,
+    idleTimeout: 60_000,
+    execArgv: fromSource ? ['--import', 'tsx'] : [],
+  });
+  return {
+    threads,
+    async run(spec, store, mode, onProgress, signal) {
+      const { port1, port2 } = new MessageChannel();
+      port1.on('message', (fraction: number) => onProgress(fraction));
+      try {
+        const input: PoolTaskInput = { spec, store, mode, port: port2 };
+        return (await pool.run(input, { transferList: [port2], ...(signal ? { signal } : {}) })) as PoolTaskOutput;
+      } finally {
+        port1.close();
+      }
+    },
+    close: () => pool.destroy(),
+  };
+}

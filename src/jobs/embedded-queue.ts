@@ -1,0 +1,175 @@
+import { PROBLEMS, problemType } from '../common/errors.js';
+import type { Store, StoreConfig } from '../stores/store.js';
+import type { ComputePool } from './compute-pool.js';
+import type { JobQueue } from './queue.js';
+import { isFinished, newJobView, type JobSpec, type JobView } from './spec.js';
+import { waitForJob } from './wait.js';
+
+interface Entry {
+  view: JobView;
+  spec: JobSpec;
+  abort: AbortController | null;
+}
+
+export interface EmbeddedQueueOptions {
+  store: Store;
+  storeConfig: StoreConfig;
+  pool: ComputePool;
+  /** jobs computed at once; default: the pool's thread count */
+  concurrency?: number;
+  /** attempts for faults outside the input (a crashed thread); bad input is never retried */
+  maxAttempts?: number;
+  onError?: (error: unknown, jobId: string) => void;
+}
+
+/**
+ * The in-process queue of embedded mode: FIFO, computed on the worker-thread pool. Job state is
+ * written to the store on every transition, so queued and interrupted jobs resume after a restart.
+ */
+export class EmbeddedQueue implements JobQueue {
+  readonly mode = 'embedded' as const;
+  private readonly entries = new Map<string, Entry>();
+  private readonly pending: string[] = [];
+  private running = 0;
+  private closed = false;
+  private readonly concurrency: number;
+  private readonly maxAttempts: number;
+
+  private constructor(private readonly options: EmbeddedQueueOptions) {
+    this.concurrency = options.concurrency ?? options.pool.threads;
+    this.maxAttempts = options.maxAttempts ?? 3;
+  }
+
+  static async open(options: EmbeddedQueueOptions): Promise<EmbeddedQueue> {
+    const queue = new EmbeddedQueue(options);
+    await queue.restore();
+    return queue;
+  }
+
+  private async restore(): Promise<void> {
+    for (const id of await this.options.store.listDocuments('jobs')) {
+      const text = await this.options.store.getDocument('jobs', id);
+      if (!text) continue;
+      const { view, spec } = JSON.parse(text) as { view: JobView; spec: JobSpec };
+      const entry: Entry = { view, spec, abort: null };
+      this.entries.set(view.id, entry);
+      if (!isFinished(view.state)) {
+        view.state = 'queued';
+        view.progress = 0;
+        this.pending.push(view.id);
+      }
+    }
+    this.pump();
+  }
+
+  async submit(spec: JobSpec, jobId: string): Promise<{ job: JobView; created: boolean }> {
+    const existing = this.entries.get(jobId);
+    if (existing && existing.view.state !== 'failed' && existing.view.state !== 'canceled') {
+      return { job: { ...existing.view }, created: false };
+    }
+    const view = newJobView(jobId, spec, new Date().toISOString());
+    const entry: Entry = { view, spec, abort: null };
+    this.entries.set(jobId, entry);
+    await this.persist(entry);
+    this.pending.push(jobId);
+    this.pump();
+    return { job: { ...view }, created: true };
+  }
+
+  async get(jobId: string): Promise<JobView | null> {
+    const entry = this.entries.get(jobId);
+    return entry ? { ...entry.view } : null;
+  }
+
+  async cancel(jobId: string): Promise<JobView | null> {
+    const entry = this.entries.get(jobId);
+    if (!entry) return null;
+    if (entry.view.state === 'queued') {
+      this.pending.splice(this.pending.indexOf(jobId), 1);
+      await this.finish(entry, 'canceled');
+    } else if (entry.view.state === 'running') {
+      entry.abort?.abort();
+      await waitForJob(this, jobId, 10_000).catch(() => undefined);
+    }
+    return { ...entry.view };
+  }
+
+  waitFor(jobId: string, timeoutMs: number): Promise<JobView> {
+    return waitForJob(this, jobId, timeoutMs);
+  }
+
+  async ready(): Promise<boolean> {
+    return !this.closed && (await this.options.store.ping());
+  }
+
+  async close(): Promise<void> {
+    this.closed = true;
+    for (const entry of this.entries.values()) entry.abort?.abort();
+  }
+
+  private pump(): void {
+    while (!this.closed && this.running < this.concurrency && this.pending.length > 0) {
+      const id = this.pending.shift()!;
+      const entry = this.entries.get(id);
+      if (!entry || entry.view.state !== 'queued') continue;
+      this.running++;
+      void this.execute(entry).finally(() => {
+        this.running--;
+        this.pump();
+      });
+    }
+  }
+
+  private async execute(entry: Entry): Promise<void> {
+    const { view } = entry;
+    view.state = 'running';
+    view.startedAt = new Date().toISOString();
+    view.attempts++;
+    entry.abort = new AbortController();
+    await this.persist(entry);
+    try {
+      const output = await this.options.pool.run(entry.spec, this.options.storeConfig, 'embedded', (f) => (view.progress = f), entry.abort.signal);
+      if (output.ok) {
+        view.resultHash = output.outcome.resultHash;
+        view.progress = 1;
+        await this.finish(entry, 'succeeded');
+      } else {
+        view.problem = output.problem;
+        await this.finish(entry, 'failed');
+      }
+    } catch (error) {
+      if (entry.abort.signal.aborted) {
+        if (this.closed) return; // shutting down: the job stays running on disk and resumes on restart
+        await this.finish(entry, 'canceled');
+        return;
+      }
+      this.options.onError?.(error, view.id);
+      if (view.attempts < this.maxAttempts) {
+        view.state = 'queued';
+        view.progress = 0;
+        await this.persist(entry);
+        this.pending.push(view.id);
+      } else {
+        view.problem = {
+          type: problemType('worker-crashed'),
+          title: PROBLEMS['worker-crashed'].title,
+          status: 500,
+          detail: `the computation failed ${view.attempts} time(s); last error: ${error instanceof Error ? error.message : String(error)}`,
+        };
+        await this.finish(entry, 'failed');
+      }
+    } finally {
+      entry.abort = null;
+    }
+  }
+
+  private async finish(entry: Entry, state: 'succeeded' | 'failed' | 'canceled'): Promise<void> {
+    entry.view.state = state;
+    entry.view.finishedAt = new Date().toISOString();
+    await this.persist(entry);
+  }
+
+  private persist(entry: Entry): Promise<void> {
+    return this.options.store.putDocument('jobs', entry.view.id, JSON.stringify({ view: entry.view, spec: entry.spec }));
+  }
+}

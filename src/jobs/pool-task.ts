@@ -1,0 +1,47 @@
+import type { MessagePort } from 'node:worker_threads';
+import { createStore } from '../stores/create-store.js';
+import type { Store, StoreConfig } from '../stores/store.js';
+import { PermanentJobError, runJob, type JobOutcome } from './run-job.js';
+import type { JobProblem, JobSpec } from './spec.js';
+
+/** Input of one worker-thread task. Progress goes back over `port`. */
+export interface PoolTaskInput {
+  spec: JobSpec;
+  store: StoreConfig;
+  mode: 'embedded' | 'distributed';
+  port: MessagePort;
+}
+
+export type PoolTaskOutput = { ok: true; outcome: JobOutcome } | { ok: false; problem: JobProblem };
+
+const stores = new Map<string, Store>();
+
+function storeFor(config: StoreConfig): Store {
+  const key = JSON.stringify(config);
+  let store = stores.get(key);
+  if (!store) {
+    store = createStore(config);
+    stores.set(key, store);
+  }
+  return store;
+}
+
+/** Progress is sent at most every 1 % so that many-channel jobs do not flood the port. */
+export default async function poolTask({ spec, store, mode, port }: PoolTaskInput): Promise<PoolTaskOutput> {
+  let sent = -1;
+  try {
+    const outcome = await runJob(spec, storeFor(store), mode, (fraction) => {
+      const step = Math.floor(fraction * 100);
+      if (step > sent) {
+        sent = step;
+        port.postMessage(fraction);
+      }
+    });
+    return { ok: true, outcome };
+  } catch (error) {
+    if (error instanceof PermanentJobError) return { ok: false, problem: error.problem };
+    throw error;
+  } finally {
+    port.close();
+  }
+}

@@ -1,0 +1,18 @@
+import type { JobSpec, JobView } from './spec.js';
+
+/**
+ * The port every queue adapter implements; one conformance suite runs against each
+ * (test/jobs/queue-conformance.test.ts).
+ */
+export interface JobQueue {
+  readonly mode: 'embedded' | 'distributed';
+  /** Queues the job, or returns the existing one with the same id when it is not failed or canceled. */
+  submit(spec: JobSpec, jobId: string): Promise<{ job: JobView; created: boolean }>;
+  get(jobId: string): Promise<JobView | null>;
+  /** Cancels a job that has not finished; answers the job's state afterwards, null when unknown. */
+  cancel(jobId: string): Promise<JobView | null>;
+  /** Resolves when the job reaches a finished state (for tests and the CLI). */
+  waitFor(jobId: string, timeoutMs: number): Promise<JobView>;
+  ready(): Promise<boolean>;
+  close(): Promise<void>;
+}

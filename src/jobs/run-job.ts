@@ -1,0 +1,69 @@
+import { PROBLEMS, problemType, type ProblemCode } from '../common/errors.js';
+import { analyze, type ProgressListener } from '../engine/analyze.js';
+import { EngineInputError } from '../engine/errors.js';
+import { RecipeInputError } from '../recipes/errors.js';
+import { resolveRecipe } from '../recipes/resolve.js';
+import type { Store } from '../stores/store.js';
+import type { JobProblem, JobSpec } from './spec.js';
+
+/** A failure that will fail again on every retry: bad input, not a transient fault. */
+export class PermanentJobError extends Error {
+  override readonly name = 'PermanentJobError';
+  constructor(readonly problem: JobProblem) {
+    super(problem.detail);
+  }
+}
+
+export interface JobOutcome {
+  recordKey: string;
+  resultHash: string;
+  /** false when the record was already stored (a redelivered or repeated job) */
+  computed: boolean;
+}
+
+/**
+ * Computes one job and stores its record under its key. The same function runs in the embedded
+ * worker threads and in BullMQ workers, so both modes produce the same bytes.
+ */
+export async function runJob(
+  spec: JobSpec,
+  store: Store,
+  mode: 'embedded' | 'distributed',
+  onProgress: ProgressListener = () => {},
+  checkpoint?: () => void,
+): Promise<JobOutcome> {
+  const existing = await store.getDocument('records', spec.recordKey);
+  if (existing !== null) {
+    onProgress(1);
+    return { recordKey: spec.recordKey, resultHash: (JSON.parse(existing) as { resultHash: string }).resultHash, computed: false };
+  }
+  const loaded = await store.getSignal(spec.signalId);
+  if (!loaded) {
+    throw new PermanentJobError({ type: problemType('signal-not-found'), title: PROBLEMS['signal-not-found'].title, status: 404, detail: `signal ${spec.signalId} is not in the store` });
+  }
+  try {
+    const resolved = resolveRecipe(spec.recipe, spec.recipeHash, loaded.signal);
+    const record = analyze(loaded.signal, resolved, {
+      signalId: spec.signalId,
+      sha256: spec.sha256,
+      recipeId: spec.recipeId,
+      mode,
+      onProgress,
+      ...(checkpoint ? { checkpoint } : {}),
+    });
+    await store.putDocument('records', spec.recordKey, JSON.stringify(record));
+    return { recordKey: spec.recordKey, resultHash: record.resultHash, computed: true };
+  } catch (error) {
+    if (error instanceof RecipeInputError || error instanceof EngineInputError) {
+      const code: ProblemCode = error instanceof RecipeInputError ? (error.code === 'limit' ? 'limit-exceeded' : 'recipe-unfit') : error.code;
+      throw new PermanentJobError({
+        type: problemType(code),
+        title: PROBLEMS[code].title,
+        status: PROBLEMS[code].status,
+        detail: error.message,
+        ...(error.pointer ? { pointer: error instanceof RecipeInputError ? `/recipe${error.pointer}` : error.pointer } : {}),
+      });
+    }
+    throw error;
+  }
+}

@@ -1,0 +1,73 @@
+import { sha256Hex } from '../common/hash.js';
+import { ENGINE_VERSION } from '../engine/version.js';
+import type { Recipe } from '../recipes/schema.js';
+
+export const JOB_STATES = ['queued', 'running', 'succeeded', 'failed', 'canceled'] as const;
+export type JobState = (typeof JOB_STATES)[number];
+
+/** Everything a worker needs; small enough to travel through Redis. The samples stay in the store. */
+export interface JobSpec {
+  signalId: string;
+  sha256: string;
+  recipeId: string;
+  recipeHash: string;
+  recipe: Recipe;
+  recordKey: string;
+}
+
+/** RFC 9457 problem details, as stored on a failed job. */
+export interface JobProblem {
+  type: string;
+  title: string;
+  status: number;
+  detail: string;
+  pointer?: string;
+}
+
+export interface JobView {
+  id: string;
+  state: JobState;
+  /** 0..1 */
+  progress: number;
+  signal: string;
+  recipe: string;
+  recordKey: string;
+  resultHash: string | null;
+  attempts: number;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  problem: JobProblem | null;
+}
+
+/** A record is stored under (signal hash, recipe hash, engine version): equal inputs can only write equal bytes. */
+export function recordKeyOf(sha256: string, recipeHash: string, engineVersion = ENGINE_VERSION): string {
+  return `${sha256}.${recipeHash}.${engineVersion}`;
+}
+
+/** Job ids follow from the record key, so an identical submission finds the existing job. */
+export function jobIdOf(recordKey: string): string {
+  return `job_${sha256Hex(recordKey).slice(0, 32)}`;
+}
+
+/** A job that has not started yet. */
+export function newJobView(id: string, spec: JobSpec, createdAt: string): JobView {
+  return {
+    id,
+    state: 'queued',
+    progress: 0,
+    signal: spec.signalId,
+    recipe: spec.recipeId,
+    recordKey: spec.recordKey,
+    resultHash: null,
+    attempts: 0,
+    createdAt,
+    startedAt: null,
+    finishedAt: null,
+    problem: null,
+  };
+}
+
+export function isFinished(state: JobState): boolean {
+  return state === 'succeeded' || state === 'failed' || state === 'canceled';
+}

@@ -1,0 +1,71 @@
+import { z } from 'zod';
+import { hashCanonical } from '../common/hash.js';
+import { pointerOf, RecipeInputError } from './errors.js';
+import { RecipeSchema, type Recipe } from './schema.js';
+
+export interface PinnedRecipe {
+  id: string;
+  hash: string;
+  recipe: Recipe;
+}
+
+export function recipeIdFromHash(hash: string): string {
+  return `rcp_${hash.slice(0, 32)}`;
+}
+
+/**
+ * Parses a recipe, fills every default, rejects contradictions by name and returns it frozen with
+ * its hash (SHA-256 of the canonical JSON). Two recipes that differ only in defaults they spell out
+ * get the same hash.
+ */
+export function normalizeRecipe(input: unknown): PinnedRecipe {
+  const parsed = RecipeSchema.safeParse(input);
+  if (!parsed.success) throw fromZod(parsed.error);
+  const recipe = parsed.data;
+  checkCrossFields(recipe);
+  if (recipe.method === 'welch' && recipe.window === 'tukey' && recipe.tukeyRatio === undefined) recipe.tukeyRatio = 0.5;
+  recipe.ratios = recipe.ratios.map((r) => ({ ...r, name: r.name ?? `${r.numerator}/${r.denominator}` }));
+  const hash = hashCanonical(recipe);
+  return { id: recipeIdFromHash(hash), hash, recipe: deepFreeze(recipe) };
+}
+
+export function fromZod(error: z.ZodError): RecipeInputError {
+  const issue = error.issues[0]!;
+  const pointer = pointerOf(issue.path);
+  let message = issue.message;
+  if (issue.code === 'unrecognized_keys') {
+    message = `unknown setting${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${k}"`).join(', ')}; a misspelt setting is never replaced by a default`;
+  } else if (issue.code === 'invalid_union' && issue.path.length === 0) {
+    message = 'method must be one of "welch"';
+  }
+  return new RecipeInputError('invalid', message, pointer || '/');
+}
+
+function checkCrossFields(recipe: Recipe): void {
+  if (recipe.method === 'welch' && recipe.tukeyRatio !== undefined && recipe.window !== 'tukey') {
+    throw new RecipeInputError('invalid', `tukeyRatio applies only to window "tukey", not "${recipe.window}"`, '/tukeyRatio');
+  }
+  if (recipe.frequencyRange && recipe.frequencyRange[0] >= recipe.frequencyRange[1]) {
+    throw new RecipeInputError('invalid', 'frequencyRange must be [low, high] with low < high', '/frequencyRange/1');
+  }
+  const names = new Map<string, number>();
+  recipe.bands.forEach((band, i) => {
+    if (names.has(band.name)) throw new RecipeInputError('invalid', `band name "${band.name}" is used twice`, `/bands/${i}/name`);
+    names.set(band.name, i);
+  });
+  recipe.ratios.forEach((ratio, i) => {
+    for (const side of ['numerator', 'denominator'] as const) {
+      if (!names.has(ratio[side])) {
+        throw new RecipeInputError('invalid', `ratio ${side} "${ratio[side]}" is not a band of this recipe`, `/ratios/${i}/${side}`);
+      }
+    }
+  });
+}
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object') {
+    for (const v of Object.values(value)) deepFreeze(v);
+    Object.freeze(value);
+  }
+  return value;
+}

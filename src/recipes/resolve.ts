@@ -1,0 +1,128 @@
+import { RecipeInputError } from './errors.js';
+import type { Recipe } from './schema.js';
+
+export interface SignalShape {
+  samplingRate: number;
+  samplesPerEpoch: number;
+}
+
+export interface RecipeLimits {
+  maxFftLength: number;
+}
+
+export const DEFAULT_RECIPE_LIMITS: Readonly<RecipeLimits> = Object.freeze({ maxFftLength: 1 << 20 });
+
+/** Values that follow from a recipe and the signal's sampling rate and epoch length. */
+export interface DerivedSettings {
+  /** round(segmentSeconds · samplingRate) */
+  segmentSamples: number;
+  /** ⌊overlap · segmentSamples⌋ */
+  overlapSamples: number;
+  /** recipe.fftLength, or segmentSamples when null */
+  fftLength: number;
+  /** samplingRate / fftLength, Hz */
+  frequencyResolution: number;
+  /** ⌊(samplesPerEpoch − overlapSamples) / (segmentSamples − overlapSamples)⌋ */
+  segmentsPerEpoch: number;
+  /** recipe.frequencyRange, or [0, samplingRate / 2] when null */
+  frequencyRange: [number, number];
+  nyquist: number;
+}
+
+export interface ResolvedRecipe {
+  recipe: Recipe;
+  hash: string;
+  derived: DerivedSettings;
+  warnings: string[];
+}
+
+/**
+ * Checks a normalized recipe against the signal it will run on and derives the sample counts.
+ * Everything that would make the computation meaningless is refused here, before any work starts.
+ */
+export function resolveRecipe(recipe: Recipe, hash: string, shape: SignalShape, limits: RecipeLimits = DEFAULT_RECIPE_LIMITS): ResolvedRecipe {
+  const fs = shape.samplingRate;
+  const nyquist = fs / 2;
+  const warnings: string[] = [];
+  const exactSegment = recipe.segmentSeconds * fs;
+  const segmentSamples = Math.round(exactSegment);
+  if (segmentSamples < 2) {
+    throw new RecipeInputError('unfit-for-signal', `a segment of ${recipe.segmentSeconds} s at ${fs} Hz holds ${segmentSamples} sample(s); at least 2 are needed`, '/segmentSeconds');
+  }
+  if (Math.abs(exactSegment - segmentSamples) > 1e-9 * Math.max(1, exactSegment)) {
+    warnings.push(`segmentSeconds ${recipe.segmentSeconds} s is ${exactSegment} samples at ${fs} Hz; rounded to ${segmentSamples} samples (${segmentSamples / fs} s)`);
+  }
+  if (segmentSamples > shape.samplesPerEpoch) {
+    throw new RecipeInputError(
+      'unfit-for-signal',
+      `a segment of ${recipe.segmentSeconds} s (${segmentSamples} samples) is longer than the epoch (${shape.samplesPerEpoch} samples = ${shape.samplesPerEpoch / fs} s)`,
+      '/segmentSeconds',
+    );
+  }
+  const overlapSamples = Math.floor(recipe.overlap * segmentSamples);
+  const fftLength = recipe.fftLength ?? segmentSamples;
+  if (fftLength < segmentSamples) {
+    throw new RecipeInputError('unfit-for-signal', `fftLength ${fftLength} is shorter than the segment (${segmentSamples} samples); it must be at least the segment length`, '/fftLength');
+  }
+  if (fftLength > limits.maxFftLength) {
+    throw new RecipeInputError('limit', `fftLength ${fftLength} is above this server's limit of ${limits.maxFftLength}`, '/fftLength');
+  }
+  const frequencyResolution = fs / fftLength;
+  const frequencyRange: [number, number] = recipe.frequencyRange ? [recipe.frequencyRange[0], recipe.frequencyRange[1]] : [0, nyquist];
+  if (frequencyRange[1] > nyquist) {
+    throw new RecipeInputError('unfit-for-signal', `frequencyRange ends at ${frequencyRange[1]} Hz, above the Nyquist frequency ${nyquist} Hz of this ${fs} Hz signal`, '/frequencyRange/1');
+  }
+  // A band may reach one resolution step past Nyquist so that it can include the Nyquist bin itself.
+  const ceiling = nyquist + frequencyResolution;
+  recipe.bands.forEach((band, i) => {
+    if (band.high > ceiling) {
+      throw new RecipeInputError(
+        'unfit-for-signal',
+        `band "${band.name}" [${band.low}, ${band.high}) Hz reaches above the Nyquist frequency ${nyquist} Hz of this ${fs} Hz signal; give bands that fit`,
+        `/bands/${i}/high`,
+      );
+    }
+    const bins = countBins(band.low, band.high, fs, fftLength);
+    if (bins === 0) {
+      throw new RecipeInputError(
+        'unfit-for-signal',
+        `band "${band.name}" [${band.low}, ${band.high}) Hz holds no frequency bin at a resolution of ${frequencyResolution} Hz; widen it or raise fftLength`,
+        `/bands/${i}`,
+      );
+    }
+    if (band.high - band.low < frequencyResolution) {
+      warnings.push(`band "${band.name}" is narrower (${band.high - band.low} Hz) than the frequency resolution (${frequencyResolution} Hz); its power is one bin`);
+    }
+    if (band.low < frequencyRange[0] || band.high > frequencyRange[1] + frequencyResolution) {
+      warnings.push(`band "${band.name}" [${band.low}, ${band.high}) Hz extends outside frequencyRange [${frequencyRange[0]}, ${frequencyRange[1]}] Hz, so its relative power can exceed its share`);
+    }
+  });
+  const step = segmentSamples - overlapSamples;
+  const segmentsPerEpoch = Math.floor((shape.samplesPerEpoch - overlapSamples) / step);
+  const used = (segmentsPerEpoch - 1) * step + segmentSamples;
+  if (used < shape.samplesPerEpoch) {
+    warnings.push(`the last ${shape.samplesPerEpoch - used} sample(s) of each epoch do not fill a segment and are not used`);
+  }
+  return {
+    recipe,
+    hash,
+    derived: { segmentSamples, overlapSamples, fftLength, frequencyResolution, segmentsPerEpoch, frequencyRange, nyquist },
+    warnings,
+  };
+}
+
+/** Frequency of bin k in Hz, computed as k·fs/n in this order everywhere (band edges compare against it). */
+export function binFrequency(k: number, samplingRate: number, fftLength: number): number {
+  return (k * samplingRate) / fftLength;
+}
+
+/** Number of bins k·Δf (k = 0..⌊n/2⌋) with low ≤ k·Δf < high. */
+export function countBins(low: number, high: number, samplingRate: number, fftLength: number): number {
+  const last = Math.floor(fftLength / 2);
+  let n = 0;
+  for (let k = 0; k <= last; k++) {
+    const f = binFrequency(k, samplingRate, fftLength);
+    if (f >= low && f < high) n++;
+  }
+  return n;
+}

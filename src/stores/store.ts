@@ -1,0 +1,60 @@
+import type { Signal, SignalDescription, SignalEvent } from '../signals/signal.js';
+
+/** What is kept about a stored signal besides its samples. */
+export interface SignalMeta extends SignalDescription {
+  id: string;
+  sha256: string;
+  nonFiniteSamples: number;
+  events: SignalEvent[];
+  /** bytes of float64 samples */
+  bytes: number;
+  storedAt: string;
+}
+
+export type Collection = 'recipes' | 'records' | 'jobs';
+
+/**
+ * Content-addressed storage for signals and JSON documents. Every write is atomic: a reader sees
+ * the whole value or nothing, never a half-written one. Writing the same key twice with the same
+ * bytes is harmless, which is what makes redelivered jobs safe.
+ */
+export interface Store {
+  readonly kind: 'filesystem' | 'redis';
+  putSignal(meta: SignalMeta, samples: Uint8Array): Promise<void>;
+  getSignalMeta(id: string): Promise<SignalMeta | null>;
+  getSignal(id: string): Promise<{ meta: SignalMeta; signal: Signal } | null>;
+  putDocument(collection: Collection, key: string, text: string): Promise<void>;
+  getDocument(collection: Collection, key: string): Promise<string | null>;
+  listDocuments(collection: Collection): Promise<string[]>;
+  ping(): Promise<boolean>;
+  close(): Promise<void>;
+}
+
+/** How a worker thread or process reaches the same store as the API. */
+export type StoreConfig = { kind: 'filesystem'; dataDir: string } | { kind: 'redis'; url: string; prefix: string };
+
+export function signalFromParts(meta: SignalMeta, samples: Uint8Array): Signal {
+  if (samples.byteLength !== meta.bytes) {
+    throw new Error(`stored samples of ${meta.id} have ${samples.byteLength} bytes, expected ${meta.bytes}`);
+  }
+  const copy = new Float64Array(meta.bytes / 8);
+  new Uint8Array(copy.buffer).set(samples);
+  const signal: Signal = {
+    samplingRate: meta.samplingRate,
+    channels: meta.channels,
+    unit: meta.unit,
+    epochCount: meta.epochCount,
+    samplesPerEpoch: meta.samplesPerEpoch,
+    data: copy,
+  };
+  if (meta.events.length > 0) signal.events = meta.events;
+  return signal;
+}
+
+const SAFE_KEY = /^[A-Za-z0-9_.-]{1,200}$/;
+
+/** Keys reach file names and Redis keys: only a safe alphabet is accepted. */
+export function checkKey(key: string): string {
+  if (!SAFE_KEY.test(key) || key.startsWith('.')) throw new RangeError(`unsafe store key "${key}"`);
+  return key;
+}
