@@ -1,0 +1,390 @@
+/**
+ * Welch's averaged modified periodogram: one-sided power spectral density.
+ *
+ * Reference: P. D. Welch (1967), "The use of fast Fourier transform for the estimation of power
+ * spectra: a method based on time averaging over short, modified periodograms", IEEE Trans. Audio
+ * Electroacoust. AU-15(2):70–73. Conventions (segmentation, scaling, median correction) follow
+ * scipy.signal.welch with scaling='density', so results can be checked against it.
+ */
+
+import { DETREND_KINDS, lineFit, type DetrendKind } from './detrend.js';
+import { complexFftPlan, type ComplexFftPlan } from './fft.js';
+
+export type AverageKind = 'mean' | 'median';
+const AVERAGE_KINDS: readonly AverageKind[] = ['mean', 'median'];
+
+export interface WelchOptions {
+  /** sampling rate in Hz, finite and > 0 */
+  samplingRate: number;
+  /** samples per segment, integer ≥ 1 */
+  segmentSamples: number;
+  /** samples shared by consecutive segments, integer in [0, segmentSamples) */
+  overlapSamples: number;
+  /** DFT length, integer ≥ segmentSamples; segments are zero-padded to it */
+  fftLength: number;
+  /** taper of length segmentSamples */
+  window: Float64Array;
+  /** trend removed from each segment before tapering */
+  detrend: DetrendKind;
+  /** how segment periodograms are combined; median is divided by {@link medianBias} */
+  average: AverageKind;
+  /**
+   * Optional filter on segments, called with the segment's first sample index and one past its
+   * last; segments for which it returns false are skipped and counted as rejected. Default: all.
+   */
+  acceptSegment?: (start: number, end: number) => boolean;
+}
+
+export interface WelchResult {
+  /** bin frequencies in Hz, k·samplingRate/fftLength for k = 0..floor(fftLength/2) */
+  frequencies: Float64Array;
+  /** one-sided PSD in unit²/Hz, one value per frequency */
+  psd: Float64Array;
+  /** segments averaged */
+  segmentCount: number;
+  /** segments skipped by `acceptSegment` */
+  rejectedSegments: number;
+}
+
+export interface WelchPlan {
+  readonly binCount: number;
+  readonly frequencies: Float64Array;
+  compute(x: Float64Array, out?: Float64Array): { psd: Float64Array; segmentCount: number; rejectedSegments: number };
+}
+
+function requireInteger(value: number, name: string, min: number): void {
+  if (!Number.isInteger(value) || value < min) {
+    throw new RangeError(`${name} must be an integer ≥ ${min}, got ${value}`);
+  }
+}
+
+function requireRate(samplingRate: number): void {
+  if (typeof samplingRate !== 'number' || !Number.isFinite(samplingRate) || samplingRate <= 0) {
+    throw new RangeError(`samplingRate must be a finite number > 0 Hz, got ${samplingRate}`);
+  }
+}
+
+/**
+ * Frequencies of the one-sided DFT bins.
+ *
+ * @param fftLength - DFT length n, integer ≥ 1
+ * @param samplingRate - Hz, finite and > 0
+ * @returns f_k = k·samplingRate/n in Hz for k = 0..floor(n/2) (as scipy.fft.rfftfreq)
+ * @throws RangeError for a bad `fftLength` or `samplingRate`
+ */
+export function welchFrequencies(fftLength: number, samplingRate: number): Float64Array {
+  requireInteger(fftLength, 'fftLength', 1);
+  requireRate(samplingRate);
+  const f = new Float64Array((fftLength >> 1) + 1);
+  for (let k = 0; k < f.length; k++) f[k] = (k * samplingRate) / fftLength;
+  return f;
+}
+
+/**
+ * Number of whole segments in a record.
+ *
+ * @param length - samples in the record, integer ≥ 0
+ * @param segmentSamples - samples per segment, integer ≥ 1
+ * @param overlapSamples - integer in [0, segmentSamples)
+ * @returns floor((length − overlap)/(segmentSamples − overlap)) when length ≥ segmentSamples, else 0;
+ *   trailing samples that do not fill a segment are dropped, as scipy.signal.welch does
+ * @throws RangeError for non-integer or out-of-range arguments
+ */
+export function segmentCount(length: number, segmentSamples: number, overlapSamples: number): number {
+  requireInteger(length, 'length', 0);
+  requireInteger(segmentSamples, 'segmentSamples', 1);
+  requireInteger(overlapSamples, 'overlapSamples', 0);
+  if (overlapSamples >= segmentSamples) {
+    throw new RangeError(`overlapSamples must be less than segmentSamples (${segmentSamples}), got ${overlapSamples}`);
+  }
+  if (length < segmentSamples) return 0;
+  return Math.floor((length - overlapSamples) / (segmentSamples - overlapSamples));
+}
+
+/**
+ * Per-bin factor turning |X_k|² into a one-sided power spectral density.
+ *
+ * @param fftLength - DFT length n, integer ≥ 1
+ * @param samplingRate - Hz, finite and > 0
+ * @param windowEnergy - Σw² of the taper, finite and > 0
+ * @returns for k = 0..floor(n/2): 2/(fs·Σw²) for 0 < k < n/2 and 1/(fs·Σw²) at DC and, for even n,
+ *   at Nyquist; for odd n every k ≥ 1 is doubled (no Nyquist bin), as scipy.signal.welch
+ * @throws RangeError for bad arguments
+ * @see Welch (1967); scipy.signal.welch, scaling='density'
+ */
+export function oneSidedDensityScale(fftLength: number, samplingRate: number, windowEnergy: number): Float64Array {
+  requireInteger(fftLength, 'fftLength', 1);
+  requireRate(samplingRate);
+  if (!Number.isFinite(windowEnergy) || windowEnergy <= 0) {
+    throw new RangeError(`windowEnergy must be a finite number > 0, got ${windowEnergy}`);
+  }
+  const bins = (fftLength >> 1) + 1;
+  const single = 1 / (samplingRate * windowEnergy);
+  const scale = new Float64Array(bins).fill(2 * single);
+  scale[0] = single;
+  if (fftLength % 2 === 0) scale[bins - 1] = single;
+  return scale;
+}
+
+/**
+ * Bias of the sample median of `count` independent χ²₂/2 (exponential) periodogram values,
+ * relative to their mean: b(n) = 1 + Σ_{i=1}^{⌊(n−1)/2⌋} (1/(2i+1) − 1/(2i)).
+ * The median average is divided by it, as scipy.signal.welch(average='median') does.
+ *
+ * @param count - number of averaged segments, integer ≥ 1
+ * @returns b(count); 1 for count ≤ 2, tending to ln 2 as count grows
+ * @throws RangeError when `count` is not an integer ≥ 1
+ * @see B. Allen et al. (2012), "FINDCHIRP: an algorithm for detection of gravitational waves from
+ *   inspiraling compact binaries", Phys. Rev. D 85, 122006, appendix B (as cited by scipy)
+ */
+export function medianBias(count: number): number {
+  requireInteger(count, 'count', 1);
+  let bias = 1;
+  for (let i = 1; i <= (count - 1) >> 1; i++) bias += 1 / (2 * i + 1) - 1 / (2 * i);
+  return bias;
+}
+
+function validate(options: WelchOptions): void {
+  if (options === null || typeof options !== 'object') throw new TypeError('options must be an object');
+  const { samplingRate, segmentSamples, overlapSamples, fftLength, window, detrend, average, acceptSegment } = options;
+  requireRate(samplingRate);
+  requireInteger(segmentSamples, 'segmentSamples', 1);
+  requireInteger(overlapSamples, 'overlapSamples', 0);
+  if (overlapSamples >= segmentSamples) {
+    throw new RangeError(`overlapSamples must be less than segmentSamples (${segmentSamples}), got ${overlapSamples}`);
+  }
+  requireInteger(fftLength, 'fftLength', 1);
+  if (fftLength < segmentSamples) {
+    throw new RangeError(`fftLength must be ≥ segmentSamples (${segmentSamples}), got ${fftLength}`);
+  }
+  if (!(window instanceof Float64Array)) throw new TypeError('window must be a Float64Array');
+  if (window.length !== segmentSamples) {
+    throw new RangeError(`window length must equal segmentSamples (${segmentSamples}), got ${window.length}`);
+  }
+  if (!(DETREND_KINDS as readonly string[]).includes(detrend)) {
+    throw new TypeError(`detrend must be one of ${DETREND_KINDS.join(', ')}, got ${String(detrend)}`);
+  }
+  if (!AVERAGE_KINDS.includes(average)) {
+    throw new TypeError(`average must be one of ${AVERAGE_KINDS.join(', ')}, got ${String(average)}`);
+  }
+  if (acceptSegment !== undefined && typeof acceptSegment !== 'function') {
+    throw new TypeError('acceptSegment must be a function when given');
+  }
+}
+
+/** k-th smallest of a[0..n−1] (0-based), reordering a; Hoare's selection with median-of-three. */
+function select(a: Float64Array, n: number, k: number): number {
+  let lo = 0, hi = n - 1;
+  while (hi > lo) {
+    const mid = (lo + hi) >> 1;
+    // order a[lo] ≤ a[mid] ≤ a[hi] so the pivot is never an extreme
+    if (a[mid]! < a[lo]!) swap(a, mid, lo);
+    if (a[hi]! < a[lo]!) swap(a, hi, lo);
+    if (a[hi]! < a[mid]!) swap(a, hi, mid);
+    const pivot = a[mid]!;
+    let i = lo, j = hi;
+    while (i <= j) {
+      while (a[i]! < pivot) i++;
+      while (a[j]! > pivot) j--;
+      if (i <= j) { swap(a, i, j); i++; j--; }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return a[k]!;
+  }
+  return a[k]!;
+}
+
+function swap(a: Float64Array, i: number, j: number): void {
+  const t = a[i]!; a[i] = a[j]!; a[j] = t;
+}
+
+/** Median as numpy.median: the mean of the two middle values for an even count. */
+function median(a: Float64Array, n: number): number {
+  const upper = select(a, n, n >> 1);
+  if (n % 2 === 1) return upper;
+  // after selection every element below n/2 is ≤ upper; the lower middle is their maximum
+  let lower = a[0]!;
+  for (let i = 1; i < n >> 1; i++) if (a[i]! > lower) lower = a[i]!;
+  return 0.5 * (lower + upper);
+}
+
+class WelchPlanImpl implements WelchPlan {
+  readonly binCount: number;
+  readonly frequencies: Float64Array;
+  private readonly segmentSamples: number;
+  private readonly step: number;
+  private readonly fftLength: number;
+  private readonly window: Float64Array;
+  private readonly detrend: DetrendKind;
+  private readonly average: AverageKind;
+  private readonly acceptSegment: ((start: number, end: number) => boolean) | undefined;
+  private readonly scale: Float64Array;
+  private readonly fft: ComplexFftPlan;
+  private readonly re: Float64Array;
+  private readonly im: Float64Array;
+  private readonly power: Float64Array;
+  private readonly starts: number[] = [];
+  private segmentPower = new Float64Array(0);
+  private column = new Float64Array(0);
+
+  constructor(options: WelchOptions) {
+    validate(options);
+    const { samplingRate, segmentSamples, overlapSamples, fftLength } = options;
+    this.segmentSamples = segmentSamples;
+    this.step = segmentSamples - overlapSamples;
+    this.fftLength = fftLength;
+    // a private copy: later changes to the caller's array must not change this plan's results
+    this.window = options.window.slice();
+    let energy = 0;
+    for (let i = 0; i < segmentSamples; i++) energy += this.window[i]! * this.window[i]!;
+    if (!Number.isFinite(energy) || energy <= 0) {
+      throw new RangeError(`window must have finite, non-zero energy Σw², got ${energy}`);
+    }
+    this.detrend = options.detrend;
+    this.average = options.average;
+    this.acceptSegment = options.acceptSegment;
+    this.binCount = (fftLength >> 1) + 1;
+    this.frequencies = welchFrequencies(fftLength, samplingRate);
+    this.scale = oneSidedDensityScale(fftLength, samplingRate, energy);
+    this.fft = complexFftPlan(fftLength);
+    this.re = new Float64Array(fftLength);
+    this.im = new Float64Array(fftLength);
+    this.power = new Float64Array(fftLength);
+  }
+
+  compute(x: Float64Array, out?: Float64Array): { psd: Float64Array; segmentCount: number; rejectedSegments: number } {
+    if (!(x instanceof Float64Array)) throw new TypeError('x must be a Float64Array');
+    if (x.length < this.segmentSamples) {
+      throw new RangeError(`segmentSamples (${this.segmentSamples}) must not exceed the signal length (${x.length})`);
+    }
+    const bins = this.binCount;
+    if (out !== undefined && (!(out instanceof Float64Array) || out.length < bins)) {
+      throw new RangeError(`out must be a Float64Array of at least ${bins} elements`);
+    }
+    const starts = this.starts;
+    starts.length = 0;
+    const total = Math.floor((x.length - this.segmentSamples + this.step) / this.step);
+    for (let s = 0; s < total; s++) {
+      const start = s * this.step;
+      if (this.acceptSegment === undefined || this.acceptSegment(start, start + this.segmentSamples)) starts.push(start);
+    }
+    const count = starts.length;
+    if (count === 0) throw new RangeError(`acceptSegment rejected all ${total} segments: nothing to average`);
+    const psd = out ?? new Float64Array(bins);
+    if (this.average === 'mean') this.meanPower(x, psd);
+    else this.medianPower(x, psd);
+    const scale = this.scale;
+    const norm = this.average === 'mean' ? 1 / count : 1 / medianBias(count);
+    for (let k = 0; k < bins; k++) psd[k] = psd[k]! * scale[k]! * norm;
+    return { psd, segmentCount: count, rejectedSegments: total - count };
+  }
+
+  /**
+   * Two real segments a, b go through one complex DFT as z = a + i·b. Then
+   * |A_k|² + |B_k|² = (|Z_k|² + |Z_{n−k}|²)/2, so the sum over segments needs only |Z|² per pair.
+   */
+  private meanPower(x: Float64Array, psd: Float64Array): void {
+    const n = this.fftLength;
+    const { re, im, power, starts } = this;
+    power.fill(0);
+    for (let s = 0; s < starts.length; s += 2) {
+      this.taper(x, starts[s]!, re);
+      if (s + 1 < starts.length) this.taper(x, starts[s + 1]!, im);
+      else im.fill(0);
+      this.fft.transform(re, im);
+      for (let k = 0; k < n; k++) power[k] = power[k]! + re[k]! * re[k]! + im[k]! * im[k]!;
+    }
+    psd[0] = power[0]!;
+    for (let k = 1; k < this.binCount; k++) psd[k] = 0.5 * (power[k]! + power[n - k]!);
+  }
+
+  private medianPower(x: Float64Array, psd: Float64Array): void {
+    const n = this.fftLength;
+    const bins = this.binCount;
+    const { re, im, starts } = this;
+    const count = starts.length;
+    if (this.segmentPower.length < count * bins) this.segmentPower = new Float64Array(count * bins);
+    if (this.column.length < count) this.column = new Float64Array(count);
+    const stored = this.segmentPower;
+    for (let s = 0; s < count; s += 2) {
+      const paired = s + 1 < count;
+      this.taper(x, starts[s]!, re);
+      if (paired) this.taper(x, starts[s + 1]!, im);
+      else im.fill(0);
+      this.fft.transform(re, im);
+      const rowA = s * bins;
+      const rowB = rowA + bins;
+      for (let k = 0; k < bins; k++) {
+        const m = k === 0 ? 0 : n - k;
+        const zr = re[k]!, zi = im[k]!, yr = re[m]!, yi = im[m]!;
+        // A_k = (Z_k + conj Z_{n−k})/2, B_k = (Z_k − conj Z_{n−k})/(2i)
+        const ar = zr + yr, ai = zi - yi, br = zr - yr, bi = zi + yi;
+        stored[rowA + k] = 0.25 * (ar * ar + ai * ai);
+        if (paired) stored[rowB + k] = 0.25 * (br * br + bi * bi);
+      }
+    }
+    const column = this.column;
+    for (let k = 0; k < bins; k++) {
+      for (let s = 0; s < count; s++) column[s] = stored[s * bins + k]!;
+      psd[k] = median(column, count);
+    }
+  }
+
+  /** Detrend and taper x[start..start+segmentSamples) into target, zero-padding to fftLength. */
+  private taper(x: Float64Array, start: number, target: Float64Array): void {
+    const len = this.segmentSamples;
+    const w = this.window;
+    switch (this.detrend) {
+      case 'none':
+        for (let j = 0; j < len; j++) target[j] = x[start + j]! * w[j]!;
+        break;
+      case 'mean': {
+        let sum = 0;
+        for (let j = 0; j < len; j++) sum += x[start + j]!;
+        const mean = sum / len;
+        for (let j = 0; j < len; j++) target[j] = (x[start + j]! - mean) * w[j]!;
+        break;
+      }
+      case 'linear': {
+        const { mean, slope } = lineFit(x, start, len);
+        const centre = (len - 1) / 2;
+        for (let j = 0; j < len; j++) target[j] = (x[start + j]! - mean - slope * (j - centre)) * w[j]!;
+        break;
+      }
+    }
+    target.fill(0, len, this.fftLength);
+  }
+}
+
+/**
+ * Build a reusable Welch plan; `compute` then allocates only its result (or none, given `out`).
+ *
+ * @param options - see {@link WelchOptions}; every field is validated here
+ * @returns a plan with `binCount = floor(fftLength/2)+1`, `frequencies` in Hz and `compute(x, out?)`
+ *   returning the one-sided PSD in unit²/Hz (x in unit), the number of averaged segments and the
+ *   number rejected by `acceptSegment`
+ * @throws RangeError for out-of-range numbers, a window whose length is not segmentSamples, a
+ *   signal shorter than segmentSamples, or (from compute) when every segment is rejected
+ * @throws TypeError for a window that is not a Float64Array, or an unknown detrend or average
+ * @see Welch (1967), IEEE Trans. Audio Electroacoust. AU-15(2):70–73; scipy.signal.welch
+ */
+export function createWelchPlan(options: WelchOptions): WelchPlan {
+  return new WelchPlanImpl(options);
+}
+
+/**
+ * One-sided power spectral density by Welch's method (convenience around {@link createWelchPlan}).
+ *
+ * @param x - samples, in any unit
+ * @param options - see {@link WelchOptions}
+ * @returns frequencies (Hz), PSD (unit²/Hz), averaged and rejected segment counts
+ * @throws RangeError / TypeError as {@link createWelchPlan}
+ * @see Welch (1967); scipy.signal.welch(x, fs, window, nperseg, noverlap, nfft, detrend,
+ *   scaling='density', average)
+ */
+export function welch(x: Float64Array, options: WelchOptions): WelchResult {
+  const plan = createWelchPlan(options);
+  const { psd, segmentCount: used, rejectedSegments } = plan.compute(x);
+  return { frequencies: plan.frequencies, psd, segmentCount: used, rejectedSegments };
+}
