@@ -105,7 +105,7 @@ export function decodeEdfRecords(header: EdfHeader, bytes: Uint8Array, options: 
     throw new RangeError(`bytesOrigin ${origin} is past the first requested record at file offset ${range.start}`);
   }
   if (origin + bytes.length < range.end) {
-    const firstMissing = Math.floor((origin + bytes.length - header.headerBytes) / header.recordBytes);
+    const firstMissing = Math.max(startRecord, Math.floor((origin + bytes.length - header.headerBytes) / header.recordBytes));
     const at = header.headerBytes + firstMissing * header.recordBytes;
     throw new EdfFormatError(
       'data records',
