@@ -1,0 +1,111 @@
+/**
+ * Welch throughput: 64 channels × 600 s × 500 Hz, Hann, 2 s segments (1000 samples), 50 % overlap,
+ * mean detrend, mean average; fftLength 1024 and 1000. Single thread. The same seeded recording is
+ * written to a temporary float64 file and timed with scipy.signal.welch (one call per channel) through
+ * /usr/bin/python3 when scipy is there.
+ *
+ * Run: npx tsx bench/welch.ts
+ */
+import { execFile } from 'node:child_process';
+import { mkdtemp, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { fileURLToPath } from 'node:url';
+import { promisify } from 'node:util';
+import { createWelchPlan } from '../src/dsp/welch.js';
+import { makeWindow } from '../src/dsp/windows.js';
+
+const CHANNELS = 64;
+const SAMPLING_RATE = 500;
+const SAMPLES = 600 * SAMPLING_RATE;
+const SEGMENT = 1000;
+const OVERLAP = 500;
+const FFT_LENGTHS = [1024, 1000] as const;
+const REPEATS = 3;
+const PYTHON = '/usr/bin/python3';
+
+/** Seeded synthetic recording: white noise (xorshift32 + Box–Muller), a 10 Hz rhythm and 50 Hz hum. */
+function syntheticRecording(): Float64Array {
+  const data = new Float64Array(CHANNELS * SAMPLES);
+  let state = 0x2545f491;
+  const uniform = (): number => {
+    state ^= state << 13; state >>>= 0;
+    state ^= state >>> 17;
+    state ^= state << 5; state >>>= 0;
+    return (state + 0.5) / 4294967296;
+  };
+  for (let c = 0; c < CHANNELS; c++) {
+    const alpha = 5 + (c % 8);
+    for (let i = 0; i < SAMPLES; i++) {
+      const t = i / SAMPLING_RATE;
+      const noise = Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
+      data[c * SAMPLES + i] = 10 * noise + alpha * Math.sin(2 * Math.PI * 10 * t + c) + 2 * Math.sin(2 * Math.PI * 50 * t);
+    }
+  }
+  return data;
+}
+
+interface ScipyRun { fftLength: number; seconds: number; psd0: number[] }
+
+async function runScipy(file: string): Promise<{ version: string; runs: ScipyRun[] } | { note: string }> {
+  const script = fileURLToPath(new URL('./scipy-welch.py', import.meta.url));
+  try {
+    const { stdout } = await promisify(execFile)(PYTHON, [script, file, String(CHANNELS), String(SAMPLES), String(SAMPLING_RATE),
+      String(SEGMENT), String(OVERLAP), String(REPEATS), ...FFT_LENGTHS.map(String)], { maxBuffer: 64 * 1024 * 1024 });
+    const parsed = JSON.parse(stdout) as { error?: string; scipy?: string; numpy?: string; runs?: ScipyRun[] };
+    if (parsed.error !== undefined || parsed.runs === undefined) return { note: `${PYTHON}: ${parsed.error ?? 'no output'}; no scipy ratio` };
+    return { version: `scipy ${parsed.scipy}, numpy ${parsed.numpy}`, runs: parsed.runs };
+  } catch (error) {
+    return { note: `${PYTHON} could not run bench/scipy-welch.py (${(error as Error).message.split('\n')[0]}); no scipy ratio` };
+  }
+}
+
+export async function benchWelch(): Promise<string[]> {
+  const lines: string[] = [];
+  const data = syntheticRecording();
+  const window = makeWindow('hann', SEGMENT);
+  lines.push(`welch: ${CHANNELS} ch × ${SAMPLES / SAMPLING_RATE} s × ${SAMPLING_RATE} Hz, Hann, segment ${SEGMENT}, overlap ${OVERLAP}, mean detrend, single thread, best of ${REPEATS}`);
+  const ours = new Map<number, { seconds: number; psd0: Float64Array }>();
+  for (const fftLength of FFT_LENGTHS) {
+    const plan = createWelchPlan({ samplingRate: SAMPLING_RATE, segmentSamples: SEGMENT, overlapSamples: OVERLAP, fftLength, window, detrend: 'mean', average: 'mean' });
+    const out = new Float64Array(plan.binCount);
+    const psd0 = new Float64Array(plan.binCount);
+    plan.compute(data.subarray(0, SAMPLES), out); // warm-up: JIT and plan caches
+    let best = Infinity;
+    for (let r = 0; r < REPEATS; r++) {
+      const start = performance.now();
+      for (let c = 0; c < CHANNELS; c++) {
+        plan.compute(data.subarray(c * SAMPLES, (c + 1) * SAMPLES), out);
+        if (c === 0) psd0.set(out);
+      }
+      best = Math.min(best, (performance.now() - start) / 1000);
+    }
+    ours.set(fftLength, { seconds: best, psd0 });
+    const rate = (CHANNELS * SAMPLES) / best;
+    lines.push(`  ours  fftLength ${fftLength}: ${best.toFixed(3)} s, ${(rate / 1e6).toFixed(1)} M samples/s, ${((best / CHANNELS) * 1000).toFixed(2)} ms/channel`);
+  }
+  const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-bench-'));
+  try {
+    const file = join(dir, 'recording.f64');
+    await writeFile(file, new Uint8Array(data.buffer, data.byteOffset, data.byteLength));
+    const scipy = await runScipy(file);
+    if ('note' in scipy) {
+      lines.push(`  note: ${scipy.note}`);
+    } else {
+      for (const run of scipy.runs) {
+        const mine = ours.get(run.fftLength)!;
+        let worst = 0;
+        for (let k = 0; k < run.psd0.length; k++) worst = Math.max(worst, Math.abs(mine.psd0[k]! - run.psd0[k]!) / Math.abs(run.psd0[k]!));
+        lines.push(`  scipy fftLength ${run.fftLength}: ${run.seconds.toFixed(3)} s (${scipy.version}); ours/scipy = ${(mine.seconds / run.seconds).toFixed(2)}; channel 0 max relative difference ${worst.toExponential(1)}`);
+      }
+    }
+  } finally {
+    await rm(dir, { recursive: true, force: true });
+  }
+  return lines;
+}
+
+if (process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1]) {
+  for (const line of await benchWelch()) console.log(line);
+}
