@@ -2,8 +2,7 @@
  * Equivalent degrees of freedom (EDOF) of spectral estimates and chi-square confidence intervals.
  */
 import { chiSquareQuantile } from './special.js';
-
-export type AverageKind = 'mean' | 'median';
+import type { AverageKind } from './welch.js';
 
 /** Exact mean and variance of the median of n i.i.d. unit exponentials (order-statistic sums). */
 function exponentialMedianMoments(n: number): { mean: number; variance: number } {

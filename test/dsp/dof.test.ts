@@ -1,7 +1,44 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { confidenceInterval, perBinDegreesOfFreedom, weightedDegreesOfFreedom, welchDegreesOfFreedom } from '../../src/dsp/dof.js';
+import { multitaper } from '../../src/dsp/multitaper.js';
+import { periodogram } from '../../src/dsp/periodogram.js';
+import { welch } from '../../src/dsp/welch.js';
 import { makeWindow } from '../../src/dsp/windows.js';
+
+/** Seeded unit Gaussian noise: mulberry32 uniforms through the Marsaglia polar method. */
+function gaussianNoise(n: number, seed: number): Float64Array {
+  let a = seed >>> 0;
+  const uniform = (): number => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = Math.imul(a ^ (a >>> 15), 1 | a);
+    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i += 2) {
+    let u: number, v: number, s: number;
+    do { u = 2 * uniform() - 1; v = 2 * uniform() - 1; s = u * u + v * v; } while (s >= 1 || s === 0);
+    const f = Math.sqrt((-2 * Math.log(s)) / s);
+    out[i] = u * f;
+    if (i + 1 < n) out[i + 1] = v * f;
+  }
+  return out;
+}
+
+/** Fraction of interior bins whose 95 % interval holds the true white-noise density 2σ²/fs (σ = 1). */
+function coverage(epochs: number, samples: number, fs: number, estimate: (x: Float64Array) => { psd: Float64Array; dof: number | Float64Array }): number {
+  let inside = 0, total = 0;
+  for (let e = 0; e < epochs; e++) {
+    const { psd, dof } = estimate(gaussianNoise(samples, 1000 + e));
+    const { lower, upper } = confidenceInterval(psd, dof);
+    for (let k = 1; k < psd.length - 1; k++) {
+      total++;
+      if (lower[k]! <= 2 / fs && 2 / fs <= upper[k]!) inside++;
+    }
+  }
+  return inside / total;
+}
 
 // Monte Carlo with scipy.signal.welch(average='median'), made by scripts/make-multitaper-fixtures.py.
 const medianFixture = JSON.parse(readFileSync(new URL('../fixtures/multitaper/welch-median-dof.json', import.meta.url), 'utf8')) as {
@@ -107,5 +144,42 @@ describe('confidenceInterval', () => {
       expect(() => confidenceInterval(Float64Array.of(1), 0)).toThrow(/degreesOfFreedom/);
       expect(() => confidenceInterval(Float64Array.of(1), 2, 1)).toThrow(/level/);
     });
+  });
+});
+
+describe('when white Gaussian noise is analysed (seeded Monte Carlo)', () => {
+  // Nominal coverage is 95 %; the tolerance ±1 % covers the Monte-Carlo spread of ~5·10⁴ correlated bins.
+  it('should hold the true PSD inside the 95 % CI of a rectangular periodogram (ν = 2, exact χ²₂) in 95 ± 1 % of bins', () => {
+    const c = coverage(200, 512, 256, (x) => ({ psd: periodogram(x, { samplingRate: 256, detrend: 'none' }).psd, dof: 2 }));
+    expect(Math.abs(c - 0.95)).toBeLessThan(0.01);
+  });
+  it('should hold it inside the 95 % CI of equal-weight multitaper (ν = 2K, exact for orthonormal tapers) in 95 ± 1 % of bins', () => {
+    const c = coverage(200, 512, 256, (x) => {
+      const r = multitaper(x, { samplingRate: 256, timeBandwidth: 4, taperCount: 7, weighting: 'equal', detrend: 'none' });
+      return { psd: r.psd, dof: r.degreesOfFreedom };
+    });
+    expect(Math.abs(c - 0.95)).toBeLessThan(0.01);
+  });
+  it('should hold it inside the 95 % CI of Hann/50 % Welch with the P&W (292b) EDOF in 95 ± 1 % of bins', () => {
+    const window = makeWindow('hann', 256);
+    const nu = welchDegreesOfFreedom(window, 128, 9);
+    const c = coverage(200, 1280, 256, (x) => ({
+      psd: welch(x, { samplingRate: 256, segmentSamples: 256, overlapSamples: 128, fftLength: 256, window, detrend: 'none', average: 'mean' }).psd,
+      dof: nu,
+    }));
+    expect(Math.abs(c - 0.95)).toBeLessThan(0.01);
+  });
+  it('should give an unbiased adaptive multitaper estimate with mean ν close to 2K (REFERENCES.md §3: 0.993 and 13.98)', () => {
+    let level = 0, nu = 0, count = 0, maxIterations = 0;
+    for (let e = 0; e < 100; e++) {
+      const r = multitaper(gaussianNoise(512, 5000 + e), { samplingRate: 1, timeBandwidth: 4, taperCount: 7, weighting: 'adaptive', detrend: 'none' });
+      maxIterations = Math.max(maxIterations, r.iterations);
+      for (let k = 1; k < r.psd.length - 1; k++) { level += r.psd[k]! / 2; nu += r.degreesOfFreedom[k]!; count++; }
+    }
+    // Unit white noise: one-sided density 2σ²/fs = 2. Tolerances: 2 % on the level, ν in [13, 14].
+    expect(Math.abs(level / count - 1)).toBeLessThan(0.02);
+    expect(nu / count).toBeGreaterThan(13);
+    expect(nu / count).toBeLessThanOrEqual(14);
+    expect(maxIterations).toBeLessThan(100);
   });
 });
