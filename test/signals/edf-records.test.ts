@@ -187,3 +187,28 @@ describe('when the file is plain EDF', () => {
     expect(parseEdf(concat(ascii(text), talBytes('+0', 4))).signals).toHaveLength(1);
   });
 });
+
+describe('when the bytes come from a Node Buffer that does not start at offset 0 of its memory', () => {
+  it('should decode the same samples', () => {
+    const file = motorNerveFile();
+    const shifted = Buffer.concat([Buffer.alloc(3), Buffer.from(file)]).subarray(3);
+    expect(shifted.byteOffset % 2).toBe(1);
+    expect(parseEdf(shifted).signals[0]!.samples).toEqual(parseEdf(file).signals[0]!.samples);
+  });
+});
+
+describe('when an EDF+ file holds annotations only, with a record duration of 0 (EDF+ §2.1.3)', () => {
+  it('should read the annotations and the record starts without sampling rates', () => {
+    const text = headerText({
+      startDate: '02.03.02', startTime: '21.30.00', reserved: 'EDF+C', recordCount: '2', recordDuration: '0',
+      signals: [{ label: 'EDF Annotations', physicalMinimum: '-1', physicalMaximum: '1', digitalMinimum: '-32768', digitalMaximum: '32767', samplesPerRecord: '20' }],
+    });
+    const file = parseEdf(concat(ascii(text), talBytes('+0\x14\x14\x00+30\x14W\x14\x00', 40), talBytes('+60\x14\x14\x00+60\x1530\x14N1\x14\x00', 40)));
+    expect(file.signals).toEqual([]);
+    expect(Array.from(file.recordStarts)).toEqual([0, 60]);
+    expect(file.annotations).toEqual([
+      { onset: 30, duration: null, label: 'W' },
+      { onset: 60, duration: 30, label: 'N1' },
+    ]);
+  });
+});

@@ -1,11 +1,11 @@
+import type { SignalEvent } from '../signal.js';
 import { EdfFormatError } from './errors.js';
 
-/** One annotation: onset in seconds from the file start (may be negative), duration in seconds or null. */
-export interface EdfAnnotation {
-  onset: number;
-  duration: number | null;
-  label: string;
-}
+/**
+ * One annotation: onset in seconds from the file start (may be negative), duration in seconds or
+ * null. The same shape as a Signal's events, so annotations pass through unchanged.
+ */
+export type EdfAnnotation = SignalEvent;
 
 export interface ParsedTals {
   /** Onset of the time-keeping TAL, i.e. the record's start in seconds; null when not asked for. */
