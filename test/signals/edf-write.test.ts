@@ -193,3 +193,21 @@ describe('when the input to writeEdf is wrong', () => {
     expect(readEdfHeader(writeEdf(base).subarray(0, 512)).signals[0]!.label).toBe('Cz');
   });
 });
+
+describe('when writing a file with more records than a JS call takes arguments', () => {
+  // 250 000 one-second records (about 69 h); Math.max(...array) overflows the stack at 2·10^5 on Node 20 (seen here).
+  it('should write and read back 250 000 records with annotations', () => {
+    const records = 250_000;
+    const bytes = writeEdf({
+      signals: [{ label: 'Cz', samples: new Float64Array(records).map((_, k) => k % 13), samplingRate: 1 }],
+      recordDuration: 1,
+      startDate: start,
+      annotations: [{ onset: 249_999.5, label: 'Lights on' }],
+    });
+    const file = parseEdf(bytes);
+    expect(file.header.recordCount).toBe(records);
+    expect(file.recordStarts[records - 1]).toBe(records - 1);
+    expect(file.annotations).toEqual([{ onset: 249_999.5, duration: null, label: 'Lights on' }]);
+    expect(file.signals[0]!.samples[12]).toBeCloseTo(12, 3);
+  });
+});

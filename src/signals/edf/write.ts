@@ -231,7 +231,9 @@ export function writeEdf(input: WriteEdfInput): Uint8Array {
   let tals: Uint8Array[][] = [];
   if (plus) {
     tals = annotationRecords(input.annotations!, recordCount, duration);
-    const most = Math.max(...tals.map((list) => list.reduce((n, t) => n + t.length, 0)));
+    // A loop, not Math.max(...): an overnight file can have more records than a call has arguments.
+    let most = 0;
+    for (const list of tals) most = Math.max(most, list.reduce((n, t) => n + t.length, 0));
     const samplesPerRecord = Math.ceil(most / 2);
     const fields: Record<string, string> = {
       label: ANNOTATION_LABEL.padEnd(16, ' '),
