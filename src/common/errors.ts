@@ -16,6 +16,7 @@ export const PROBLEMS = {
   'signal-not-found': { status: 404, title: 'Signal not found', about: 'No signal with this id is stored.' },
   'recipe-not-found': { status: 404, title: 'Recipe not found', about: 'No pinned recipe with this id.' },
   'job-not-found': { status: 404, title: 'Job not found', about: 'No job with this id.' },
+  'job-finished': { status: 409, title: 'The job has already finished', about: 'Only queued or running jobs can be canceled.' },
   'record-not-ready': { status: 409, title: 'The record is not ready', about: 'The job has not succeeded (yet); poll the job.' },
   'not-found': { status: 404, title: 'Not found', about: 'No route matches.' },
   'method-not-allowed': { status: 405, title: 'Method not allowed', about: 'The route exists but not with this method.' },

@@ -1,0 +1,69 @@
+import { pino, type Logger } from 'pino';
+import type { Config } from '../config.js';
+import { buildApp } from '../http/app.js';
+import { BullQueue } from '../jobs/bullmq-queue.js';
+import { startBullWorker } from '../jobs/bullmq-worker.js';
+import { createComputePool, type ComputePool } from '../jobs/compute-pool.js';
+import { EmbeddedQueue } from '../jobs/embedded-queue.js';
+import type { JobQueue } from '../jobs/queue.js';
+import { createStore } from '../stores/create-store.js';
+
+export function createLogger(config: Pick<Config, 'logLevel'>, destination?: NodeJS.WritableStream): Logger {
+  const options = { level: config.logLevel, base: { service: 'rhythmetric' }, redact: ['req.headers.authorization'] };
+  return destination ? pino(options, destination as never) : pino(options);
+}
+
+/**
+ * Wires the API for a configuration: embedded (in-process queue on a worker-thread pool) without
+ * REDIS_URL, distributed (BullMQ; workers run elsewhere) with it.
+ */
+export async function startApi(config: Readonly<Config>, logger: Logger = createLogger(config)) {
+  const store = createStore(config.store);
+  let pool: ComputePool | null = null;
+  let queue: JobQueue;
+  if (config.redisUrl) {
+    queue = new BullQueue({ url: config.redisUrl, prefix: config.redisPrefix, queueName: config.queueName, attempts: config.jobAttempts });
+  } else {
+    pool = createComputePool(config.workerThreads);
+    queue = await EmbeddedQueue.open({
+      store,
+      storeConfig: config.store,
+      pool,
+      maxAttempts: config.jobAttempts,
+      onError: (error, jobId) => logger.error({ err: error, jobId }, 'job attempt failed'),
+    });
+  }
+  const app = await buildApp({ config, store, queue, logger });
+  return {
+    app,
+    queue,
+    store,
+    async close() {
+      await app.close();
+      await queue.close();
+      await pool?.close();
+      await store.close();
+    },
+  };
+}
+
+/** A `rhythmetric worker` process: consumes the BullMQ queue, computes on its own thread pool. */
+export function startWorker(config: Readonly<Config>, logger: Logger = createLogger(config)) {
+  if (!config.redisUrl) throw new Error('rhythmetric worker needs REDIS_URL (embedded mode computes inside the API process)');
+  const pool = createComputePool(config.workerThreads);
+  const handle = startBullWorker({
+    url: config.redisUrl,
+    prefix: config.redisPrefix,
+    queueName: config.queueName,
+    store: config.store,
+    pool,
+    onEvent: (event, detail) => (event === 'error' || event === 'stalled' ? logger.warn(detail, `worker ${event}`) : logger.info(detail, `job ${event}`)),
+  });
+  return {
+    worker: handle.worker,
+    async close() {
+      await handle.close();
+      await pool.close();
+    },
+  };
+}

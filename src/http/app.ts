@@ -1,0 +1,71 @@
+import { randomUUID } from 'node:crypto';
+import swagger from '@fastify/swagger';
+import Fastify, { type FastifyBaseLogger, type FastifyInstance } from 'fastify';
+import { jsonSchemaTransform, jsonSchemaTransformObject, serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
+import type { Logger } from 'pino';
+import type { Config } from '../config.js';
+import { ENGINE_VERSION } from '../engine/version.js';
+import type { JobQueue } from '../jobs/queue.js';
+import type { Store } from '../stores/store.js';
+import { errorHandler, notFoundHandler } from './error-handler.js';
+import { jobRoutes } from './routes/jobs.js';
+import { metaRoutes } from './routes/meta.js';
+import { recipeRoutes } from './routes/recipes.js';
+import { signalRoutes } from './routes/signals.js';
+
+export interface AppDeps {
+  config: Readonly<Config>;
+  store: Store;
+  queue: JobQueue;
+  logger: Logger;
+}
+
+const REQUEST_ID = /^[A-Za-z0-9._:-]{1,128}$/;
+
+export const API_DESCRIPTION = [
+  'rhythmetric computes spectral features of EEG and other electrophysiology signals: upload a signal, pin a recipe, submit a job, fetch a versioned feature record.',
+  '',
+  '**Research software, not a medical device.** It is not intended for diagnosis or treatment; any clinical use follows local regulations and licensed practice.',
+  '',
+  'Errors are RFC 9457 `application/problem+json` with a stable `type`, a `detail` in words and a JSON `pointer` to the offending input.',
+].join('\n');
+
+/** Builds the app without listening, so tests drive it with `inject()`. */
+export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
+  const app = Fastify({
+    loggerInstance: deps.logger as unknown as FastifyBaseLogger,
+    bodyLimit: deps.config.bodyLimitBytes,
+    genReqId: (request) => {
+      const given = request.headers['x-request-id'];
+      return typeof given === 'string' && REQUEST_ID.test(given) ? given : randomUUID();
+    },
+  }).withTypeProvider<ZodTypeProvider>();
+  app.setValidatorCompiler(validatorCompiler);
+  app.setSerializerCompiler(serializerCompiler);
+  app.setErrorHandler(errorHandler);
+  app.setNotFoundHandler(notFoundHandler);
+  app.addHook('onSend', async (request, reply) => {
+    reply.header('x-request-id', request.id);
+    reply.header('x-content-type-options', 'nosniff');
+  });
+  await app.register(swagger, {
+    openapi: {
+      openapi: '3.1.0',
+      info: { title: 'rhythmetric', version: ENGINE_VERSION, description: API_DESCRIPTION, license: { name: 'Apache-2.0', identifier: 'Apache-2.0' } },
+      tags: [
+        { name: 'signals', description: 'Upload and describe signals' },
+        { name: 'recipes', description: 'Pin analysis recipes' },
+        { name: 'jobs', description: 'Submit analyses and fetch feature records' },
+        { name: 'operations', description: 'Health, readiness and documentation' },
+      ],
+    },
+    transform: jsonSchemaTransform,
+    transformObject: jsonSchemaTransformObject,
+  });
+  await app.register(metaRoutes(deps));
+  await app.register(signalRoutes(deps));
+  await app.register(recipeRoutes(deps));
+  await app.register(jobRoutes(deps));
+  await app.ready();
+  return app;
+}

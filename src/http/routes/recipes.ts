@@ -1,0 +1,36 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { z } from 'zod';
+import type { AppDeps } from '../app.js';
+import { IdParams, PinnedRecipeSchema, problemResponse } from '../schemas.js';
+import { RecipeSchema } from '../../recipes/schema.js';
+import { getRecipe, pinRecipe } from '../services.js';
+import { zodValidator } from '../validation.js';
+
+export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
+  app.post(
+    '/v1/recipes',
+    {
+      schema: {
+        summary: 'Pin a recipe',
+        description: 'Answers the recipe with every default filled in, its SHA-256 over canonical JSON, and an id derived from that hash.',
+        tags: ['recipes'],
+        body: RecipeSchema,
+        response: { 201: PinnedRecipeSchema, 400: problemResponse('malformed request'), 422: problemResponse('invalid recipe (pointer names the field)') },
+      },
+      // The recipe is parsed by normalizeRecipe, which names misspelt settings and contradictions.
+      validatorCompiler: zodValidator({ body: z.unknown() }),
+    },
+    async (request, reply) => {
+      const pinned = await pinRecipe(deps.store, request.body);
+      return reply.code(201).header('location', `/v1/recipes/${pinned.id}`).send(pinned);
+    },
+  );
+
+  app.get(
+    '/v1/recipes/:id',
+    {
+      schema: { summary: 'Fetch a pinned recipe', tags: ['recipes'], params: IdParams, response: { 200: PinnedRecipeSchema, 404: problemResponse('unknown recipe') } },
+    },
+    async (request) => getRecipe(deps.store, request.params.id),
+  );
+};

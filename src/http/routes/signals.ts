@@ -1,0 +1,61 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { decodeBinarySignal } from '../../signals/decode-binary.js';
+import { decodeJsonSignal } from '../../signals/decode-json.js';
+import { BinaryUploadQuery, IdParams, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
+import { getSignalMeta, storeSignal } from '../services.js';
+import { validationError, zodValidator } from '../validation.js';
+import type { AppDeps } from '../app.js';
+
+export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
+  app.addContentTypeParser('application/octet-stream', { parseAs: 'buffer', bodyLimit: deps.config.bodyLimitBytes }, (_request, body, done) => done(null, body));
+
+  app.post(
+    '/v1/signals',
+    {
+      config: { bodyProblem: 'invalid-signal' },
+      schema: {
+        summary: 'Upload a signal',
+        description:
+          'JSON (`data`: channel × sample, or `epochs`: epoch × channel × sample) or a binary body (`application/octet-stream`: little-endian float32 laid out [epoch][channel][sample], described by the query). The id follows from the content hash: the same content gives the same id.',
+        tags: ['signals'],
+        body: SignalUploadSchema,
+        response: {
+          201: SignalInfoSchema.describe('stored (or already stored) signal'),
+          400: problemResponse('malformed request'),
+          413: problemResponse('body too large'),
+          415: problemResponse('unsupported content type'),
+          422: problemResponse('the signal cannot be used (pointer says where)'),
+        },
+      },
+      validatorCompiler: zodValidator({ body: SignalUploadEnvelope }),
+    },
+    async (request, reply) => {
+      const limits = deps.config.signalLimits;
+      let signal;
+      if (Buffer.isBuffer(request.body)) {
+        const parsed = BinaryUploadQuery.safeParse(request.query);
+        if (!parsed.success) throw validationError(parsed.error, 'querystring');
+        signal = decodeBinarySignal(request.body, parsed.data, limits);
+      } else {
+        signal = decodeJsonSignal(request.body as Parameters<typeof decodeJsonSignal>[0], limits);
+      }
+      const meta = await storeSignal(deps.store, signal);
+      request.log.info({ signalId: meta.id, bytes: meta.bytes }, 'signal stored');
+      return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
+    },
+  );
+
+  app.get(
+    '/v1/signals/:id',
+    {
+      schema: {
+        summary: 'Describe a stored signal',
+        tags: ['signals'],
+        params: IdParams,
+        response: { 200: SignalInfoSchema, 404: problemResponse('unknown signal') },
+      },
+    },
+    async (request) => getSignalMeta(deps.store, request.params.id),
+  );
+};
+

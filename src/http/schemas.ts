@@ -1,0 +1,148 @@
+import { z } from 'zod';
+import { JOB_STATES } from '../jobs/spec.js';
+import { RecipeSchema } from '../recipes/schema.js';
+
+export const ProblemSchema = z
+  .object({
+    type: z.string().describe('stable URI of the problem kind, e.g. /problems/invalid-recipe (GET it for documentation)'),
+    title: z.string(),
+    status: z.number().int(),
+    detail: z.string().describe('what is wrong, in words'),
+    pointer: z.string().optional().describe('RFC 6901 JSON pointer to the offending input (/query/… for query parameters)'),
+    requestId: z.string().optional(),
+  })
+  .meta({ id: 'Problem', description: 'RFC 9457 problem details.' });
+
+export function problemResponse(description: string) {
+  return { description, content: { 'application/problem+json': { schema: ProblemSchema } } };
+}
+
+const EventSchema = z.strictObject({
+  onset: z.number().describe('seconds from the start'),
+  duration: z.number().min(0).nullable().describe('seconds, or null for a marker'),
+  label: z.string().min(1).max(200),
+});
+
+const SampleRows = z.array(z.array(z.number().nullable()));
+
+/** The documented upload body. */
+export const SignalUploadSchema = z
+  .strictObject({
+    samplingRate: z.number().positive().describe('Hz'),
+    channels: z.array(z.string()).min(1).describe('channel names, e.g. 10–20 labels'),
+    unit: z.string().min(1).max(32).optional().describe('physical unit of the samples; default uV'),
+    data: SampleRows.optional().describe('continuous chunk, channel × sample'),
+    epochs: z.array(SampleRows).optional().describe('epoch × channel × sample'),
+    events: z.array(EventSchema).max(100_000).optional(),
+    nonFinite: z.enum(['reject', 'keep']).optional().describe('null samples: refuse (default) or keep as gaps'),
+  })
+  .meta({ id: 'SignalUpload' });
+
+/**
+ * What the upload route validates with zod: everything but the sample arrays, which can hold
+ * millions of numbers and are checked element by element by the decoder instead.
+ */
+export const SignalUploadEnvelope = SignalUploadSchema.extend({
+  data: z.array(z.array(z.unknown())).optional(),
+  epochs: z.array(z.array(z.array(z.unknown()))).optional(),
+});
+
+export const BinaryUploadQuery = z.strictObject({
+  samplingRate: z.coerce.number().positive().describe('Hz'),
+  channels: z
+    .string()
+    .min(1)
+    .transform((s) => s.split(',').map((c) => c.trim()))
+    .describe('comma-separated channel names'),
+  epochCount: z.coerce.number().int().min(1).default(1),
+  unit: z.string().min(1).max(32).optional(),
+  nonFinite: z.enum(['reject', 'keep']).optional(),
+  format: z.enum(['float32']).optional().describe('binary layout; float32 little-endian [epoch][channel][sample]'),
+});
+
+export const SignalInfoSchema = z
+  .object({
+    id: z.string(),
+    sha256: z.string(),
+    samplingRate: z.number(),
+    channels: z.array(z.string()),
+    unit: z.string(),
+    epochCount: z.number().int(),
+    samplesPerEpoch: z.number().int(),
+    nonFiniteSamples: z.number().int(),
+    events: z.array(EventSchema),
+    bytes: z.number().int(),
+    storedAt: z.string(),
+  })
+  .meta({ id: 'SignalInfo' });
+
+export const PinnedRecipeSchema = z
+  .object({ id: z.string(), hash: z.string(), recipe: RecipeSchema })
+  .meta({ id: 'PinnedRecipe', description: 'A recipe with every default filled in, its hash and id.' });
+
+export const IdParams = z.object({ id: z.string().min(1).max(200) });
+
+export const JobRequestSchema = z
+  .strictObject({
+    signal: z.union([z.string().describe('id of a stored signal'), SignalUploadSchema]),
+    recipe: z.union([z.string().describe('id of a pinned recipe'), RecipeSchema]),
+  })
+  .meta({ id: 'JobRequest' });
+
+export const JobRequestEnvelope = z.strictObject({
+  signal: z.union([z.string().min(1), SignalUploadEnvelope]),
+  recipe: z.union([z.string().min(1), z.record(z.string(), z.unknown())]),
+});
+
+export const JobViewSchema = z
+  .object({
+    id: z.string(),
+    state: z.enum(JOB_STATES),
+    progress: z.number().min(0).max(1),
+    signal: z.string(),
+    recipe: z.string(),
+    resultHash: z.string().nullable(),
+    attempts: z.number().int(),
+    createdAt: z.string(),
+    startedAt: z.string().nullable(),
+    finishedAt: z.string().nullable(),
+    problem: ProblemSchema.nullable().describe('why a failed job failed'),
+    links: z.object({ self: z.string(), record: z.string() }),
+  })
+  .meta({ id: 'Job' });
+
+const BandPowerSchema = z.object({
+  name: z.string(),
+  low: z.number(),
+  high: z.number(),
+  absolute: z.number().describe('unit², Σ PSD·Δf over low ≤ f < high'),
+  relative: z.number().nullable(),
+  decibels: z.number().nullable().describe('10·log10(absolute)'),
+  bins: z.number().int(),
+});
+
+const ChannelFeaturesSchema = z.object({
+  name: z.string(),
+  psd: z.array(z.number()).describe('one-sided PSD, unit²/Hz'),
+  bands: z.array(BandPowerSchema),
+  ratios: z.array(z.object({ name: z.string(), numerator: z.string(), denominator: z.string(), value: z.number().nullable() })),
+});
+
+export const FeatureRecordSchema = z
+  .object({
+    schema: z.string(),
+    engineVersion: z.string(),
+    recipe: z.looseObject({ id: z.string(), hash: z.string(), method: z.string(), derived: z.looseObject({}) }),
+    input: z.looseObject({ signal: z.string(), sha256: z.string() }),
+    result: z.looseObject({
+      units: z.looseObject({}),
+      frequencies: z.array(z.number()),
+      channels: z.array(ChannelFeaturesSchema),
+      epochs: z.array(z.object({ index: z.number().int(), channels: z.array(ChannelFeaturesSchema) })).optional(),
+      estimate: z.looseObject({}),
+      warnings: z.array(z.string()),
+    }),
+    resultHash: z.string().describe('SHA-256 of the canonical JSON of result'),
+    provenance: z.looseObject({}),
+  })
+  .meta({ id: 'FeatureRecord' });

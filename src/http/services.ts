@@ -1,0 +1,70 @@
+import type { Config } from '../config.js';
+import { normalizeRecipe, type PinnedRecipe } from '../recipes/normalize.js';
+import { resolveRecipe } from '../recipes/resolve.js';
+import { sampleBytes, signalIdFromHash, signalSha256 } from '../signals/content-hash.js';
+import { findNonFinite, type Signal } from '../signals/signal.js';
+import { jobIdOf, recordKeyOf, type JobSpec } from '../jobs/spec.js';
+import type { SignalMeta, Store } from '../stores/store.js';
+import { ProblemError } from './problem.js';
+
+/** Stores a decoded signal under its content hash; storing the same content again is a no-op. */
+export async function storeSignal(store: Store, signal: Signal): Promise<SignalMeta> {
+  const sha256 = signalSha256(signal);
+  const id = signalIdFromHash(sha256);
+  const existing = await store.getSignalMeta(id);
+  if (existing) return existing;
+  const meta: SignalMeta = {
+    id,
+    sha256,
+    samplingRate: signal.samplingRate,
+    channels: signal.channels,
+    unit: signal.unit,
+    epochCount: signal.epochCount,
+    samplesPerEpoch: signal.samplesPerEpoch,
+    nonFiniteSamples: findNonFinite(signal).count,
+    events: signal.events ?? [],
+    bytes: signal.data.byteLength,
+    storedAt: new Date().toISOString(),
+  };
+  await store.putSignal(meta, sampleBytes(signal.data));
+  return meta;
+}
+
+export async function getSignalMeta(store: Store, id: string, pointer: string | null = null): Promise<SignalMeta> {
+  const meta = /^sig_[0-9a-f]{32}$/.test(id) ? await store.getSignalMeta(id) : null;
+  if (!meta) throw new ProblemError('signal-not-found', `no signal with id "${id}" is stored`, pointer);
+  return meta;
+}
+
+/** Pins a recipe: stored under its id, which follows from its hash. */
+export async function pinRecipe(store: Store, input: unknown): Promise<PinnedRecipe> {
+  const pinned = normalizeRecipe(input);
+  if ((await store.getDocument('recipes', pinned.id)) === null) await store.putDocument('recipes', pinned.id, JSON.stringify(pinned));
+  return pinned;
+}
+
+export async function getRecipe(store: Store, id: string, pointer: string | null = null): Promise<PinnedRecipe> {
+  const text = /^rcp_[0-9a-f]{32}$/.test(id) ? await store.getDocument('recipes', id) : null;
+  if (text === null) throw new ProblemError('recipe-not-found', `no pinned recipe with id "${id}"`, pointer);
+  return JSON.parse(text) as PinnedRecipe;
+}
+
+/**
+ * Builds the job for a (signal, recipe) pair after checking, before anything is queued, that the
+ * recipe fits the signal; a misfit answers 422 now instead of a failed job later.
+ */
+export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe): { jobId: string; spec: JobSpec } {
+  resolveRecipe(pinned.recipe, pinned.hash, meta, config.recipeLimits);
+  if (meta.nonFiniteSamples > 0 && pinned.recipe.nonFinite === 'reject') {
+    throw new ProblemError(
+      'non-finite',
+      `signal ${meta.id} holds ${meta.nonFiniteSamples} non-finite sample(s); set the recipe's "nonFinite": "skip-epoch" to leave those epochs out`,
+      '/recipe/nonFinite',
+    );
+  }
+  const recordKey = recordKeyOf(meta.sha256, pinned.hash);
+  return {
+    jobId: jobIdOf(recordKey),
+    spec: { signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey },
+  };
+}
