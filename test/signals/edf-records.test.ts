@@ -212,3 +212,17 @@ describe('when an EDF+ file holds annotations only, with a record duration of 0 
     ]);
   });
 });
+
+describe('when one data record holds more TALs than a JS call takes arguments', () => {
+  it('should return all 300 000 annotations', () => {
+    const tal = '+1\x14a\x14\x00'; // 6 bytes
+    const count = 300_000;
+    const bytes = 16 + tal.length * count;
+    const text = headerText({
+      startDate: '02.03.02', startTime: '21.30.00', reserved: 'EDF+C', recordCount: '1', recordDuration: '0',
+      signals: [{ label: 'EDF Annotations', physicalMinimum: '-1', physicalMaximum: '1', digitalMinimum: '-32768', digitalMaximum: '32767', samplesPerRecord: String(bytes / 2) }],
+    });
+    const file = parseEdf(concat(ascii(text), talBytes('+0\x14\x14\x00' + tal.repeat(count), bytes)));
+    expect(file.annotations).toHaveLength(count);
+  });
+});

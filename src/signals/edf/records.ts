@@ -145,7 +145,8 @@ export function decodeEdfRecords(header: EdfHeader, bytes: Uint8Array, options: 
         const where = ` (data record ${startRecord + r + 1}, signal ${index + 1})`;
         const parsed = parseTals(bytes.subarray(from, from + 2 * s.samplesPerRecord), recordOffset + s.recordByteOffset, nth === 0, where);
         if (nth === 0) recordStarts[r] = parsed.recordStart!;
-        if (wantAnnotations) annotations.push(...parsed.annotations);
+        // Not push(...): one record can hold more TALs than a call takes arguments.
+        if (wantAnnotations) for (const a of parsed.annotations) annotations.push(a);
       });
     }
   }
