@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { EdfFormatError, readEdfHeader } from '../../src/signals/edf/index.js';
-import { ascii, headerText, motorNerveHeader, type FixtureHeader } from '../fixtures/edf/build.js';
+import { ascii, headerText, motorNerveHeader, thrownBy, type FixtureHeader } from '../fixtures/edf/build.js';
 
 function headerBytes(h: FixtureHeader): Uint8Array {
   return ascii(headerText(h));
@@ -12,13 +12,7 @@ function withSignal(patch: Partial<FixtureHeader['signals'][number]>, index = 0)
 }
 
 function errorOf(bytes: Uint8Array): EdfFormatError {
-  try {
-    readEdfHeader(bytes);
-  } catch (e) {
-    if (e instanceof EdfFormatError) return e;
-    throw e;
-  }
-  throw new Error('expected an EdfFormatError');
+  return thrownBy(EdfFormatError, () => readEdfHeader(bytes));
 }
 
 describe('when reading the header of the EDF+ motor-nerve example (Kemp & Olivan 2003, §3.7)', () => {

@@ -6,16 +6,10 @@ import {
   parseEdf,
   readEdfHeader,
 } from '../../src/signals/edf/index.js';
-import { ascii, concat, headerText, identityFile, int16le, motorNerveFile, motorNerveHeader, talBytes } from '../fixtures/edf/build.js';
+import { ascii, concat, headerText, identityFile, int16le, motorNerveFile, motorNerveHeader, talBytes, thrownBy } from '../fixtures/edf/build.js';
 
 function parseError(bytes: Uint8Array): EdfFormatError {
-  try {
-    parseEdf(bytes);
-  } catch (e) {
-    if (e instanceof EdfFormatError) return e;
-    throw e;
-  }
-  throw new Error('expected an EdfFormatError');
+  return thrownBy(EdfFormatError, () => parseEdf(bytes));
 }
 
 describe('when decoding 16-bit little-endian samples (Kemp et al. 1992; EDF+ §2.1.3 item 7)', () => {

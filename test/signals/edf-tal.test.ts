@@ -1,16 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { EdfFormatError, encodeTal, parseTals } from '../../src/signals/edf/index.js';
+import { thrownBy } from '../fixtures/edf/build.js';
 
 const bytes = (text: string): Uint8Array => new TextEncoder().encode(text);
 
 function talError(text: string, timekeeping = false): EdfFormatError {
-  try {
-    parseTals(bytes(text), 1000, timekeeping);
-  } catch (e) {
-    if (e instanceof EdfFormatError) return e;
-    throw e;
-  }
-  throw new Error('expected an EdfFormatError');
+  return thrownBy(EdfFormatError, () => parseTals(bytes(text), 1000, timekeeping));
 }
 
 describe('when parsing the TAL examples of EDF+ §2.2.2 (Kemp & Olivan 2003)', () => {
