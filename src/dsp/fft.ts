@@ -4,7 +4,7 @@
  * Convention (as numpy.fft): X_k = Σ_j x_j·e^{−2πi·jk/n}; the inverse is unscaled.
  *
  * Lengths whose prime factors are all ≤ MAX_DIRECT_RADIX (31) run a mixed-radix Stockham
- * transform (radix 4, 2, 3, 5 and a generic odd radix), which needs no bit reversal and keeps the
+ * transform (radix 8, 4, 2, 3, 5 and a generic odd radix), which needs no bit reversal and keeps the
  * output in natural order. Other lengths use Bluestein's chirp-z algorithm on a power-of-two
  * Stockham transform. Twiddles are precomputed per stage from exact integer angles.
  *
@@ -40,17 +40,47 @@ function checkBuffers(re: Float64Array, im: Float64Array, length: number, what: 
   }
 }
 
-/** Radices in the order the stages run: 4s first, then a 2, then odd primes ascending. */
+/**
+ * Radices in the order the stages run: 8s (with 4s for a leftover 2², or 4·4 for 8·2, since radix 4
+ * beats radix 2), then odd primes ascending.
+ */
 function factorize(n: number): number[] {
   const radices: number[] = [];
   let rest = n;
-  while (rest % 4 === 0) { radices.push(4); rest /= 4; }
-  if (rest % 2 === 0) { radices.push(2); rest /= 2; }
+  let twos = 0;
+  while (rest % 2 === 0) { twos++; rest /= 2; }
+  const eights = Math.floor(twos / 3);
+  const left = twos % 3;
+  if (left === 1 && eights > 0) {
+    for (let i = 1; i < eights; i++) radices.push(8);
+    radices.push(4, 4);
+  } else {
+    for (let i = 0; i < eights; i++) radices.push(8);
+    if (left === 2) radices.push(4);
+    if (left === 1) radices.push(2);
+  }
   for (let p = 3; p * p <= rest; p += 2) {
     while (rest % p === 0) { radices.push(p); rest /= p; }
   }
   if (rest > 1) radices.push(rest);
   return radices;
+}
+
+/**
+ * e^{−2πi·k/n} into re[at], im[at], exact at quarter turns, where Math.cos(π/2) would leave 6e-17
+ * and spoil the exact zeros that real input should give.
+ */
+function unitRoot(k: number, n: number, re: Float64Array, im: Float64Array, at: number): void {
+  const r = k % n;
+  if ((4 * r) % n === 0) {
+    const quarter = (4 * r) / n;
+    re[at] = quarter === 0 ? 1 : quarter === 2 ? -1 : 0;
+    im[at] = quarter === 1 ? -1 : quarter === 3 ? 1 : 0;
+    return;
+  }
+  const angle = (-2 * Math.PI * r) / n;
+  re[at] = Math.cos(angle);
+  im[at] = Math.sin(angle);
 }
 
 interface Stage {
@@ -76,15 +106,10 @@ function makeStages(n: number, radices: readonly number[]): Stage[] {
     const twiddleRe = new Float64Array(span * (radix - 1));
     const twiddleIm = new Float64Array(span * (radix - 1));
     for (let j = 0; j < span; j++) {
-      for (let t = 1; t < radix; t++) {
-        // Reduce the integer angle first so large j·t lose no accuracy.
-        const angle = (-2 * Math.PI * ((j * t) % length)) / length;
-        twiddleRe[j * (radix - 1) + t - 1] = Math.cos(angle);
-        twiddleIm[j * (radix - 1) + t - 1] = Math.sin(angle);
-      }
+      for (let t = 1; t < radix; t++) unitRoot(j * t, length, twiddleRe, twiddleIm, j * (radix - 1) + t - 1);
     }
     const stage: Stage = { radix, stride, span, twiddleRe, twiddleIm };
-    if (radix !== 2 && radix !== 3 && radix !== 4 && radix !== 5) {
+    if (radix !== 2 && radix !== 3 && radix !== 4 && radix !== 5 && radix !== 8) {
       const rootRe = new Float64Array(radix);
       const rootIm = new Float64Array(radix);
       for (let u = 0; u < radix; u++) {
@@ -210,6 +235,56 @@ function radix5(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
   }
 }
 
+/** Radix 8 as two radix-4 butterflies on the even and odd inputs, joined by ω_8^t. */
+function radix8(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
+  twr: Float64Array, twi: Float64Array): void {
+  const h = Math.SQRT1_2;
+  const sm = s * m;
+  for (let j = 0; j < m; j++) {
+    const tw = 7 * j;
+    const w1r = twr[tw]!, w1i = twi[tw]!, w2r = twr[tw + 1]!, w2i = twi[tw + 1]!;
+    const w3r = twr[tw + 2]!, w3i = twi[tw + 2]!, w4r = twr[tw + 3]!, w4i = twi[tw + 3]!;
+    const w5r = twr[tw + 4]!, w5i = twi[tw + 4]!, w6r = twr[tw + 5]!, w6i = twi[tw + 5]!;
+    const w7r = twr[tw + 6]!, w7i = twi[tw + 6]!;
+    const inBase = s * j;
+    const outBase = 8 * s * j;
+    for (let q = 0; q < s; q++) {
+      const i0 = inBase + q;
+      const a0r = xr[i0]!, a0i = xi[i0]!, a1r = xr[i0 + sm]!, a1i = xi[i0 + sm]!;
+      const a2r = xr[i0 + 2 * sm]!, a2i = xi[i0 + 2 * sm]!, a3r = xr[i0 + 3 * sm]!, a3i = xi[i0 + 3 * sm]!;
+      const a4r = xr[i0 + 4 * sm]!, a4i = xi[i0 + 4 * sm]!, a5r = xr[i0 + 5 * sm]!, a5i = xi[i0 + 5 * sm]!;
+      const a6r = xr[i0 + 6 * sm]!, a6i = xi[i0 + 6 * sm]!, a7r = xr[i0 + 7 * sm]!, a7i = xi[i0 + 7 * sm]!;
+      // E = DFT4(a0, a2, a4, a6)
+      const p0r = a0r + a4r, p0i = a0i + a4i, p1r = a0r - a4r, p1i = a0i - a4i;
+      const p2r = a2r + a6r, p2i = a2i + a6i, p3r = a2r - a6r, p3i = a2i - a6i;
+      const e0r = p0r + p2r, e0i = p0i + p2i, e2r = p0r - p2r, e2i = p0i - p2i;
+      const e1r = p1r + p3i, e1i = p1i - p3r, e3r = p1r - p3i, e3i = p1i + p3r;
+      // O = DFT4(a1, a3, a5, a7)
+      const q0r = a1r + a5r, q0i = a1i + a5i, q1r = a1r - a5r, q1i = a1i - a5i;
+      const q2r = a3r + a7r, q2i = a3i + a7i, q3r = a3r - a7r, q3i = a3i - a7i;
+      const o0r = q0r + q2r, o0i = q0i + q2i, o2r = q0r - q2r, o2i = q0i - q2i;
+      const o1r = q1r + q3i, o1i = q1i - q3r, o3r = q1r - q3i, o3i = q1i + q3r;
+      // ω_8·O1 = (1 − i)/√2·O1, ω_8²·O2 = −i·O2, ω_8³·O3 = −(1 + i)/√2·O3
+      const r1r = h * (o1r + o1i), r1i = h * (o1i - o1r);
+      const r2r = o2i, r2i = -o2r;
+      const r3r = h * (o3i - o3r), r3i = -h * (o3r + o3i);
+      const b1r = e1r + r1r, b1i = e1i + r1i, b5r = e1r - r1r, b5i = e1i - r1i;
+      const b2r = e2r + r2r, b2i = e2i + r2i, b6r = e2r - r2r, b6i = e2i - r2i;
+      const b3r = e3r + r3r, b3i = e3i + r3i, b7r = e3r - r3r, b7i = e3i - r3i;
+      const b4r = e0r - o0r, b4i = e0i - o0i;
+      const o = outBase + q;
+      yr[o] = e0r + o0r; yi[o] = e0i + o0i;
+      yr[o + s] = b1r * w1r - b1i * w1i; yi[o + s] = b1r * w1i + b1i * w1r;
+      yr[o + 2 * s] = b2r * w2r - b2i * w2i; yi[o + 2 * s] = b2r * w2i + b2i * w2r;
+      yr[o + 3 * s] = b3r * w3r - b3i * w3i; yi[o + 3 * s] = b3r * w3i + b3i * w3r;
+      yr[o + 4 * s] = b4r * w4r - b4i * w4i; yi[o + 4 * s] = b4r * w4i + b4i * w4r;
+      yr[o + 5 * s] = b5r * w5r - b5i * w5i; yi[o + 5 * s] = b5r * w5i + b5i * w5r;
+      yr[o + 6 * s] = b6r * w6r - b6i * w6i; yi[o + 6 * s] = b6r * w6i + b6i * w6r;
+      yr[o + 7 * s] = b7r * w7r - b7i * w7i; yi[o + 7 * s] = b7r * w7i + b7i * w7r;
+    }
+  }
+}
+
 /** Any odd radix p: pairs r and p−r share a cosine and a sine, halving the multiplications. */
 function radixOdd(p: number, s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array,
   yi: Float64Array, twr: Float64Array, twi: Float64Array, rootRe: Float64Array, rootIm: Float64Array,
@@ -293,6 +368,7 @@ class MixedRadixPlan implements ComplexFftPlan {
     for (const stage of this.stages) {
       const { radix, stride, span, twiddleRe, twiddleIm } = stage;
       switch (radix) {
+        case 8: radix8(stride, span, xr, xi, yr, yi, twiddleRe, twiddleIm); break;
         case 4: radix4(stride, span, xr, xi, yr, yi, twiddleRe, twiddleIm); break;
         case 2: radix2(stride, span, xr, xi, yr, yi, twiddleRe, twiddleIm); break;
         case 3: radix3(stride, span, xr, xi, yr, yi, twiddleRe, twiddleIm); break;
@@ -408,11 +484,7 @@ class EvenRealPlan implements RealFftPlan {
     this.packIm = new Float64Array(h);
     this.rotRe = new Float64Array(h + 1);
     this.rotIm = new Float64Array(h + 1);
-    for (let k = 0; k <= h; k++) {
-      const angle = (-2 * Math.PI * k) / size;
-      this.rotRe[k] = Math.cos(angle);
-      this.rotIm[k] = Math.sin(angle);
-    }
+    for (let k = 0; k <= h; k++) unitRoot(k, size, this.rotRe, this.rotIm, k);
   }
 
   forward(input: Float64Array, re: Float64Array, im: Float64Array): void {
@@ -439,6 +511,9 @@ class EvenRealPlan implements RealFftPlan {
       re[k] = er + wr * or - wi * oi;
       im[k] = ei + wr * oi + wi * or;
     }
+    // exact for real input; rounding would otherwise leave ±1e-16 here
+    im[0] = 0;
+    im[h] = 0;
   }
 }
 
@@ -467,6 +542,7 @@ class OddRealPlan implements RealFftPlan {
     this.full.transform(this.bufRe, this.bufIm);
     re.set(this.bufRe.subarray(0, bins));
     im.set(this.bufIm.subarray(0, bins));
+    im[0] = 0; // exact for real input
   }
 }
 
