@@ -1,11 +1,24 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { JobView } from '../../jobs/spec.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
+import { SignalInputError } from '../../signals/errors.js';
+import type { SignalLimits } from '../../signals/limits.js';
+import type { Signal } from '../../signals/signal.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
 import { FeatureRecordSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse } from '../schemas.js';
 import { getRecipe, getSignalMeta, pinRecipe, planJob, storeSignal } from '../services.js';
 import { zodValidator } from '../validation.js';
+
+/** Decodes an inline signal, with pointers relative to the whole job body. */
+function decodeInline(signal: unknown, limits: SignalLimits): Signal {
+  try {
+    return decodeJsonSignal(signal as Parameters<typeof decodeJsonSignal>[0], limits);
+  } catch (error) {
+    if (error instanceof SignalInputError) throw new SignalInputError(error.code, error.message, `/signal${error.pointer ?? ''}`);
+    throw error;
+  }
+}
 
 function present(job: JobView) {
   const { recordKey: _key, ...rest } = job;
@@ -45,13 +58,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     },
     async (request, reply) => {
       const body = request.body as { signal: unknown; recipe: unknown };
-      const meta =
-        typeof body.signal === 'string'
-          ? await getSignalMeta(store, body.signal, '/signal')
-          : await storeSignal(store, decodeJsonSignal(body.signal as Parameters<typeof decodeJsonSignal>[0], config.signalLimits)).catch((error) => {
-              if (error && typeof error === 'object' && 'pointer' in error && typeof error.pointer === 'string') error.pointer = `/signal${error.pointer}`;
-              throw error;
-            });
+      const meta = typeof body.signal === 'string' ? await getSignalMeta(store, body.signal, '/signal') : await storeSignal(store, decodeInline(body.signal, config.signalLimits));
       const pinned = typeof body.recipe === 'string' ? await getRecipe(store, body.recipe, '/recipe') : await pinRecipe(store, body.recipe);
       const { jobId, spec } = planJob(config, meta, pinned);
       let submitted;
