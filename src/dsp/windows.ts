@@ -48,8 +48,9 @@ function cosineSum(coefficients: readonly number[], length: number): Float64Arra
   for (let n = 0; n < length; n++) {
     let value = 0;
     for (let k = 0; k < coefficients.length; k++) {
-      // (k·n) mod N keeps the angle small, so w[n] = w[N−n] holds to the last bit.
-      const angle = (2 * Math.PI * ((k * n) % length)) / length;
+      // cos is even: folding k·n mod N into [0, N/2] makes w[n] = w[N−n] hold to the last bit
+      const r = (k * n) % length;
+      const angle = (2 * Math.PI * Math.min(r, length - r)) / length;
       value += (k % 2 === 0 ? 1 : -1) * coefficients[k]! * Math.cos(angle);
     }
     w[n] = value;
