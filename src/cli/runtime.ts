@@ -22,7 +22,9 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
   let pool: ComputePool | null = null;
   let queue: JobQueue;
   if (config.redisUrl) {
-    queue = new BullQueue({ url: config.redisUrl, prefix: config.redisPrefix, queueName: config.queueName, attempts: config.jobAttempts });
+    const bull = new BullQueue({ url: config.redisUrl, prefix: config.redisPrefix, queueName: config.queueName, attempts: config.jobAttempts });
+    if (!(await bull.connected())) logger.warn({ redis: redactUrl(config.redisUrl) }, 'Redis does not answer yet; submissions get 503 until it does');
+    queue = bull;
   } else {
     pool = createComputePool(config.workerThreads);
     queue = await EmbeddedQueue.open({
@@ -66,4 +68,9 @@ export function startWorker(config: Readonly<Config>, logger: Logger = createLog
       await pool.close();
     },
   };
+}
+
+/** A Redis URL without its password, for logs. */
+export function redactUrl(url: string): string {
+  return url.replace(/\/\/([^@/]*)@/, '//***@');
 }

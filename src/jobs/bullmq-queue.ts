@@ -26,8 +26,8 @@ export function cancelKey(prefix: string, queueName: string, jobId: string): str
 
 /**
  * The distributed adapter: jobs go to a BullMQ queue, `rhythmetric worker` processes consume them.
- * The API's connection fails fast (no offline queue) so that a Redis outage answers 503 instead of
- * hanging requests.
+ * Submissions and cancels fail fast while the connection is down, so that a Redis outage answers
+ * 503 instead of hanging requests (BullMQ itself needs ioredis's offline queue while it connects).
  */
 export class BullQueue implements JobQueue {
   readonly mode = 'distributed' as const;
@@ -35,7 +35,7 @@ export class BullQueue implements JobQueue {
   private readonly connection: Redis;
 
   constructor(private readonly options: BullQueueOptions) {
-    this.connection = new Redis(options.url, { maxRetriesPerRequest: 1, enableOfflineQueue: false });
+    this.connection = new Redis(options.url, { maxRetriesPerRequest: 1 });
     this.connection.on('error', () => {
       // Surfaces through failing commands and /readyz.
     });
@@ -43,7 +43,31 @@ export class BullQueue implements JobQueue {
     this.queue.on('error', () => {});
   }
 
+  /**
+   * Waits (bounded) for the first connection. The API starts even when Redis is down: submissions
+   * answer 503 and /readyz reports it until Redis is back.
+   */
+  async connected(timeoutMs = 5000): Promise<boolean> {
+    if (this.connection.status === 'ready') return true;
+    return new Promise((resolve) => {
+      const timer = setTimeout(() => {
+        this.connection.off('ready', onReady);
+        resolve(false);
+      }, timeoutMs);
+      const onReady = () => {
+        clearTimeout(timer);
+        resolve(true);
+      };
+      this.connection.once('ready', onReady);
+    });
+  }
+
+  private ensureUp(): void {
+    if (this.connection.status !== 'ready') throw new Error(`Redis connection is ${this.connection.status}`);
+  }
+
   async submit(spec: JobSpec, jobId: string): Promise<{ job: JobView; created: boolean }> {
+    this.ensureUp();
     const existing = await this.queue.getJob(jobId);
     if (existing) {
       const view = await this.view(existing);
@@ -69,6 +93,7 @@ export class BullQueue implements JobQueue {
   }
 
   async cancel(jobId: string): Promise<JobView | null> {
+    this.ensureUp();
     const job = await this.queue.getJob(jobId);
     if (!job) return null;
     const state = await job.getState();
