@@ -1,0 +1,94 @@
+/**
+ * Multitaper throughput: 200 epochs × 32 channels × 1000 samples, NW = 4, K = 7, fftLength 1024,
+ * single thread, beside the same computation in scipy/numpy (bench/scipy-multitaper.py).
+ *
+ * Standalone: `npx tsx bench/multitaper.ts`. Prints figures; never fails on time.
+ */
+import { spawnSync } from 'node:child_process';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { createMultitaperPlan, type TaperWeighting } from '../src/dsp/multitaper.js';
+
+const EPOCHS = 200;
+const CHANNELS = 32;
+const SAMPLES = 1000;
+const TIME_BANDWIDTH = 4;
+const TAPERS = 7;
+const FFT_LENGTH = 1024;
+const SAMPLING_RATE = 1000;
+
+/** Seeded Gaussian test data (xorshift32 + Box–Muller); the content only matters for adaptive iteration counts. */
+function makeData(): Float64Array[] {
+  let state = 2463534242;
+  const uniform = (): number => {
+    state ^= state << 13; state >>>= 0;
+    state ^= state >>> 17;
+    state ^= state << 5; state >>>= 0;
+    return (state + 0.5) / 4294967296;
+  };
+  return Array.from({ length: EPOCHS * CHANNELS }, () => {
+    const x = new Float64Array(SAMPLES);
+    for (let i = 0; i < SAMPLES; i++) x[i] = Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
+    return x;
+  });
+}
+
+function timeOurs(data: Float64Array[], weighting: TaperWeighting): { seconds: number; iterations: number } {
+  const start = performance.now();
+  // The plan (tapers, FFT, scratch) is built inside the timed region, once, as the engine would.
+  const plan = createMultitaperPlan(SAMPLES, {
+    samplingRate: SAMPLING_RATE, timeBandwidth: TIME_BANDWIDTH, taperCount: TAPERS, fftLength: FFT_LENGTH, weighting, detrend: 'mean',
+  });
+  let iterations = 0;
+  let checksum = 0;
+  for (const x of data) {
+    const r = plan.compute(x);
+    iterations = Math.max(iterations, r.iterations);
+    checksum += r.psd[100]!;
+  }
+  if (!Number.isFinite(checksum)) throw new Error('non-finite PSD in benchmark');
+  return { seconds: (performance.now() - start) / 1000, iterations };
+}
+
+function timeScipy(): { equal: number; adaptive: number; versions: string } | string {
+  const script = fileURLToPath(new URL('./scipy-multitaper.py', import.meta.url));
+  const run = spawnSync('/usr/bin/python3', [script, String(EPOCHS), String(CHANNELS), String(SAMPLES), String(TIME_BANDWIDTH), String(TAPERS), String(FFT_LENGTH)], {
+    encoding: 'utf8', timeout: 600_000,
+  });
+  if (run.error !== undefined || run.status !== 0) {
+    return `scipy reference unavailable (${run.error?.message ?? run.stderr.trim().split('\n').at(-1) ?? `exit ${run.status}`})`;
+  }
+  const parsed = JSON.parse(run.stdout) as { equal: number; adaptive: number; numpy: string; scipy: string };
+  return { equal: parsed.equal, adaptive: parsed.adaptive, versions: `numpy ${parsed.numpy}, scipy ${parsed.scipy}` };
+}
+
+/** Runs the multitaper benchmark and returns printable lines. */
+export async function benchMultitaper(): Promise<string[]> {
+  const data = makeData();
+  const signals = EPOCHS * CHANNELS;
+  timeOurs(data.slice(0, 64), 'equal'); // warm-up for the JIT
+  const lines = [
+    `multitaper: ${EPOCHS} epochs × ${CHANNELS} channels × ${SAMPLES} samples, NW ${TIME_BANDWIDTH}, K ${TAPERS}, fftLength ${FFT_LENGTH}, single thread`,
+  ];
+  const ours: Record<string, number> = {};
+  for (const weighting of ['equal', 'adaptive'] as const) {
+    const { seconds, iterations } = timeOurs(data, weighting);
+    ours[weighting] = seconds;
+    const extra = weighting === 'adaptive' ? `, max ${iterations} iterations` : '';
+    lines.push(`  rhythmetric ${weighting.padEnd(8)} ${seconds.toFixed(3)} s  (${((seconds / signals) * 1e6).toFixed(1)} µs per channel-epoch, ${(EPOCHS / seconds).toFixed(1)} epochs/s${extra})`);
+  }
+  const reference = timeScipy();
+  if (typeof reference === 'string') {
+    lines.push(`  ${reference}`);
+  } else {
+    for (const weighting of ['equal', 'adaptive'] as const) {
+      const theirs = reference[weighting];
+      lines.push(`  scipy/numpy ${weighting.padEnd(8)} ${theirs.toFixed(3)} s  (ratio rhythmetric/scipy ${(ours[weighting]! / theirs).toFixed(2)})`);
+    }
+    lines.push(`  reference: ${reference.versions} via /usr/bin/python3, vectorised over channels`);
+  }
+  return lines;
+}
+
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  for (const line of await benchMultitaper()) console.log(line);
+}
