@@ -16,18 +16,17 @@ const TAPERS = 7;
 const FFT_LENGTH = 1024;
 const SAMPLING_RATE = 1000;
 
-/** Seeded Gaussian test data (xorshift32 + Box–Muller); the content only matters for adaptive iteration counts. */
+/**
+ * Deterministic noise-like test data (a sine-hash, uniform on [−½, ½)); the content only matters
+ * for the adaptive iteration counts.
+ */
 function makeData(): Float64Array[] {
-  let state = 2463534242;
-  const uniform = (): number => {
-    state ^= state << 13; state >>>= 0;
-    state ^= state >>> 17;
-    state ^= state << 5; state >>>= 0;
-    return (state + 0.5) / 4294967296;
-  };
-  return Array.from({ length: EPOCHS * CHANNELS }, () => {
+  return Array.from({ length: EPOCHS * CHANNELS }, (_, signal) => {
     const x = new Float64Array(SAMPLES);
-    for (let i = 0; i < SAMPLES; i++) x[i] = Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
+    for (let i = 0; i < SAMPLES; i++) {
+      const h = Math.sin((signal * SAMPLES + i + 1) * 12.9898) * 43758.5453;
+      x[i] = h - Math.floor(h) - 0.5;
+    }
     return x;
   });
 }
