@@ -19,6 +19,7 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
           'JSON (`data`: channel × sample, or `epochs`: epoch × channel × sample) or a binary body (`application/octet-stream`: little-endian float32 laid out [epoch][channel][sample], described by the query). The id follows from the content hash: the same content gives the same id.',
         tags: ['signals'],
         body: SignalUploadSchema,
+        querystring: BinaryUploadQuery.partial().describe('describes a binary (application/octet-stream) body'),
         response: {
           201: SignalInfoSchema.describe('stored (or already stored) signal'),
           400: problemResponse('malformed request'),
