@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { AperiodicFit } from '../../src/features/aperiodic.js';
 import { peakFrequency } from '../../src/features/peak.js';
+import { multitaper } from '../../src/dsp/multitaper.js';
 import { periodogram } from '../../src/dsp/periodogram.js';
 
 const f = Float64Array.from({ length: 241 }, (_, k) => k * 0.25);
@@ -63,6 +64,21 @@ describe('peakFrequency', () => {
       expect(r.warnings.at(-1)).toMatch(/^no peak in \[8, 13\] Hz stands 3 dB above the aperiodic background/);
       // With a 2 dB threshold it counts; the 1/f slope pulls the maximum below 10 Hz by < 0.1 Hz.
       expect(Math.abs(peakFrequency(f, p, { range: [8, 13], minHeightDb: 2 }).frequency! - 10)).toBeLessThan(0.1);
+    });
+  });
+
+  describe('when a 10.3 Hz tone in noise goes through the multitaper estimator', () => {
+    it('should report the tone within W/2 = 0.25 Hz (multitaper turns a line into a plateau of width 2W = 1 Hz)', () => {
+      const fs = 128, n = 512;
+      // Deterministic noise-like samples (sine-hash, uniform on [−½, ½)), synthetic.
+      const x = Float64Array.from({ length: n }, (_, t) => {
+        const h = Math.sin((t + 1) * 12.9898) * 43758.5453;
+        return h - Math.floor(h) - 0.5 + 0.5 * Math.sin((2 * Math.PI * 10.3 * t) / fs);
+      });
+      const r = multitaper(x, { samplingRate: fs, timeBandwidth: 2, weighting: 'adaptive' });
+      const peak = peakFrequency(r.frequencies, r.psd, { range: [8, 13] });
+      expect(Math.abs(peak.frequency! - 10.3)).toBeLessThan(0.25);
+      expect(peak.heightDb!).toBeGreaterThan(10);
     });
   });
 });
