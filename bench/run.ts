@@ -1,0 +1,68 @@
+/**
+ * Runs every benchmark that exists, in order, and prints its figures under a heading with the machine.
+ * Timings never change the exit code; only a benchmark that crashes (or lacks its export) does.
+ *
+ * Run: npm run bench
+ */
+import { existsSync } from 'node:fs';
+import { arch, availableParallelism, cpus, platform, release, totalmem } from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { fileURLToPath } from 'node:url';
+
+interface Block {
+  name: string;
+  file: string;
+  exportName: string;
+}
+
+const BLOCKS: readonly Block[] = [
+  { name: 'Welch', file: 'welch.ts', exportName: 'benchWelch' },
+  { name: 'multitaper', file: 'multitaper.ts', exportName: 'benchMultitaper' },
+  { name: 'API latency', file: 'api-latency.ts', exportName: 'benchApiLatency' },
+];
+
+function machine(): string[] {
+  const list = cpus();
+  const model = list[0]?.model.trim() ?? 'unknown cpu';
+  return [
+    `machine: ${model}, ${availableParallelism()} cores available (${list.length} logical CPUs), ${(totalmem() / 2 ** 30).toFixed(1)} GiB`,
+    `         node ${process.version}, ${platform()} ${release()} ${arch()}`,
+  ];
+}
+
+async function runBlock(block: Block): Promise<boolean> {
+  const url = new URL(`./${block.file}`, import.meta.url);
+  console.log(`\n== ${block.name} (bench/${block.file}) ==`);
+  if (!existsSync(fileURLToPath(url))) {
+    console.log(`note: bench/${block.file} does not exist yet; skipped`);
+    return true;
+  }
+  const started = performance.now();
+  try {
+    const module = (await import(url.href)) as Record<string, unknown>;
+    const bench = module[block.exportName];
+    if (typeof bench !== 'function') {
+      console.log(`crash: bench/${block.file} does not export ${block.exportName}(): Promise<string[]>`);
+      return false;
+    }
+    const lines = (await (bench as () => Promise<unknown>)()) as unknown;
+    if (!Array.isArray(lines)) {
+      console.log(`crash: ${block.exportName}() resolved to ${typeof lines}, not an array of lines`);
+      return false;
+    }
+    for (const line of lines) console.log(String(line));
+    console.log(`(${block.name}: ${((performance.now() - started) / 1000).toFixed(1)} s wall)`);
+    return true;
+  } catch (error) {
+    console.log(`crash: ${block.exportName}() threw after ${((performance.now() - started) / 1000).toFixed(1)} s`);
+    console.log(error instanceof Error ? (error.stack ?? error.message) : String(error));
+    return false;
+  }
+}
+
+for (const line of machine()) console.log(line);
+let crashed = 0;
+// In order, one at a time: blocks running together would time each other.
+for (const block of BLOCKS) if (!(await runBlock(block))) crashed++;
+console.log(crashed === 0 ? '\nall benchmarks ran' : `\n${crashed} benchmark(s) crashed`);
+process.exitCode = crashed === 0 ? 0 : 1;
