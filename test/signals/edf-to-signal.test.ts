@@ -152,6 +152,28 @@ describe('when a file mixes sampling rates', () => {
   });
 });
 
+describe('when the sampling rate is not a whole number of samples per second of record', () => {
+  // 77 samples per 0.3 s record: the header rate is 77 / 0.3 in floating point (Kemp et al. 1992: rate =
+  // samples per record / record duration), which a typed "256.666666666667" or the exact quotient must match.
+  const bytes = writeEdf({ signals: [{ label: 'Cz', samples: noise(77 * 4, 10, 6), samplingRate: 77 / 0.3 }], recordDuration: 0.3, startDate: start });
+
+  it('should accept the rate as typed to 12 significant digits', () => {
+    const signal = toSignal(bytes, { samplingRate: 256.666666666667 });
+    expect(signal.samplingRate).toBe(77 / 0.3);
+    expect(signal.samplesPerEpoch).toBe(308);
+  });
+});
+
+describe('when the upload is a view into a larger buffer', () => {
+  it('should decode the same signal as from a copy (Node Buffers share a pool with an offset)', () => {
+    const bytes = edf([{ label: 'Fz', samples: noise(64, 10, 8), samplingRate: 32, physicalDimension: 'uV' }], { annotations: [] });
+    const pool = new Uint8Array(bytes.length + 7);
+    pool.set(bytes, 3);
+    const view = pool.subarray(3, 3 + bytes.length);
+    expect(toSignal(view)).toEqual(toSignal(bytes.slice()));
+  });
+});
+
 describe('when channels are selected by label', () => {
   const bytes = edf(
     [
