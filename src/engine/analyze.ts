@@ -1,12 +1,14 @@
 import { hostname } from 'node:os';
 import { hashCanonical } from '../common/hash.js';
-import { createWelchPlan, welchFrequencies } from '../dsp/welch.js';
-import { makeWindow } from '../dsp/windows.js';
+import { confidenceInterval } from '../dsp/dof.js';
 import { bandPowers, bandRatios } from '../features/bands.js';
+import { qualityFlags } from '../features/quality.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
-import type { ChannelFeatures, FeatureRecord, FeatureResult, RecordInput, SkippedEpoch } from './record.js';
+import { createEstimator } from './estimators.js';
+import type { ChannelFeatures, ChannelQuality, FeatureRecord, FeatureResult, RecordInput, SkippedEpoch } from './record.js';
+import { computeFeatures } from './spectral-features.js';
 import { ENGINE_NAME, ENGINE_VERSION, RECORD_SCHEMA } from './version.js';
 
 export type ProgressListener = (fraction: number) => void;
@@ -21,68 +23,100 @@ export interface AnalyzeContext {
   checkpoint?: () => void;
 }
 
-/** Spectra of every used epoch for every channel: spectra[epoch][channel] over all bins 0..⌊n/2⌋. */
+/** Sums over the used epochs of every channel's spectrum, and (when asked) each epoch's own. */
 export interface Spectra {
   frequencies: Float64Array;
   usedEpochs: number[];
   skipped: SkippedEpoch[];
-  spectra: Float64Array[][];
+  /** Σ over used epochs of PSD, per channel */
+  psdSums: Float64Array[];
+  /** Σ over used epochs of degrees of freedom, per channel (independent epochs add) */
+  dofSums: Float64Array[];
+  /** perEpoch[i][c]: PSD of used epoch i, channel c (only with recipe.perEpoch) */
+  perEpoch: Float64Array[][] | null;
+  quality: { index: number; channels: ChannelQuality[] }[] | null;
+  warnings: string[];
 }
 
 /**
- * Computes the spectrum of every channel of every epoch, each epoch segmented on its own.
+ * Computes the spectrum of every channel of every usable epoch, each epoch on its own.
  * Deterministic: the same signal and resolved recipe give the same bits in every mode.
  */
 export function computeSpectra(signal: Signal, resolved: ResolvedRecipe, context: Pick<AnalyzeContext, 'onProgress' | 'checkpoint'> = {}): Spectra {
-  const { recipe, derived } = resolved;
-  const window = makeWindow(recipe.window, derived.segmentSamples, recipe.tukeyRatio === undefined ? {} : { tukeyRatio: recipe.tukeyRatio });
-  const plan = createWelchPlan({
-    samplingRate: signal.samplingRate,
-    segmentSamples: derived.segmentSamples,
-    overlapSamples: derived.overlapSamples,
-    fftLength: derived.fftLength,
-    window,
-    detrend: recipe.detrend,
-    average: recipe.average,
-  });
-  const { usedEpochs, skipped } = selectEpochs(signal, recipe.nonFinite);
-  const total = usedEpochs.length * signal.channels.length;
-  const spectra: Float64Array[][] = [];
+  const { recipe } = resolved;
+  const estimator = createEstimator(signal.samplingRate, resolved);
+  const { usedEpochs, skipped, quality } = selectEpochs(signal, resolved);
+  const channelCount = signal.channels.length;
+  const bins = estimator.frequencies.length;
+  const psdSums = Array.from({ length: channelCount }, () => new Float64Array(bins));
+  const dofSums = Array.from({ length: channelCount }, () => new Float64Array(bins));
+  const perEpoch: Float64Array[][] | null = recipe.perEpoch ? [] : null;
+  const warnings = new Set<string>(estimator.warnings);
+  const total = usedEpochs.length * channelCount;
   let done = 0;
   for (const e of usedEpochs) {
     const row: Float64Array[] = [];
-    for (let c = 0; c < signal.channels.length; c++) {
+    for (let c = 0; c < channelCount; c++) {
       context.checkpoint?.();
-      row.push(plan.compute(channelView(signal, e, c)).psd);
+      const estimate = estimator.estimate(channelView(signal, e, c));
+      const sum = psdSums[c]!;
+      const dof = dofSums[c]!;
+      for (let k = 0; k < bins; k++) {
+        sum[k]! += estimate.psd[k]!;
+        dof[k]! += estimate.degreesOfFreedom[k]!;
+      }
+      for (const w of estimate.warnings) warnings.add(`channel "${signal.channels[c]}", epoch ${e}: ${w}`);
+      if (perEpoch) row.push(estimate.psd);
       done++;
       context.onProgress?.(done / total);
     }
-    spectra.push(row);
+    perEpoch?.push(row);
   }
-  return { frequencies: welchFrequencies(derived.fftLength, signal.samplingRate), usedEpochs, skipped, spectra };
+  return { frequencies: estimator.frequencies, usedEpochs, skipped, psdSums, dofSums, perEpoch, quality, warnings: [...warnings] };
 }
 
-function selectEpochs(signal: Signal, policy: 'reject' | 'skip-epoch'): { usedEpochs: number[]; skipped: SkippedEpoch[] } {
+/** Leaves out epochs with gaps (per `nonFinite`) and, when asked, epochs with flagged channels. */
+function selectEpochs(signal: Signal, resolved: ResolvedRecipe) {
+  const { recipe } = resolved;
   const usedEpochs: number[] = [];
   const skipped: SkippedEpoch[] = [];
+  const qualityOptions = recipe.features.quality;
+  const quality: { index: number; channels: ChannelQuality[] }[] | null = qualityOptions ? [] : null;
   const perEpoch = signal.channels.length * signal.samplesPerEpoch;
   for (let e = 0; e < signal.epochCount; e++) {
     const bad = firstNonFinite(signal.data, e * perEpoch, (e + 1) * perEpoch);
-    if (bad < 0) {
-      usedEpochs.push(e);
+    if (bad >= 0) {
+      const offset = bad - e * perEpoch;
+      const where = `channel "${signal.channels[Math.floor(offset / signal.samplesPerEpoch)]}", sample ${offset % signal.samplesPerEpoch}`;
+      if (recipe.nonFinite === 'reject') {
+        throw new EngineInputError('non-finite', `epoch ${e} holds a non-finite sample (${where}); set the recipe's "nonFinite": "skip-epoch" to leave such epochs out`, '/recipe/nonFinite');
+      }
+      skipped.push({ index: e, reason: 'non-finite', detail: `first non-finite sample at ${where}` });
       continue;
     }
-    const offset = bad - e * perEpoch;
-    const where = `channel "${signal.channels[Math.floor(offset / signal.samplesPerEpoch)]}", sample ${offset % signal.samplesPerEpoch}`;
-    if (policy === 'reject') {
-      throw new EngineInputError('non-finite', `epoch ${e} holds a non-finite sample (${where}); set the recipe's "nonFinite": "skip-epoch" to leave such epochs out`, '/recipe/nonFinite');
+    if (qualityOptions && quality) {
+      const channels = signal.channels.map((name, c): ChannelQuality => {
+        const q = qualityFlags(channelView(signal, e, c), {
+          flatThreshold: qualityOptions.flatThreshold,
+          clipRunSamples: qualityOptions.clipRunSamples,
+          ...(qualityOptions.maxPeakToPeak === null ? {} : { maxPeakToPeak: qualityOptions.maxPeakToPeak }),
+        });
+        return { name, flat: q.flat, clipped: q.clipped, excessiveAmplitude: q.excessiveAmplitude, peakToPeak: q.peakToPeak, standardDeviation: q.standardDeviation, longestClipRun: q.longestClipRun };
+      });
+      quality.push({ index: e, channels });
+      const flagged = channels.filter((c) => c.flat || c.clipped || c.excessiveAmplitude);
+      if (qualityOptions.dropFlagged && flagged.length > 0) {
+        const detail = flagged.map((c) => `${c.name}: ${[c.flat && 'flat', c.clipped && 'clipped', c.excessiveAmplitude && `peak-to-peak ${c.peakToPeak}`].filter(Boolean).join(', ')}`).join('; ');
+        skipped.push({ index: e, reason: 'quality', detail });
+        continue;
+      }
     }
-    skipped.push({ index: e, reason: 'non-finite', detail: `first non-finite sample at ${where}` });
+    usedEpochs.push(e);
   }
   if (usedEpochs.length === 0) {
-    throw new EngineInputError('no-usable-epochs', `all ${signal.epochCount} epoch(s) hold non-finite samples; nothing is left to analyze`);
+    throw new EngineInputError('no-usable-epochs', `all ${signal.epochCount} epoch(s) were left out (${[...new Set(skipped.map((s) => s.reason))].join(', ')}); nothing is left to analyze`);
   }
-  return { usedEpochs, skipped };
+  return { usedEpochs, skipped, quality };
 }
 
 function firstNonFinite(data: Float64Array, from: number, to: number): number {
@@ -90,46 +124,67 @@ function firstNonFinite(data: Float64Array, from: number, to: number): number {
   return -1;
 }
 
-/** Turns spectra into the deterministic result: range-limited PSDs, band powers and ratios. */
+/** Turns spectra into the deterministic result: range-limited PSDs, band powers, ratios and features. */
 export function summarize(signal: Signal, resolved: ResolvedRecipe, spectra: Spectra): FeatureResult {
   const { recipe, derived } = resolved;
   const { frequencies } = spectra;
   const [lo, hi] = derived.frequencyRange;
   const inRange: number[] = [];
   for (let k = 0; k < frequencies.length; k++) if (frequencies[k]! >= lo && frequencies[k]! <= hi) inRange.push(k);
-  const features = (name: string, psd: Float64Array): ChannelFeatures => {
+  const pick = (values: Float64Array) => inRange.map((k) => values[k]!);
+  const ratios = recipe.ratios.map((r) => ({ ...r, name: r.name ?? `${r.numerator}/${r.denominator}` }));
+  const warnings = [...resolved.warnings, ...spectra.warnings];
+  const describe = (where: string, psd: Float64Array, dof: Float64Array | null): ChannelFeatures => {
     const bands = bandPowers(frequencies, psd, recipe.bands, derived.frequencyRange, derived.frequencyResolution);
-    return { name, psd: inRange.map((k) => psd[k]!), bands, ratios: bandRatios(bands, recipe.ratios.map((r) => ({ ...r, name: r.name ?? '' }))) };
-  };
-  const bins = frequencies.length;
-  const channels = signal.channels.map((name, c) => {
-    const mean = new Float64Array(bins);
-    for (const row of spectra.spectra) {
-      const psd = row[c]!;
-      for (let k = 0; k < bins; k++) mean[k]! += psd[k]!;
+    const out: ChannelFeatures = { name: where, psd: pick(psd), bands, ratios: bandRatios(bands, ratios) };
+    if (recipe.confidence !== null && dof) {
+      const ci = confidenceInterval(psd, dof, recipe.confidence);
+      out.psdLower = pick(ci.lower);
+      out.psdUpper = pick(ci.upper);
+      out.degreesOfFreedom = pick(dof);
     }
-    const count = spectra.spectra.length;
-    for (let k = 0; k < bins; k++) mean[k]! /= count;
-    return features(name, mean);
+    if (Object.keys(recipe.features).some((k) => k !== 'quality')) {
+      const { values, warnings: featureWarnings } = computeFeatures(frequencies, psd, recipe.features, derived.frequencyRange);
+      out.features = values;
+      return Object.assign(out, { _warnings: featureWarnings });
+    }
+    return out;
+  };
+  const collect = (prefix: string, features: ChannelFeatures): ChannelFeatures => {
+    const extra = (features as ChannelFeatures & { _warnings?: string[] })._warnings;
+    if (extra) {
+      for (const w of extra) warnings.push(`${prefix}: ${w}`);
+      delete (features as ChannelFeatures & { _warnings?: string[] })._warnings;
+    }
+    return features;
+  };
+  const count = spectra.usedEpochs.length;
+  const channels = signal.channels.map((name, c) => {
+    const mean = spectra.psdSums[c]!.map((v) => v / count);
+    const features = describe(name, mean, spectra.dofSums[c]!);
+    return collect(`channel "${name}"`, { ...features, name });
   });
   const result: FeatureResult = {
     units: { psd: `${signal.unit}^2/Hz`, power: `${signal.unit}^2`, frequency: 'Hz' },
-    frequencies: inRange.map((k) => frequencies[k]!),
+    frequencies: pick(frequencies),
     channels,
     estimate: {
       method: recipe.method,
       segmentsPerEpoch: derived.segmentsPerEpoch,
-      epochsUsed: spectra.usedEpochs.length,
+      epochsUsed: count,
       epochsSkipped: spectra.skipped,
+      ...(recipe.confidence !== null ? { confidence: recipe.confidence } : {}),
     },
-    warnings: [...resolved.warnings],
+    warnings,
   };
-  if (recipe.perEpoch) {
+  if (spectra.perEpoch) {
     result.epochs = spectra.usedEpochs.map((index, i) => ({
       index,
-      channels: signal.channels.map((name, c) => features(name, spectra.spectra[i]![c]!)),
+      channels: signal.channels.map((name, c) => collect(`epoch ${index}, channel "${name}"`, describe(name, spectra.perEpoch![i]![c]!, null))),
     }));
   }
+  if (spectra.quality) result.quality = spectra.quality;
+  result.warnings = [...new Set(result.warnings)];
   return result;
 }
 

@@ -1,14 +1,31 @@
 import type { BandPower, BandRatio } from '../features/bands.js';
 import type { DerivedSettings } from '../recipes/resolve.js';
 import type { Recipe } from '../recipes/schema.js';
+import type { FeatureValues } from './spectral-features.js';
 import type { SignalDescription } from '../signals/signal.js';
 
 export interface ChannelFeatures {
   name: string;
   /** one-sided PSD in unit²/Hz at `result.frequencies` */
   psd: number[];
+  /** χ² confidence bounds of the PSD (with recipe.confidence) */
+  psdLower?: number[];
+  psdUpper?: number[];
+  /** equivalent degrees of freedom per bin (with recipe.confidence) */
+  degreesOfFreedom?: number[];
   bands: BandPower[];
   ratios: BandRatio[];
+  features?: FeatureValues;
+}
+
+export interface ChannelQuality {
+  name: string;
+  flat: boolean;
+  clipped: boolean;
+  excessiveAmplitude: boolean;
+  peakToPeak: number;
+  standardDeviation: number;
+  longestClipRun: number;
 }
 
 export interface EpochFeatures {
@@ -19,7 +36,7 @@ export interface EpochFeatures {
 
 export interface SkippedEpoch {
   index: number;
-  reason: 'non-finite';
+  reason: 'non-finite' | 'quality';
   detail: string;
 }
 
@@ -34,7 +51,10 @@ export interface FeatureResult {
     segmentsPerEpoch: number;
     epochsUsed: number;
     epochsSkipped: SkippedEpoch[];
+    confidence?: number;
   };
+  /** time-domain flags per used-or-dropped epoch and channel (with features.quality) */
+  quality?: { index: number; channels: ChannelQuality[] }[];
   warnings: string[];
 }
 

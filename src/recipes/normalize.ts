@@ -1,7 +1,8 @@
-import { z } from 'zod';
+import type { z } from 'zod';
+import { deepFreeze } from '../common/freeze.js';
 import { hashCanonical } from '../common/hash.js';
 import { pointerOf, RecipeInputError } from './errors.js';
-import { RecipeSchema, type Recipe } from './schema.js';
+import { METHODS, RecipeSchema, type Recipe } from './schema.js';
 
 export interface PinnedRecipe {
   id: string;
@@ -23,7 +24,7 @@ export function normalizeRecipe(input: unknown): PinnedRecipe {
   if (!parsed.success) throw fromZod(parsed.error);
   const recipe = parsed.data;
   checkCrossFields(recipe);
-  if (recipe.method === 'welch' && recipe.window === 'tukey' && recipe.tukeyRatio === undefined) recipe.tukeyRatio = 0.5;
+  if (recipe.method !== 'multitaper' && recipe.window === 'tukey' && recipe.tukeyRatio === undefined) recipe.tukeyRatio = 0.5;
   recipe.ratios = recipe.ratios.map((r) => ({ ...r, name: r.name ?? `${r.numerator}/${r.denominator}` }));
   const hash = hashCanonical(recipe);
   return { id: recipeIdFromHash(hash), hash, recipe: deepFreeze(recipe) };
@@ -36,17 +37,35 @@ export function fromZod(error: z.ZodError): RecipeInputError {
   if (issue.code === 'unrecognized_keys') {
     message = `unknown setting${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${k}"`).join(', ')}; a misspelt setting is never replaced by a default`;
   } else if (issue.code === 'invalid_union' && issue.path.length === 0) {
-    message = 'method must be one of "welch"';
+    message = `method must be one of ${METHODS.map((m) => `"${m}"`).join(', ')}`;
   }
   return new RecipeInputError('invalid', message, pointer || '/');
 }
 
 function checkCrossFields(recipe: Recipe): void {
-  if (recipe.method === 'welch' && recipe.tukeyRatio !== undefined && recipe.window !== 'tukey') {
+  if (recipe.method !== 'multitaper' && recipe.tukeyRatio !== undefined && recipe.window !== 'tukey') {
     throw new RecipeInputError('invalid', `tukeyRatio applies only to window "tukey", not "${recipe.window}"`, '/tukeyRatio');
   }
-  if (recipe.frequencyRange && recipe.frequencyRange[0] >= recipe.frequencyRange[1]) {
-    throw new RecipeInputError('invalid', 'frequencyRange must be [low, high] with low < high', '/frequencyRange/1');
+  const ranges: [string, readonly [number, number] | null | undefined][] = [
+    ['/frequencyRange', recipe.frequencyRange],
+    ['/features/peakFrequency/range', recipe.features.peakFrequency?.range],
+    ['/features/centroid/range', recipe.features.centroid?.range],
+    ['/features/spectralEdge/range', recipe.features.spectralEdge?.range],
+    ['/features/entropy/range', recipe.features.entropy?.range],
+    ['/features/aperiodic/range', recipe.features.aperiodic?.range],
+  ];
+  for (const [pointer, range] of ranges) {
+    if (range && range[0] >= range[1]) throw new RecipeInputError('invalid', `${pointer.slice(1)} must be [low, high] with low < high`, `${pointer}/1`);
+  }
+  if (recipe.features.aperiodic && recipe.features.aperiodic.range[0] <= 0) {
+    throw new RecipeInputError('invalid', 'the aperiodic fit works on log10 f: its range must start above 0 Hz', '/features/aperiodic/range/0');
+  }
+  if (recipe.method === 'multitaper' && recipe.taperCount !== null && recipe.taperCount > 2 * recipe.timeBandwidth) {
+    throw new RecipeInputError(
+      'invalid',
+      `taperCount ${recipe.taperCount} exceeds 2·timeBandwidth = ${2 * recipe.timeBandwidth}: tapers past 2NW are poorly concentrated; use at most ⌊2NW⌋ (⌊2NW⌋ − 1 is the usual choice)`,
+      '/taperCount',
+    );
   }
   const names = new Map<string, number>();
   recipe.bands.forEach((band, i) => {
@@ -60,12 +79,4 @@ function checkCrossFields(recipe: Recipe): void {
       }
     }
   });
-}
-
-function deepFreeze<T>(value: T): T {
-  if (value && typeof value === 'object') {
-    for (const v of Object.values(value)) deepFreeze(v);
-    Object.freeze(value);
-  }
-  return value;
 }

@@ -27,6 +27,10 @@ export interface DerivedSettings {
   /** recipe.frequencyRange, or [0, samplingRate / 2] when null */
   frequencyRange: [number, number];
   nyquist: number;
+  /** multitaper: K, recipe.taperCount or ⌊2·NW⌋ − 1 */
+  taperCount?: number;
+  /** multitaper: W = NW·samplingRate/segmentSamples, Hz */
+  halfBandwidth?: number;
 }
 
 export interface ResolvedRecipe {
@@ -44,25 +48,33 @@ export function resolveRecipe(recipe: Recipe, hash: string, shape: SignalShape, 
   const fs = shape.samplingRate;
   const nyquist = fs / 2;
   const warnings: string[] = [];
-  const exactSegment = recipe.segmentSeconds * fs;
-  const segmentSamples = Math.round(exactSegment);
-  if (segmentSamples < 2) {
-    throw new RecipeInputError('unfit-for-signal', `a segment of ${recipe.segmentSeconds} s at ${fs} Hz holds ${segmentSamples} sample(s); at least 2 are needed`, '/segmentSeconds');
+  let segmentSamples: number;
+  let overlapSamples = 0;
+  if (recipe.method === 'welch') {
+    const exactSegment = recipe.segmentSeconds * fs;
+    segmentSamples = Math.round(exactSegment);
+    if (segmentSamples < 2) {
+      throw new RecipeInputError('unfit-for-signal', `a segment of ${recipe.segmentSeconds} s at ${fs} Hz holds ${segmentSamples} sample(s); at least 2 are needed`, '/segmentSeconds');
+    }
+    if (Math.abs(exactSegment - segmentSamples) > 1e-9 * Math.max(1, exactSegment)) {
+      warnings.push(`segmentSeconds ${recipe.segmentSeconds} s is ${exactSegment} samples at ${fs} Hz; rounded to ${segmentSamples} samples (${segmentSamples / fs} s)`);
+    }
+    if (segmentSamples > shape.samplesPerEpoch) {
+      throw new RecipeInputError(
+        'unfit-for-signal',
+        `a segment of ${recipe.segmentSeconds} s (${segmentSamples} samples) is longer than the epoch (${shape.samplesPerEpoch} samples = ${shape.samplesPerEpoch / fs} s)`,
+        '/segmentSeconds',
+      );
+    }
+    overlapSamples = Math.floor(recipe.overlap * segmentSamples);
+  } else {
+    // Multitaper and periodogram estimates use each whole epoch as one segment.
+    segmentSamples = shape.samplesPerEpoch;
   }
-  if (Math.abs(exactSegment - segmentSamples) > 1e-9 * Math.max(1, exactSegment)) {
-    warnings.push(`segmentSeconds ${recipe.segmentSeconds} s is ${exactSegment} samples at ${fs} Hz; rounded to ${segmentSamples} samples (${segmentSamples / fs} s)`);
-  }
-  if (segmentSamples > shape.samplesPerEpoch) {
-    throw new RecipeInputError(
-      'unfit-for-signal',
-      `a segment of ${recipe.segmentSeconds} s (${segmentSamples} samples) is longer than the epoch (${shape.samplesPerEpoch} samples = ${shape.samplesPerEpoch / fs} s)`,
-      '/segmentSeconds',
-    );
-  }
-  const overlapSamples = Math.floor(recipe.overlap * segmentSamples);
   const fftLength = recipe.fftLength ?? segmentSamples;
   if (fftLength < segmentSamples) {
-    throw new RecipeInputError('unfit-for-signal', `fftLength ${fftLength} is shorter than the segment (${segmentSamples} samples); it must be at least the segment length`, '/fftLength');
+    const what = recipe.method === 'welch' ? 'segment' : 'epoch';
+    throw new RecipeInputError('unfit-for-signal', `fftLength ${fftLength} is shorter than the ${what} (${segmentSamples} samples); it must be at least the ${what} length`, '/fftLength');
   }
   if (fftLength > limits.maxFftLength) {
     throw new RecipeInputError('limit', `fftLength ${fftLength} is above this server's limit of ${limits.maxFftLength}`, '/fftLength');
@@ -97,6 +109,15 @@ export function resolveRecipe(recipe: Recipe, hash: string, shape: SignalShape, 
       warnings.push(`band "${band.name}" [${band.low}, ${band.high}) Hz extends outside frequencyRange [${frequencyRange[0]}, ${frequencyRange[1]}] Hz, so its relative power can exceed its share`);
     }
   });
+  checkFeatureRanges(recipe, nyquist);
+  let taper: { taperCount: number; halfBandwidth: number } | null = null;
+  if (recipe.method === 'multitaper') {
+    const taperCount = recipe.taperCount ?? Math.max(1, Math.floor(2 * recipe.timeBandwidth) - 1);
+    if (taperCount > segmentSamples) {
+      throw new RecipeInputError('unfit-for-signal', `taperCount ${taperCount} exceeds the epoch length (${segmentSamples} samples)`, '/taperCount');
+    }
+    taper = { taperCount, halfBandwidth: (recipe.timeBandwidth * fs) / segmentSamples };
+  }
   const step = segmentSamples - overlapSamples;
   const segmentsPerEpoch = Math.floor((shape.samplesPerEpoch - overlapSamples) / step);
   const used = (segmentsPerEpoch - 1) * step + segmentSamples;
@@ -106,9 +127,28 @@ export function resolveRecipe(recipe: Recipe, hash: string, shape: SignalShape, 
   return {
     recipe,
     hash,
-    derived: { segmentSamples, overlapSamples, fftLength, frequencyResolution, segmentsPerEpoch, frequencyRange, nyquist },
+    derived: { segmentSamples, overlapSamples, fftLength, frequencyResolution, segmentsPerEpoch, frequencyRange, nyquist, ...(taper ?? {}) },
     warnings,
   };
+}
+
+function checkFeatureRanges(recipe: Recipe, nyquist: number): void {
+  const f = recipe.features;
+  const ranges: [string, readonly [number, number] | null | undefined][] = [
+    ['peakFrequency', f.peakFrequency?.range],
+    ['centroid', f.centroid?.range],
+    ['spectralEdge', f.spectralEdge?.range],
+    ['entropy', f.entropy?.range],
+    ['aperiodic', f.aperiodic?.range],
+  ];
+  for (const [name, range] of ranges) {
+    if (range && range[1] > nyquist) {
+      throw new RecipeInputError('unfit-for-signal', `features.${name}.range ends at ${range[1]} Hz, above the Nyquist frequency ${nyquist} Hz`, `/features/${name}/range/1`);
+    }
+  }
+  if (f.lineNoise && f.lineNoise.frequency + f.lineNoise.halfWidth + f.lineNoise.neighbourhoodWidth > nyquist) {
+    throw new RecipeInputError('unfit-for-signal', `line noise at ${f.lineNoise.frequency} Hz and its neighbourhood do not fit below the Nyquist frequency ${nyquist} Hz`, '/features/lineNoise/frequency');
+  }
 }
 
 /** Frequency of bin k in Hz, computed as k·fs/n in this order everywhere (band edges compare against it). */

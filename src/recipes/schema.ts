@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { DETREND_KINDS } from '../dsp/detrend.js';
+import { TAPER_WEIGHTINGS } from '../dsp/multitaper.js';
 import { WINDOW_NAMES } from '../dsp/windows.js';
 import { DEFAULT_BANDS } from './bands.js';
 
@@ -23,6 +24,56 @@ export const RatioSchema = z
   })
   .meta({ id: 'BandRatio', description: 'A ratio of two absolute band powers.' });
 
+const Range = z.tuple([z.number().min(0), z.number().positive()]);
+const OptionalRange = Range.nullable().default(null).describe('[low, high] Hz, both included; null means the recipe\'s frequencyRange');
+
+/** Spectral features, each computed only when named (an empty object takes every default). */
+export const FeaturesSchema = z
+  .strictObject({
+    peakFrequency: z
+      .strictObject({
+        range: Range.default([7, 14]).describe('search range, Hz; default 7–14 Hz, around the adult alpha rhythm (common practice)'),
+        minHeightDb: z.number().min(0).max(60).default(3).describe('how far a peak must stand above the aperiodic background, dB'),
+      })
+      .optional()
+      .describe('frequency of the highest local maximum above the 1/f background, refined by a parabola through the log spectrum'),
+    centroid: z.strictObject({ range: OptionalRange }).optional().describe('power-weighted mean frequency'),
+    spectralEdge: z
+      .strictObject({
+        percentiles: z.array(z.number().gt(0).lt(100)).min(1).max(20).default([50, 95]),
+        range: OptionalRange,
+      })
+      .optional()
+      .describe('frequencies below which the given percentages of the power in the range lie (trapezoid cumulative power, linear interpolation)'),
+    entropy: z.strictObject({ range: OptionalRange }).optional().describe('Shannon entropy of the normalized PSD over the range, divided by ln(bins): 0…1'),
+    aperiodic: z
+      .strictObject({
+        range: Range.default([1, 40]).describe('fitting range, Hz'),
+        robust: z.boolean().default(true).describe('down-weight peaks (iteratively reweighted, bisquare)'),
+      })
+      .optional()
+      .describe('log10 PSD = offset − exponent·log10 f over the range'),
+    lineNoise: z
+      .strictObject({
+        frequency: z.union([z.literal(50), z.literal(60)]).default(50).describe('mains frequency, Hz'),
+        harmonics: z.number().int().min(1).max(10).default(3),
+        halfWidth: z.number().positive().default(1).describe('half-width of each line band, Hz'),
+        neighbourhoodWidth: z.number().positive().default(4).describe('width of the comparison band on each side, Hz'),
+      })
+      .optional()
+      .describe('mean PSD in narrow bands at the mains frequency and its harmonics over the mean PSD around them (1 means none)'),
+    quality: z
+      .strictObject({
+        flatThreshold: z.number().min(0).default(1e-6).describe('a standard deviation at or below this (signal unit) is a flat channel'),
+        clipRunSamples: z.number().int().min(2).default(5).describe('consecutive samples at the epoch minimum or maximum that count as clipping'),
+        maxPeakToPeak: z.number().positive().nullable().default(null).describe('peak-to-peak amplitude (signal unit) above which an epoch is flagged; null: not checked'),
+        dropFlagged: z.boolean().default(false).describe('leave epochs with any flagged channel out of the averages'),
+      })
+      .optional()
+      .describe('time-domain flags per channel and epoch: flat, clipped, excessive amplitude'),
+  })
+  .meta({ id: 'Features' });
+
 const common = {
   schema: z.literal(RECIPE_SCHEMA).default(RECIPE_SCHEMA).describe('recipe format version'),
   detrend: z.enum(DETREND_KINDS).default('mean').describe('removed from each segment before windowing'),
@@ -33,7 +84,7 @@ const common = {
     .max(1 << 24)
     .nullable()
     .default(null)
-    .describe('FFT length in samples, any integer ≥ the segment length; null means equal to the segment length (no padding)'),
+    .describe('FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)'),
   frequencyRange: z
     .tuple([z.number().min(0), z.number().positive()])
     .nullable()
@@ -46,6 +97,14 @@ const common = {
     .describe('bands for band power; default: IFCN glossary bands with documented edges'),
   ratios: z.array(RatioSchema).max(64).default([]).describe('ratios of absolute band powers'),
   perEpoch: z.boolean().default(false).describe('also report every epoch on its own, not only the mean over epochs'),
+  confidence: z
+    .number()
+    .gt(0)
+    .lt(1)
+    .nullable()
+    .default(null)
+    .describe('confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none'),
+  features: FeaturesSchema.default({}).describe('spectral features to compute, by name'),
   nonFinite: z
     .enum(['reject', 'skip-epoch'])
     .default('reject')
@@ -64,9 +123,33 @@ export const WelchRecipeSchema = z
   })
   .meta({ id: 'WelchRecipe', description: "Welch's averaged, windowed periodogram." });
 
-export const RecipeSchema = z.discriminatedUnion('method', [WelchRecipeSchema]).meta({ id: 'Recipe' });
+export const MultitaperRecipeSchema = z
+  .strictObject({
+    method: z.literal('multitaper'),
+    timeBandwidth: z.number().min(0.5).max(50).default(4).describe('NW; the half-bandwidth is NW·fs/N Hz for an epoch of N samples'),
+    taperCount: z.number().int().min(1).max(200).nullable().default(null).describe('K; null means ⌊2·NW⌋ − 1'),
+    taperWeighting: z.enum(TAPER_WEIGHTINGS).default('adaptive').describe('equal, eigenvalue (λ_k) or adaptive (Thomson 1982) weights'),
+    ...common,
+  })
+  .meta({ id: 'MultitaperRecipe', description: 'Thomson multitaper estimate with DPSS (Slepian) tapers over each whole epoch.' });
+
+export const PeriodogramRecipeSchema = z
+  .strictObject({
+    method: z.literal('periodogram'),
+    window: z.enum(WINDOW_NAMES).default('rectangular').describe('data window over the whole epoch (periodic form)'),
+    tukeyRatio: z.number().min(0).max(1).optional().describe('taper fraction of the tukey window; default 0.5, only with window "tukey"'),
+    ...common,
+  })
+  .meta({ id: 'PeriodogramRecipe', description: 'The (modified) periodogram of each whole epoch.' });
+
+export const METHODS = ['welch', 'multitaper', 'periodogram'] as const;
+
+export const RecipeSchema = z.discriminatedUnion('method', [WelchRecipeSchema, MultitaperRecipeSchema, PeriodogramRecipeSchema]).meta({ id: 'Recipe' });
 
 export type RecipeInput = z.input<typeof RecipeSchema>;
 export type Recipe = z.output<typeof RecipeSchema>;
 export type WelchRecipe = z.output<typeof WelchRecipeSchema>;
+export type MultitaperRecipe = z.output<typeof MultitaperRecipeSchema>;
+export type PeriodogramRecipe = z.output<typeof PeriodogramRecipeSchema>;
+export type Features = z.output<typeof FeaturesSchema>;
 export type Band = z.output<typeof BandSchema>;
