@@ -57,8 +57,31 @@ export const BinaryUploadQuery = z.strictObject({
   epochCount: z.coerce.number().int().min(1).default(1),
   unit: z.string().min(1).max(32).optional(),
   nonFinite: z.enum(['reject', 'keep']).optional(),
-  format: z.enum(['float32']).optional().describe('binary layout; float32 little-endian [epoch][channel][sample]'),
+  format: z.literal('float32').optional().describe('binary layout; float32 little-endian [epoch][channel][sample]'),
 });
+
+/** Query of an EDF/EDF+ upload: optional selection of channels (by label) or of one sampling rate. */
+export const EdfUploadQuery = z.strictObject({
+  format: z.literal('edf'),
+  channels: z
+    .string()
+    .min(1)
+    .transform((s) => s.split(',').map((c) => c.trim()))
+    .optional()
+    .describe('comma-separated labels to keep; default all ordinary signals'),
+  samplingRate: z.coerce.number().positive().optional().describe('keep the signals of this rate (files with several rates)'),
+});
+
+export const UploadQueryDoc = z
+  .object({
+    format: z.enum(['float32', 'edf']).optional().describe('binary body: float32 (default) or an EDF/EDF+ file'),
+    samplingRate: z.coerce.number().positive().optional().describe('float32: Hz (required); edf: select the signals of this rate'),
+    channels: z.string().optional().describe('float32: comma-separated names (required); edf: labels to keep'),
+    epochCount: z.coerce.number().int().min(1).optional().describe('float32: epochs in the body, default 1'),
+    unit: z.string().optional().describe('float32: physical unit, default uV'),
+    nonFinite: z.enum(['reject', 'keep']).optional().describe('float32: NaN/±Inf samples refused (default) or kept as gaps'),
+  })
+  .describe('describes a binary (application/octet-stream) body');
 
 export const SignalInfoSchema = z
   .object({

@@ -197,19 +197,27 @@ export function edfToSignal(bytes: Uint8Array, options: EdfUploadOptions, limits
     samples: BODY,
   });
 
+  // Voltages are converted by shifting the decimal point of the physical extremes before calibration,
+  // so an EDF in mV and the same digital codes with the extremes written in µV decode to the same
+  // float64 samples bit for bit (scaling each calibrated sample would round differently).
+  const scaled = new Map(
+    chosen.map((s, c) => {
+      const exponent = Math.round(Math.log10(units[c]!.scale));
+      if (exponent === 0) return [s.index, s];
+      const physicalMinimum = shiftDecimal(s.physicalMinimum, exponent);
+      const physicalMaximum = shiftDecimal(s.physicalMaximum, exponent);
+      return [s.index, { ...s, physicalMinimum, physicalMaximum, gain: (physicalMaximum - physicalMinimum) / (s.digitalMaximum - s.digitalMinimum) }];
+    }),
+  );
+  const microvoltHeader = { ...header, signals: header.signals.map((s) => scaled.get(s.index) ?? s) };
   let decoded;
   try {
-    decoded = decodeEdfRecords(header, bytes, { channels: chosen.map((s) => s.index), annotations: false });
+    decoded = decodeEdfRecords(microvoltHeader, bytes, { channels: chosen.map((s) => s.index), annotations: false });
   } catch (error) {
     throw error instanceof EdfFormatError ? formatError(error) : error;
   }
   const data = new Float64Array(channels.length * samplesPerEpoch);
-  decoded.signals.forEach((s, c) => {
-    const { scale } = units[c]!;
-    const row = data.subarray(c * samplesPerEpoch, (c + 1) * samplesPerEpoch);
-    if (scale === 1) row.set(s.samples);
-    else for (let k = 0; k < samplesPerEpoch; k++) row[k] = s.samples[k]! * scale;
-  });
+  decoded.signals.forEach((s, c) => data.set(s.samples, c * samplesPerEpoch));
 
   const signal: Signal = {
     samplingRate: chosen[0]!.samplingRate,
@@ -224,4 +232,10 @@ export function edfToSignal(bytes: Uint8Array, options: EdfUploadOptions, limits
     signal.events = file.annotations.map((a): SignalEvent => ({ onset: a.onset - firstSample, duration: a.duration, label: a.label }));
   }
   return signal;
+}
+
+/** value·10^exponent computed on the decimal digits, exactly as if the field had been written in the new unit. */
+function shiftDecimal(value: number, exponent: number): number {
+  const [mantissa, power = '0'] = String(value).split('e');
+  return Number(`${mantissa}e${Number(power) + exponent}`);
 }

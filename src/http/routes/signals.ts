@@ -1,7 +1,8 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { decodeBinarySignal } from '../../signals/decode-binary.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
-import { BinaryUploadQuery, IdParams, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
+import { edfToSignal } from '../../signals/edf-to-signal.js';
+import { BinaryUploadQuery, EdfUploadQuery, IdParams, UploadQueryDoc, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
 import { getSignalMeta, storeSignal } from '../services.js';
 import { validationError, zodValidator } from '../validation.js';
 import type { AppDeps } from '../app.js';
@@ -16,10 +17,10 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
       schema: {
         summary: 'Upload a signal',
         description:
-          'JSON (`data`: channel × sample, or `epochs`: epoch × channel × sample) or a binary body (`application/octet-stream`: little-endian float32 laid out [epoch][channel][sample], described by the query). The id follows from the content hash: the same content gives the same id.',
+          'JSON (`data`: channel × sample, or `epochs`: epoch × channel × sample), a binary body (`application/octet-stream`: little-endian float32 laid out [epoch][channel][sample], described by the query), or an EDF/EDF+ file (`application/octet-stream` with `?format=edf`; voltages are stored in µV, EDF+ annotations become events). The id follows from the content hash: the same content gives the same id.',
         tags: ['signals'],
         body: SignalUploadSchema,
-        querystring: BinaryUploadQuery.partial().describe('describes a binary (application/octet-stream) body'),
+        querystring: UploadQueryDoc,
         response: {
           201: SignalInfoSchema.describe('stored (or already stored) signal'),
           400: problemResponse('malformed request'),
@@ -33,7 +34,11 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     async (request, reply) => {
       const limits = deps.config.signalLimits;
       let signal;
-      if (Buffer.isBuffer(request.body)) {
+      if (Buffer.isBuffer(request.body) && (request.query as { format?: string }).format === 'edf') {
+        const parsed = EdfUploadQuery.safeParse(request.query);
+        if (!parsed.success) throw validationError(parsed.error, 'querystring');
+        signal = edfToSignal(request.body, { ...(parsed.data.channels ? { channels: parsed.data.channels } : {}), ...(parsed.data.samplingRate ? { samplingRate: parsed.data.samplingRate } : {}) }, limits);
+      } else if (Buffer.isBuffer(request.body)) {
         const parsed = BinaryUploadQuery.safeParse(request.query);
         if (!parsed.success) throw validationError(parsed.error, 'querystring');
         signal = decodeBinarySignal(request.body, parsed.data, limits);
