@@ -1,0 +1,68 @@
+import { describe, expect, it } from 'vitest';
+import { RecipeInputError } from '../../src/recipes/errors.js';
+import { normalizeRecipe } from '../../src/recipes/normalize.js';
+import { resolveRecipe } from '../../src/recipes/resolve.js';
+
+describe('normalizeRecipe', () => {
+  it('should fill every default and give spelled-out defaults the same hash', () => {
+    const short = normalizeRecipe({ method: 'welch' });
+    const long = normalizeRecipe({ method: 'welch', window: 'hann', segmentSeconds: 2, overlap: 0.5, detrend: 'mean', average: 'mean', fftLength: null, perEpoch: false });
+    expect(long.hash).toBe(short.hash);
+    expect(short.id).toBe(`rcp_${short.hash.slice(0, 32)}`);
+    expect(short.recipe).toMatchObject({ schema: 'rhythmetric.recipe/1', window: 'hann', bands: [{ name: 'delta', low: 1, high: 4 }, {}, {}, {}, { name: 'gamma', low: 30, high: 45 }] });
+    expect(Object.isFrozen(short.recipe)).toBe(true);
+    expect(Object.isFrozen(short.recipe.bands[0])).toBe(true);
+  });
+
+  it('should not depend on the order of keys', () => {
+    expect(normalizeRecipe({ overlap: 0.25, method: 'welch', window: 'blackman' }).hash).toBe(normalizeRecipe({ window: 'blackman', method: 'welch', overlap: 0.25 }).hash);
+  });
+
+  it('should refuse a misspelt setting, naming it, instead of using a default', () => {
+    try {
+      normalizeRecipe({ method: 'welch', overlapp: 0.25 });
+      expect.unreachable();
+    } catch (error) {
+      expect(error).toBeInstanceOf(RecipeInputError);
+      expect((error as Error).message).toContain('"overlapp"');
+    }
+  });
+
+  it('should refuse a recipe of another format version', () => {
+    expect(() => normalizeRecipe({ method: 'welch', schema: 'rhythmetric.recipe/2' })).toThrow(RecipeInputError);
+  });
+
+  it('should refuse duplicate band names and a ratio of a missing band', () => {
+    expect(() => normalizeRecipe({ method: 'welch', bands: [{ name: 'a', low: 1, high: 2 }, { name: 'a', low: 2, high: 3 }] })).toThrow(/used twice/);
+    expect(() => normalizeRecipe({ method: 'welch', ratios: [{ numerator: 'alpha', denominator: 'mu' }] })).toThrow(/"mu" is not a band/);
+  });
+});
+
+describe('resolveRecipe', () => {
+  const { recipe, hash } = normalizeRecipe({ method: 'welch' });
+
+  it('should derive sample counts by the documented formulas', () => {
+    const r = resolveRecipe(recipe, hash, { samplingRate: 500, samplesPerEpoch: 5000 });
+    // segmentSamples = round(2 s · 500 Hz); overlapSamples = ⌊0.5 · 1000⌋; ⌊(5000 − 500) / 500⌋ segments.
+    expect(r.derived).toEqual({ segmentSamples: 1000, overlapSamples: 500, fftLength: 1000, frequencyResolution: 0.5, segmentsPerEpoch: 9, frequencyRange: [0, 250], nyquist: 250 });
+    expect(r.warnings).toEqual([]);
+  });
+
+  it('should warn when a segment is rounded and when samples are left over', () => {
+    const odd = normalizeRecipe({ method: 'welch', segmentSeconds: 0.3, bands: [{ name: 'x', low: 5, high: 20 }] });
+    const r = resolveRecipe(odd.recipe, odd.hash, { samplingRate: 256, samplesPerEpoch: 1000 });
+    expect(r.derived.segmentSamples).toBe(77);
+    expect(r.warnings.join('\n')).toMatch(/rounded to 77 samples/);
+    expect(r.warnings.join('\n')).toMatch(/do not fill a segment/);
+  });
+
+  it('should refuse an fftLength above the configured limit', () => {
+    const big = normalizeRecipe({ method: 'welch', fftLength: 4096 });
+    expect(() => resolveRecipe(big.recipe, big.hash, { samplingRate: 500, samplesPerEpoch: 5000 }, { maxFftLength: 2048 })).toThrow(/limit of 2048/);
+  });
+
+  it('should accept an fftLength that is not a power of two and use it as given', () => {
+    const r = normalizeRecipe({ method: 'welch', fftLength: 1001 });
+    expect(resolveRecipe(r.recipe, r.hash, { samplingRate: 500, samplesPerEpoch: 5000 }).derived.fftLength).toBe(1001);
+  });
+});
