@@ -12,16 +12,18 @@ export interface FeatureValues {
   centroid?: { range: [number, number]; frequency: number | null };
   spectralEdge?: { range: [number, number]; edges: { percentile: number; frequency: number | null }[] };
   entropy?: { range: [number, number]; value: number | null; bins: number };
-  aperiodic?: {
+  powerLaw?: {
     range: [number, number];
     robust: boolean;
-    /** log10 PSD at 1 Hz (log10 unit²/Hz) */
-    offset: number | null;
-    /** PSD ∝ f^−exponent */
-    exponent: number | null;
+    /** log10 of the fitted PSD at 1 Hz (log10 unit²/Hz) */
+    intercept: number | null;
+    /** d log10 PSD / d log10 f; −1 for a 1/f background */
+    slope: number | null;
     rSquared: number | null;
-    /** RMS residual, decades */
-    rmsError: number | null;
+    /** RMS of the log10 residuals (decades) */
+    residualRms: number | null;
+    /** fraction of bins the robust fit kept with weight > 0 */
+    inlierFraction: number | null;
     bins: number;
   };
   lineNoise?: { frequency: number; ratio: number | null; maxRatio: number | null; harmonics: { frequency: number; ratio: number | null; ratioDb: number | null }[] };
@@ -61,19 +63,20 @@ export function computeFeatures(frequencies: Float64Array, psd: Float64Array, fe
     values.entropy = { range, value: orNull(r.value), bins: r.binCount };
     note('entropy', r.warnings);
   }
-  if (features.aperiodic) {
-    const range: [number, number] = [...features.aperiodic.range];
-    const r = fitAperiodic(frequencies, psd, { range, robust: features.aperiodic.robust });
-    values.aperiodic = {
+  if (features.powerLaw) {
+    const range: [number, number] = [...features.powerLaw.range];
+    const r = fitAperiodic(frequencies, psd, { range, robust: features.powerLaw.robust });
+    values.powerLaw = {
       range,
-      robust: features.aperiodic.robust,
-      offset: orNull(r.offset),
-      exponent: orNull(r.exponent),
+      robust: features.powerLaw.robust,
+      intercept: orNull(r.offset),
+      slope: r.exponent === null ? null : orNull(-r.exponent),
       rSquared: orNull(r.rSquared),
-      rmsError: orNull(r.rmsError),
+      residualRms: orNull(r.rmsError),
+      inlierFraction: orNull(r.inlierFraction),
       bins: r.binCount,
     };
-    note('aperiodic', r.warnings);
+    note('powerLaw', r.warnings);
   }
   if (features.lineNoise) {
     const o = features.lineNoise;

@@ -52,13 +52,13 @@ function checkCrossFields(recipe: Recipe): void {
     ['/features/centroid/range', recipe.features.centroid?.range],
     ['/features/spectralEdge/range', recipe.features.spectralEdge?.range],
     ['/features/entropy/range', recipe.features.entropy?.range],
-    ['/features/aperiodic/range', recipe.features.aperiodic?.range],
+    ['/features/powerLaw/range', recipe.features.powerLaw?.range],
   ];
   for (const [pointer, range] of ranges) {
     if (range && range[0] >= range[1]) throw new RecipeInputError('invalid', `${pointer.slice(1)} must be [low, high] with low < high`, `${pointer}/1`);
   }
-  if (recipe.features.aperiodic && recipe.features.aperiodic.range[0] <= 0) {
-    throw new RecipeInputError('invalid', 'the aperiodic fit works on log10 f: its range must start above 0 Hz', '/features/aperiodic/range/0');
+  if (recipe.features.powerLaw && recipe.features.powerLaw.range[0] <= 0) {
+    throw new RecipeInputError('invalid', 'the power-law fit works on log10 f: its range must start above 0 Hz', '/features/powerLaw/range/0');
   }
   if (recipe.method === 'multitaper' && recipe.taperCount !== null && recipe.taperCount > 2 * recipe.timeBandwidth) {
     throw new RecipeInputError(

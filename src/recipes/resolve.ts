@@ -139,7 +139,7 @@ function checkFeatureRanges(recipe: Recipe, nyquist: number): void {
     ['centroid', f.centroid?.range],
     ['spectralEdge', f.spectralEdge?.range],
     ['entropy', f.entropy?.range],
-    ['aperiodic', f.aperiodic?.range],
+    ['powerLaw', f.powerLaw?.range],
   ];
   for (const [name, range] of ranges) {
     if (range && range[1] > nyquist) {

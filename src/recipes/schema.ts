@@ -46,13 +46,13 @@ export const FeaturesSchema = z
       .optional()
       .describe('frequencies below which the given percentages of the power in the range lie (trapezoid cumulative power, linear interpolation)'),
     entropy: z.strictObject({ range: OptionalRange }).optional().describe('Shannon entropy of the normalized PSD over the range, divided by ln(bins): 0…1'),
-    aperiodic: z
+    powerLaw: z
       .strictObject({
         range: Range.default([1, 40]).describe('fitting range, Hz'),
         robust: z.boolean().default(true).describe('down-weight peaks (iteratively reweighted, bisquare)'),
       })
       .optional()
-      .describe('log10 PSD = offset − exponent·log10 f over the range'),
+      .describe('the aperiodic (1/f) background: a line log10 PSD = intercept + slope·log10 f fitted over the range'),
     lineNoise: z
       .strictObject({
         frequency: z.union([z.literal(50), z.literal(60)]).default(50).describe('mains frequency, Hz'),

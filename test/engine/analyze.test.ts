@@ -82,7 +82,7 @@ describe('when features are named in the recipe', () => {
   const record = run(signal, {
     method: 'welch',
     segmentSeconds: 4,
-    features: { peakFrequency: {}, spectralEdge: { range: [1, 45] }, entropy: {}, centroid: { range: [5, 15] }, lineNoise: {}, aperiodic: { range: [2, 40] } },
+    features: { peakFrequency: {}, spectralEdge: { range: [1, 45] }, entropy: {}, centroid: { range: [5, 15] }, lineNoise: {}, powerLaw: { range: [2, 40] } },
   });
   const [o1, cz] = record.result.channels;
 
@@ -106,16 +106,17 @@ describe('when features are named in the recipe', () => {
     expect(o1!.features!.lineNoise!.ratio!).toBeLessThan(3);
   });
 
-  it('should report an aperiodic exponent near 0 for a white background', () => {
+  it('should report a power-law slope near 0 for a white background', () => {
     // White noise has PSD ∝ f⁰ (common practice); the robust fit down-weights the 10 Hz line.
-    expect(Math.abs(o1!.features!.aperiodic!.exponent!)).toBeLessThan(0.2);
+    expect(Math.abs(o1!.features!.powerLaw!.slope!)).toBeLessThan(0.2);
+    expect(o1!.features!.powerLaw!.inlierFraction!).toBeLessThan(1);
   });
 
   it('should give the same resultHash when run again', () => {
     const again = run(signal, {
       method: 'welch',
       segmentSeconds: 4,
-      features: { peakFrequency: {}, spectralEdge: { range: [1, 45] }, entropy: {}, centroid: { range: [5, 15] }, lineNoise: {}, aperiodic: { range: [2, 40] } },
+      features: { peakFrequency: {}, spectralEdge: { range: [1, 45] }, entropy: {}, centroid: { range: [5, 15] }, lineNoise: {}, powerLaw: { range: [2, 40] } },
     });
     expect(again.resultHash).toBe(record.resultHash);
   });
@@ -143,5 +144,31 @@ describe('when quality flags are asked for', () => {
       [3, 'quality'],
     ]);
     expect(record.result.estimate.epochsSkipped[0]!.detail).toContain('F3: flat');
+  });
+});
+
+describe('when the background is a power law of known exponent', () => {
+  it('should recover the slope −β exactly from a sum of on-bin sinusoids with amplitudes f^(−β/2)', () => {
+    // Each on-bin sinusoid of amplitude A puts A²/2 into one periodogram bin (common practice;
+    // REFERENCES.md §4), so the PSD is exactly ∝ f^−β at the bins: the fit must return −β.
+    const fs = 128;
+    const n = 512;
+    const beta = 1.5;
+    const random = createRandom(42);
+    const phases = Array.from({ length: n / 2 }, () => 2 * Math.PI * random.uniform());
+    const signal = build(fs, 1, ['Pz'], n, (_e, _c, i) => {
+      let v = 0;
+      for (let k = 1; k < n / 2; k++) {
+        const f = (k * fs) / n;
+        v += f ** (-beta / 2) * Math.cos((2 * Math.PI * k * i) / n + phases[k]!);
+      }
+      return v;
+    });
+    const record = run(signal, { method: 'periodogram', detrend: 'none', features: { powerLaw: { range: [2, 40] } }, bands: [{ name: 'x', low: 1, high: 40 }] });
+    const fit = record.result.channels[0]!.features!.powerLaw!;
+    expect(fit.slope!).toBeCloseTo(-beta, 9);
+    expect(fit.rSquared!).toBeCloseTo(1, 9);
+    // intercept: log10 of A²/(2Δf) at 1 Hz = log10(1 / (2 · 0.25)).
+    expect(fit.intercept!).toBeCloseTo(Math.log10(1 / (2 * (fs / n))), 9);
   });
 });
