@@ -3,10 +3,10 @@
  *
  * Convention (as numpy.fft): X_k = Σ_j x_j·e^{−2πi·jk/n}; the inverse is unscaled.
  *
- * Lengths whose prime factors are all ≤ MAX_DIRECT_RADIX (31) run a mixed-radix Stockham
+ * Lengths whose prime factors are all ≤ MAX_DIRECT_RADIX (61) run a mixed-radix Stockham
  * transform (radix 8, 4, 2, 3, 5 and a generic odd radix), which needs no bit reversal and keeps the
  * output in natural order. Other lengths use Bluestein's chirp-z algorithm on a power-of-two
- * Stockham transform. Twiddles are precomputed per stage from exact integer angles.
+ * (or 2^a·3^b·5^c) Stockham transform. Twiddles are precomputed per stage from exact integer angles.
  *
  * References: J. W. Cooley & J. W. Tukey (1965), Math. Comp. 19:297–301; T. G. Stockham (1966)
  * AFIPS 28:229–233 (autosort formulation); L. I. Bluestein (1970), IEEE Trans. Audio Electroacoust.
@@ -26,7 +26,7 @@ export interface ComplexFftPlan {
 }
 
 /** Prime factors up to this size are done as direct butterflies; larger ones go through Bluestein. */
-const MAX_DIRECT_RADIX = 31;
+const MAX_DIRECT_RADIX = 61;
 
 function checkSize(size: number): void {
   if (!Number.isInteger(size) || size < 1) {
@@ -391,7 +391,25 @@ function negate(a: Float64Array, n: number): void {
   for (let i = 0; i < n; i++) a[i] = -a[i]!;
 }
 
-/** Bluestein's chirp-z algorithm: a length-n DFT as a power-of-two circular convolution. */
+/**
+ * Convolution length for Bluestein: the power of two ≥ n, unless a 2^a·3^b·5^c length is enough
+ * shorter to pay for its slower radix-3/5 stages (measured about 1.4× the cost per point here).
+ */
+function convolutionLength(n: number): number {
+  let pow2 = 1;
+  while (pow2 < n) pow2 *= 2;
+  let smooth = pow2;
+  for (let p5 = 1; p5 < pow2; p5 *= 5) {
+    for (let p35 = p5; p35 < pow2; p35 *= 3) {
+      let m = p35;
+      while (m < n) m *= 2;
+      if (m < smooth) smooth = m;
+    }
+  }
+  return smooth * 1.4 < pow2 ? smooth : pow2;
+}
+
+/** Bluestein's chirp-z algorithm: a length-n DFT as a circular convolution of a fast length. */
 class BluesteinPlan implements ComplexFftPlan {
   readonly size: number;
   private readonly inner: ComplexFftPlan;
@@ -404,8 +422,7 @@ class BluesteinPlan implements ComplexFftPlan {
 
   constructor(size: number) {
     this.size = size;
-    let m = 1;
-    while (m < 2 * size - 1) m *= 2;
+    const m = convolutionLength(2 * size - 1);
     this.inner = complexFftPlan(m);
     this.chirpRe = new Float64Array(size);
     this.chirpIm = new Float64Array(size);

@@ -45,8 +45,10 @@ function maxDiff(aRe: Float64Array, aIm: Float64Array, bRe: Float64Array, bIm: F
   return worst;
 }
 
-const primes = [67, 97, 101, 127, 257, 509, 997, 1009];
+// primes above 61 go through Bluestein (2053 on a 2^a·3^b·5^c convolution length, the rest on powers of two)
+const primes = [67, 97, 101, 127, 257, 509, 997, 1009, 2053];
 const products = [210, 2310, 420, 1050, 3 * 5 * 7 * 11 * 2];
+// 31·32, 37·8, 41·25 and 59, 61 (above) exercise the generic odd radix
 const others = [250, 500, 768, 961, 1000, 1001, 1024, 1025, 2048, 4096, 31 * 32, 37 * 8, 41 * 25];
 const sizes = [...Array.from({ length: 64 }, (_, i) => i + 1), ...primes, ...products, ...others];
 
