@@ -6,13 +6,14 @@ export const DETREND_KINDS = ['none', 'mean', 'linear'] as const;
 export type DetrendKind = typeof DETREND_KINDS[number];
 
 /**
- * Least-squares line through x[0..n−1] on the centred abscissa t = i − (n−1)/2, where the two
- * normal equations decouple: mean = Σx/n and slope = Σt·x / Σt². Centring avoids the cancellation
- * of the raw-index form. Shared with the Welch inner loop so both detrend identically.
+ * Least-squares line through x[start..start+n) on the centred abscissa t = i − (n−1)/2, where the
+ * two normal equations decouple: mean = Σx/n and slope = Σt·x / Σt². Centring avoids the
+ * cancellation of the raw-index form. Writes [mean, slope] into `fit`, so the Welch inner loop
+ * shares it without allocating.
  *
  * @internal
  */
-export function lineFit(x: Float64Array, start: number, n: number): { mean: number; slope: number } {
+export function lineFit(x: Float64Array, start: number, n: number, fit: Float64Array): void {
   const centre = (n - 1) / 2;
   let sum = 0, moment = 0;
   for (let i = 0; i < n; i++) {
@@ -22,7 +23,8 @@ export function lineFit(x: Float64Array, start: number, n: number): { mean: numb
   }
   // Σ_{i<n} (i − (n−1)/2)² = n(n²−1)/12
   const spread = (n * (n * n - 1)) / 12;
-  return { mean: sum / n, slope: spread > 0 ? moment / spread : 0 };
+  fit[0] = sum / n;
+  fit[1] = spread > 0 ? moment / spread : 0;
 }
 
 /**
@@ -45,14 +47,17 @@ export function detrendInto(input: Float64Array, kind: DetrendKind, out: Float64
       if (out !== input) out.set(input);
       return out;
     case 'mean': {
-      if (n === 0) return out;
-      const { mean } = lineFit(input, 0, n);
+      let sum = 0;
+      for (let i = 0; i < n; i++) sum += input[i]!;
+      const mean = sum / n;
       for (let i = 0; i < n; i++) out[i] = input[i]! - mean;
       return out;
     }
     case 'linear': {
       if (n === 0) return out;
-      const { mean, slope } = lineFit(input, 0, n);
+      const fit = new Float64Array(2);
+      lineFit(input, 0, n, fit);
+      const mean = fit[0]!, slope = fit[1]!;
       const centre = (n - 1) / 2;
       for (let i = 0; i < n; i++) out[i] = input[i]! - mean - slope * (i - centre);
       return out;

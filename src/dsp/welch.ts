@@ -225,6 +225,7 @@ class WelchPlanImpl implements WelchPlan {
   private readonly im: Float64Array;
   private readonly power: Float64Array;
   private readonly starts: number[] = [];
+  private readonly fit = new Float64Array(2);
   private segmentPower = new Float64Array(0);
   private column = new Float64Array(0);
 
@@ -289,9 +290,7 @@ class WelchPlanImpl implements WelchPlan {
     const { re, im, power, starts } = this;
     power.fill(0);
     for (let s = 0; s < starts.length; s += 2) {
-      this.taper(x, starts[s]!, re);
-      if (s + 1 < starts.length) this.taper(x, starts[s + 1]!, im);
-      else im.fill(0);
+      this.taperPair(x, starts[s]!, s + 1 < starts.length ? starts[s + 1]! : -1);
       this.fft.transform(re, im);
       for (let k = 0; k < n; k++) power[k] = power[k]! + re[k]! * re[k]! + im[k]! * im[k]!;
     }
@@ -309,9 +308,7 @@ class WelchPlanImpl implements WelchPlan {
     const stored = this.segmentPower;
     for (let s = 0; s < count; s += 2) {
       const paired = s + 1 < count;
-      this.taper(x, starts[s]!, re);
-      if (paired) this.taper(x, starts[s + 1]!, im);
-      else im.fill(0);
+      this.taperPair(x, starts[s]!, paired ? starts[s + 1]! : -1);
       this.fft.transform(re, im);
       const rowA = s * bins;
       const rowB = rowA + bins;
@@ -331,29 +328,44 @@ class WelchPlanImpl implements WelchPlan {
     }
   }
 
-  /** Detrend and taper x[start..start+segmentSamples) into target, zero-padding to fftLength. */
-  private taper(x: Float64Array, start: number, target: Float64Array): void {
+  /**
+   * Detrend and taper segment a into `re` and segment b into `im` (zeros when b < 0), zero-padded to
+   * fftLength. Both segments share each loop, which halves the loop overhead of the hot path.
+   */
+  private taperPair(x: Float64Array, a: number, b: number): void {
     const len = this.segmentSamples;
-    const w = this.window;
-    switch (this.detrend) {
-      case 'none':
-        for (let j = 0; j < len; j++) target[j] = x[start + j]! * w[j]!;
-        break;
-      case 'mean': {
-        let sum = 0;
-        for (let j = 0; j < len; j++) sum += x[start + j]!;
-        const mean = sum / len;
-        for (let j = 0; j < len; j++) target[j] = (x[start + j]! - mean) * w[j]!;
-        break;
+    const { window: w, re, im } = this;
+    const single = b < 0;
+    const bb = single ? a : b;
+    let meanA = 0, meanB = 0, slopeA = 0, slopeB = 0;
+    if (this.detrend === 'mean') {
+      let sumA = 0, sumB = 0;
+      for (let j = 0; j < len; j++) { sumA += x[a + j]!; sumB += x[bb + j]!; }
+      meanA = sumA / len;
+      meanB = sumB / len;
+    } else if (this.detrend === 'linear') {
+      const fit = this.fit;
+      lineFit(x, a, len, fit);
+      meanA = fit[0]!; slopeA = fit[1]!;
+      lineFit(x, bb, len, fit);
+      meanB = fit[0]!; slopeB = fit[1]!;
+    }
+    if (slopeA === 0 && slopeB === 0) {
+      for (let j = 0; j < len; j++) {
+        const wj = w[j]!;
+        re[j] = (x[a + j]! - meanA) * wj;
+        im[j] = (x[bb + j]! - meanB) * wj;
       }
-      case 'linear': {
-        const { mean, slope } = lineFit(x, start, len);
-        const centre = (len - 1) / 2;
-        for (let j = 0; j < len; j++) target[j] = (x[start + j]! - mean - slope * (j - centre)) * w[j]!;
-        break;
+    } else {
+      const centre = (len - 1) / 2;
+      for (let j = 0; j < len; j++) {
+        const wj = w[j]!, t = j - centre;
+        re[j] = (x[a + j]! - meanA - slopeA * t) * wj;
+        im[j] = (x[bb + j]! - meanB - slopeB * t) * wj;
       }
     }
-    target.fill(0, len, this.fftLength);
+    re.fill(0, len, this.fftLength);
+    im.fill(0, single ? 0 : len, this.fftLength);
   }
 }
 
