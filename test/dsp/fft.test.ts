@@ -160,6 +160,19 @@ describe('complexFftPlan', () => {
       expect(complexFftPlan(360)).toBe(complexFftPlan(360));
       expect(complexFftPlan(360).size).toBe(360);
     });
+
+    it('should keep an evicted plan working once more than 64 other sizes were planned', () => {
+      const old = complexFftPlan(720);
+      for (let n = 3000; n < 3070; n++) complexFftPlan(n);
+      const fresh = complexFftPlan(720);
+      expect(fresh).not.toBe(old);
+      const a = { re: seeded(720, 1), im: seeded(720, 2) };
+      const b = { re: a.re.slice(), im: a.im.slice() };
+      old.transform(a.re, a.im);
+      fresh.transform(b.re, b.im);
+      expect(Array.from(a.re)).toEqual(Array.from(b.re));
+      expect(Array.from(a.im)).toEqual(Array.from(b.im));
+    });
   });
 });
 

@@ -103,6 +103,16 @@ describe('welch', () => {
       }
     });
 
+    it('should integrate to the variance exactly with a rectangular window and mean detrend', () => {
+      // removing the mean leaves Σ(x − x̄)²/N = the (population) variance, by the same identity
+      const x = normals(999, 8).map((v) => 5 + 3 * v);
+      const r = welch(x, options({ segmentSamples: 999, overlapSamples: 0, fftLength: 999, window: makeWindow('rectangular', 999), detrend: 'mean', samplingRate: 100 }));
+      let integral = 0;
+      for (const v of r.psd) integral += (v * 100) / 999;
+      expect(Math.abs(integral - variance(x)) / variance(x)).toBeLessThan(1e-12);
+      expect(r.psd[0]).toBeLessThan(1e-20 * variance(x)); // nothing left at DC
+    });
+
     it('should hold for any input, any odd or even length, with a rectangular window (fast-check)', () => {
       fc.assert(fc.property(
         fc.array(fc.double({ min: -1e3, max: 1e3, noNaN: true }), { minLength: 1, maxLength: 90 }),
