@@ -29,8 +29,9 @@ export interface WelchOptions {
   /** how segment periodograms are combined; median is divided by {@link medianBias} */
   average: AverageKind;
   /**
-   * Optional filter on segments, called with the segment's first sample index and one past its
-   * last; segments for which it returns false are skipped and counted as rejected. Default: all.
+   * Optional filter on segments, called in order with the segment's first sample index and one past
+   * its last; segments for which it returns false are skipped and counted as rejected.
+   * @defaultValue undefined: every segment is used
    */
   acceptSegment?: (start: number, end: number) => boolean;
 }
@@ -46,9 +47,13 @@ export interface WelchResult {
   rejectedSegments: number;
 }
 
+/** A reusable plan: caches window energy, FFT plan and scratch buffers. */
 export interface WelchPlan {
+  /** floor(fftLength/2) + 1 */
   readonly binCount: number;
+  /** bin frequencies in Hz (shared; do not modify) */
   readonly frequencies: Float64Array;
+  /** PSD of x (unit²/Hz) into `out` when given (length ≥ binCount), else a new array; allocates nothing else once warm */
   compute(x: Float64Array, out?: Float64Array): { psd: Float64Array; segmentCount: number; rejectedSegments: number };
 }
 
@@ -172,9 +177,10 @@ function validate(options: WelchOptions): void {
   }
 }
 
-/** k-th smallest of a[0..n−1] (0-based), reordering a; Hoare's selection with median-of-three. */
-function select(a: Float64Array, n: number, k: number): number {
-  let lo = 0, hi = n - 1;
+/** k-th smallest of a[base..base+n) (k counted from base), reordering that range; Hoare's selection with median-of-three. */
+function select(a: Float64Array, base: number, n: number, k: number): number {
+  let lo = base, hi = base + n - 1;
+  const target = base + k;
   while (hi > lo) {
     const mid = (lo + hi) >> 1;
     // order a[lo] ≤ a[mid] ≤ a[hi] so the pivot is never an extreme
@@ -188,24 +194,24 @@ function select(a: Float64Array, n: number, k: number): number {
       while (a[j]! > pivot) j--;
       if (i <= j) { swap(a, i, j); i++; j--; }
     }
-    if (k <= j) hi = j;
-    else if (k >= i) lo = i;
-    else return a[k]!;
+    if (target <= j) hi = j;
+    else if (target >= i) lo = i;
+    else return a[target]!;
   }
-  return a[k]!;
+  return a[target]!;
 }
 
 function swap(a: Float64Array, i: number, j: number): void {
   const t = a[i]!; a[i] = a[j]!; a[j] = t;
 }
 
-/** Median as numpy.median: the mean of the two middle values for an even count. */
-function median(a: Float64Array, n: number): number {
-  const upper = select(a, n, n >> 1);
+/** Median of a[base..base+n) as numpy.median (mean of the two middle values for even n); reorders the range. */
+function median(a: Float64Array, base: number, n: number): number {
+  const upper = select(a, base, n, n >> 1);
   if (n % 2 === 1) return upper;
-  // after selection every element below n/2 is ≤ upper; the lower middle is their maximum
-  let lower = a[0]!;
-  for (let i = 1; i < n >> 1; i++) if (a[i]! > lower) lower = a[i]!;
+  // after selection every element before the middle is ≤ upper; the lower middle is their maximum
+  let lower = a[base]!;
+  for (let i = base + 1; i < base + (n >> 1); i++) if (a[i]! > lower) lower = a[i]!;
   return 0.5 * (lower + upper);
 }
 
@@ -227,7 +233,6 @@ class WelchPlanImpl implements WelchPlan {
   private readonly starts: number[] = [];
   private readonly fit = new Float64Array(2);
   private segmentPower = new Float64Array(0);
-  private column = new Float64Array(0);
 
   constructor(options: WelchOptions) {
     validate(options);
@@ -304,28 +309,23 @@ class WelchPlanImpl implements WelchPlan {
     const { re, im, starts } = this;
     const count = starts.length;
     if (this.segmentPower.length < count * bins) this.segmentPower = new Float64Array(count * bins);
-    if (this.column.length < count) this.column = new Float64Array(count);
+    // bin-major, so each bin's values are contiguous for the selection
     const stored = this.segmentPower;
     for (let s = 0; s < count; s += 2) {
       const paired = s + 1 < count;
       this.taperPair(x, starts[s]!, paired ? starts[s + 1]! : -1);
       this.fft.transform(re, im);
-      const rowA = s * bins;
-      const rowB = rowA + bins;
       for (let k = 0; k < bins; k++) {
         const m = k === 0 ? 0 : n - k;
         const zr = re[k]!, zi = im[k]!, yr = re[m]!, yi = im[m]!;
         // A_k = (Z_k + conj Z_{n−k})/2, B_k = (Z_k − conj Z_{n−k})/(2i)
         const ar = zr + yr, ai = zi - yi, br = zr - yr, bi = zi + yi;
-        stored[rowA + k] = 0.25 * (ar * ar + ai * ai);
-        if (paired) stored[rowB + k] = 0.25 * (br * br + bi * bi);
+        const at = k * count + s;
+        stored[at] = 0.25 * (ar * ar + ai * ai);
+        if (paired) stored[at + 1] = 0.25 * (br * br + bi * bi);
       }
     }
-    const column = this.column;
-    for (let k = 0; k < bins; k++) {
-      for (let s = 0; s < count; s++) column[s] = stored[s * bins + k]!;
-      psd[k] = median(column, count);
-    }
+    for (let k = 0; k < bins; k++) psd[k] = median(stored, k * count, count);
   }
 
   /**
