@@ -1,9 +1,10 @@
 #!/usr/bin/python3
 """scipy reference timing for bench/welch.ts: scipy.signal.welch called once per channel.
 
-Usage: scipy-welch.py DATA CHANNELS SAMPLES FS SEGMENT OVERLAP REPEATS FFTLENGTH [FFTLENGTH ...]
-DATA holds CHANNELS x SAMPLES little-endian float64, channel-major. Prints one JSON object:
-{"scipy": version, "numpy": version, "runs": [{"fftLength", "seconds" (best of REPEATS), "psd0" (list)}]}.
+Usage: scipy-welch.py DATA CHANNELS SAMPLES FS SEGMENT OVERLAP REPEATS RUN [RUN ...]
+RUN is FFTLENGTH:AVERAGE (e.g. 1024:mean). DATA holds CHANNELS x SAMPLES little-endian float64,
+channel-major. Prints one JSON object: {"scipy": version, "numpy": version,
+"runs": [{"fftLength", "average", "seconds" (best of REPEATS), "psd0" (channel 0, list)}]}.
 """
 import json
 import sys
@@ -26,17 +27,19 @@ def main():
     x = np.fromfile(path, dtype='<f8').reshape(channels, samples)
     window = signal.get_window('hann', segment, fftbins=True)
     runs = []
-    for nfft in map(int, sys.argv[8:]):
+    for run in sys.argv[8:]:
+        nfft, average = run.split(':')
+        nfft = int(nfft)
         best = float('inf')
         for _ in range(repeats):
             start = time.perf_counter()
             for c in range(channels):
                 f, p = signal.welch(x[c], fs=fs, window=window, nperseg=segment, noverlap=overlap, nfft=nfft,
-                                    detrend='constant', scaling='density', average='mean')
+                                    detrend='constant', scaling='density', average=average)
                 if c == 0:
                     psd0 = p
             best = min(best, time.perf_counter() - start)
-        runs.append({'fftLength': nfft, 'seconds': best, 'psd0': psd0.tolist()})
+        runs.append({'fftLength': nfft, 'average': average, 'seconds': best, 'psd0': psd0.tolist()})
     print(json.dumps({'scipy': scipy.__version__, 'numpy': np.__version__, 'runs': runs}))
 
 
