@@ -1,5 +1,6 @@
 import { availableParallelism } from 'node:os';
 import { deepFreeze } from './common/freeze.js';
+import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { z } from 'zod';
 import type { RecipeLimits } from './recipes/resolve.js';
@@ -29,6 +30,16 @@ const EnvSchema = z.object({
   MAX_SAMPLES: int(64 * 1024 * 1024),
   MAX_SAMPLING_RATE: int(100_000),
   MAX_FFT_LENGTH: int(1 << 20),
+  MAX_STORE_BYTES: int(0, 0),
+  API_KEYS: z.string().optional(),
+  API_KEYS_FILE: z.string().min(1).optional(),
+  ALLOW_OPEN_MODE: z.enum(['true', 'false', '1', '0']).default('false'),
+  RATE_LIMIT_PER_MINUTE: int(600, 0),
+  CORS_ORIGINS: z.string().optional(),
+  WORKER_LOCK_MS: int(30_000, 1000),
+  WORKER_MAX_STALLED: int(2, 0),
+  RETENTION_DAYS: z.coerce.number().min(0).default(0),
+  SWEEP_INTERVAL_SECONDS: int(3600),
 });
 
 export interface Config {
@@ -45,6 +56,45 @@ export interface Config {
   bodyLimitBytes: number;
   signalLimits: SignalLimits;
   recipeLimits: RecipeLimits;
+  /** bytes of samples the store may hold; 0 = no limit */
+  maxStoreBytes: number;
+  /** API keys as `tenant:role:sha256hex[:label]` entries; empty = open mode */
+  apiKeys: ApiKeyEntry[];
+  allowOpenMode: boolean;
+  /** requests per minute per key (or per address in open mode); 0 = no limit */
+  rateLimitPerMinute: number;
+  corsOrigins: string[];
+  workerLockMs: number;
+  workerMaxStalled: number;
+  /** days after which signals, jobs and records are swept; 0 = kept */
+  retentionDays: number;
+  sweepIntervalSeconds: number;
+}
+
+export const ROLES = ['read', 'submit', 'admin'] as const;
+export type Role = (typeof ROLES)[number];
+
+export interface ApiKeyEntry {
+  tenant: string;
+  role: Role;
+  /** SHA-256 of the key, lowercase hex: the key itself is never configured or stored */
+  sha256: string;
+  label: string;
+}
+
+/** Parses `tenant:role:sha256hex[:label]` entries separated by commas or new lines. */
+export function parseApiKeys(text: string, source: string): ApiKeyEntry[] {
+  return text
+    .split(/[,\n]/)
+    .map((line) => line.trim())
+    .filter((line) => line !== '' && !line.startsWith('#'))
+    .map((line, i) => {
+      const [tenant = '', role = '', sha256 = '', label] = line.split(':');
+      if (!/^[A-Za-z0-9_-]{1,64}$/.test(tenant)) throw new ConfigError(`${source} entry ${i + 1}: tenant "${tenant}" must be 1–64 letters, digits, _ or -`);
+      if (!(ROLES as readonly string[]).includes(role)) throw new ConfigError(`${source} entry ${i + 1}: role "${role}" must be one of ${ROLES.join(', ')}`);
+      if (!/^[0-9a-f]{64}$/.test(sha256)) throw new ConfigError(`${source} entry ${i + 1}: give the SHA-256 of the key as 64 lowercase hex digits, never the key itself`);
+      return { tenant, role: role as Role, sha256, label: label ?? `${tenant}-${role}-${i + 1}` };
+    });
 }
 
 export class ConfigError extends Error {
@@ -76,6 +126,31 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
     signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE },
     recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH },
+    maxStoreBytes: e.MAX_STORE_BYTES,
+    apiKeys: [
+      ...(e.API_KEYS ? parseApiKeys(e.API_KEYS, 'environment variable API_KEYS') : []),
+      ...(e.API_KEYS_FILE ? parseApiKeys(readKeysFile(e.API_KEYS_FILE), `API_KEYS_FILE ${e.API_KEYS_FILE}`) : []),
+    ],
+    allowOpenMode: e.ALLOW_OPEN_MODE === 'true' || e.ALLOW_OPEN_MODE === '1',
+    rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE,
+    corsOrigins: e.CORS_ORIGINS ? e.CORS_ORIGINS.split(',').map((o) => o.trim()).filter(Boolean) : [],
+    workerLockMs: e.WORKER_LOCK_MS,
+    workerMaxStalled: e.WORKER_MAX_STALLED,
+    retentionDays: e.RETENTION_DAYS,
+    sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
   };
   return deepFreeze(config);
+}
+
+function readKeysFile(path: string): string {
+  try {
+    return readFileSync(path, 'utf8');
+  } catch (error) {
+    throw new ConfigError(`environment variable API_KEYS_FILE=${JSON.stringify(path)}: cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+  }
+}
+
+/** Hosts that only this machine can reach. */
+export function isLoopbackHost(host: string): boolean {
+  return host === 'localhost' || host === '::1' || /^127\.\d+\.\d+\.\d+$/.test(host);
 }

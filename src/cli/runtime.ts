@@ -1,5 +1,5 @@
 import { pino, type Logger } from 'pino';
-import type { Config } from '../config.js';
+import { ConfigError, isLoopbackHost, type Config } from '../config.js';
 import { buildApp } from '../http/app.js';
 import { BullQueue } from '../jobs/bullmq-queue.js';
 import { startBullWorker } from '../jobs/bullmq-worker.js';
@@ -18,6 +18,16 @@ export function createLogger(config: Pick<Config, 'logLevel'>, destination?: Nod
  * REDIS_URL, distributed (BullMQ; workers run elsewhere) with it.
  */
 export async function startApi(config: Readonly<Config>, logger: Logger = createLogger(config)) {
+  if (config.apiKeys.length === 0) {
+    if (!isLoopbackHost(config.host) && !config.allowOpenMode) {
+      throw new ConfigError(
+        `no API keys are configured (open mode) and HOST=${config.host} is reachable from other machines; configure API_KEYS or API_KEYS_FILE, or set ALLOW_OPEN_MODE=true to serve without authentication anyway`,
+      );
+    }
+    logger.warn({ host: config.host }, 'OPEN MODE: no API keys are configured, so every caller can read, submit and delete; configure API_KEYS before exposing this service');
+  } else {
+    logger.info({ keys: config.apiKeys.length, tenants: [...new Set(config.apiKeys.map((k) => k.tenant))].length }, 'API keys loaded');
+  }
   const store = createStore(config.store);
   let pool: ComputePool | null = null;
   let queue: JobQueue;
@@ -59,6 +69,8 @@ export function startWorker(config: Readonly<Config>, logger: Logger = createLog
     queueName: config.queueName,
     store: config.store,
     pool,
+    lockDurationMs: config.workerLockMs,
+    maxStalledCount: config.workerMaxStalled,
     onEvent: (event, detail) => (event === 'error' || event === 'stalled' ? logger.warn(detail, `worker ${event}`) : logger.info(detail, `job ${event}`)),
   });
   return {

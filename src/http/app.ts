@@ -8,6 +8,11 @@ import { ENGINE_VERSION } from '../engine/version.js';
 import type { JobQueue } from '../jobs/queue.js';
 import type { Store } from '../stores/store.js';
 import { errorHandler, notFoundHandler } from './error-handler.js';
+import cors from '@fastify/cors';
+import rateLimit from '@fastify/rate-limit';
+import { registerAuth } from './auth.js';
+import { createMetrics, type Metrics } from './metrics.js';
+import { eventRoutes } from './routes/events.js';
 import { jobRoutes } from './routes/jobs.js';
 import { metaRoutes } from './routes/meta.js';
 import { recipeRoutes } from './routes/recipes.js';
@@ -18,6 +23,8 @@ export interface AppDeps {
   store: Store;
   queue: JobQueue;
   logger: Logger;
+  /** set by buildApp */
+  metrics?: Metrics;
 }
 
 const REQUEST_ID = /^[A-Za-z0-9._:-]{1,128}$/;
@@ -26,6 +33,8 @@ export const API_DESCRIPTION = [
   'rhythmetric computes spectral features of EEG and other electrophysiology signals: upload a signal, pin a recipe, submit a job, fetch a versioned feature record.',
   '',
   '**Research software, not a medical device.** It is not intended for diagnosis or treatment; any clinical use follows local regulations and licensed practice.',
+  '',
+  'Authentication: `Authorization: Bearer <key>`; keys have the role `read` (records, job state), `submit` (uploads, jobs) or `admin` (deletion, every tenant\'s jobs). Without configured keys the service runs in an announced open mode.',
   '',
   'Errors are RFC 9457 `application/problem+json` with a stable `type`, a `detail` in words and a JSON `pointer` to the offending input.',
 ].join('\n');
@@ -47,7 +56,35 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   app.addHook('onSend', async (request, reply) => {
     reply.header('x-request-id', request.id);
     reply.header('x-content-type-options', 'nosniff');
+    reply.header('x-frame-options', 'DENY');
+    reply.header('referrer-policy', 'no-referrer');
+    reply.header('content-security-policy', "default-src 'none'; frame-ancestors 'none'");
+    reply.header('cross-origin-resource-policy', 'same-site');
+    if (!reply.hasHeader('cache-control')) reply.header('cache-control', 'no-store');
   });
+  if (deps.config.corsOrigins.length > 0) {
+    await app.register(cors, {
+      origin: deps.config.corsOrigins.includes('*') ? true : deps.config.corsOrigins,
+      methods: ['GET', 'POST', 'PUT', 'DELETE'],
+      allowedHeaders: ['authorization', 'content-type', 'x-request-id'],
+      exposedHeaders: ['x-request-id', 'location', 'retry-after'],
+      maxAge: 600,
+    });
+  }
+  registerAuth(app, deps.config.apiKeys);
+  if (deps.config.rateLimitPerMinute > 0) {
+    await app.register(rateLimit, {
+      max: deps.config.rateLimitPerMinute,
+      timeWindow: 60_000,
+      // Per key when keys are configured, per address in open mode; health probes are not limited.
+      keyGenerator: (request) => (request.principal && request.principal.key !== 'open-mode' ? `key:${request.principal.key}` : `ip:${request.ip}`),
+      allowList: (request) => request.url === '/healthz' || request.url === '/readyz',
+      errorResponseBuilder: (_request, context) =>
+        Object.assign(new Error(`more than ${context.max} requests in ${context.after}; retry later`), { statusCode: 429, headers: { 'retry-after': String(Math.ceil(context.ttl / 1000)) } }),
+    });
+  }
+  deps.metrics = createMetrics(app, deps.queue, deps.store);
+  app.addHook('onClose', async () => deps.metrics?.close());
   await app.register(swagger, {
     openapi: {
       openapi: '3.1.0',
@@ -66,6 +103,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(signalRoutes(deps));
   await app.register(recipeRoutes(deps));
   await app.register(jobRoutes(deps));
+  await app.register(eventRoutes(deps));
   await app.ready();
   return app;
 }

@@ -13,6 +13,10 @@ const inertQueue: JobQueue = {
   get: async () => null,
   cancel: async () => null,
   waitFor: () => Promise.reject(new Error('inert')),
+  list: async () => [],
+  onFinished: () => () => {},
+  remove: async () => false,
+  counts: async () => ({ queued: 0, running: 0, succeeded: 0, failed: 0, canceled: 0 }),
   ready: async () => false,
   close: async () => {},
 };

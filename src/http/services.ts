@@ -8,14 +8,21 @@ import type { SignalMeta, Store } from '../stores/store.js';
 import { ProblemError } from './problem.js';
 
 /** Stores a decoded signal under its content hash; storing the same content again is a no-op. */
-export async function storeSignal(store: Store, signal: Signal): Promise<SignalMeta> {
+export async function storeSignal(store: Store, signal: Signal, tenant: string, maxStoreBytes = 0): Promise<SignalMeta> {
   const sha256 = signalSha256(signal);
-  const id = signalIdFromHash(sha256);
+  const id = signalIdFromHash(sha256, tenant);
   const existing = await store.getSignalMeta(id);
   if (existing) return existing;
+  if (maxStoreBytes > 0) {
+    const { bytes } = await store.usage();
+    if (bytes + signal.data.byteLength > maxStoreBytes) {
+      throw new ProblemError('storage-full', `storing ${signal.data.byteLength} bytes would exceed this server's limit of ${maxStoreBytes} bytes (${bytes} in use); nothing was stored`);
+    }
+  }
   const meta: SignalMeta = {
     id,
     sha256,
+    tenant,
     samplingRate: signal.samplingRate,
     channels: signal.channels,
     unit: signal.unit,
@@ -30,9 +37,10 @@ export async function storeSignal(store: Store, signal: Signal): Promise<SignalM
   return meta;
 }
 
-export async function getSignalMeta(store: Store, id: string, pointer: string | null = null): Promise<SignalMeta> {
+export async function getSignalMeta(store: Store, id: string, tenant: string, pointer: string | null = null): Promise<SignalMeta> {
   const meta = /^sig_[0-9a-f]{32}$/.test(id) ? await store.getSignalMeta(id) : null;
-  if (!meta) throw new ProblemError('signal-not-found', `no signal with id "${id}" is stored`, pointer);
+  // Another tenant's signal answers exactly like a missing one.
+  if (!meta || (meta.tenant ?? 'public') !== tenant) throw new ProblemError('signal-not-found', `no signal with id "${id}" is stored`, pointer);
   return meta;
 }
 
@@ -62,9 +70,9 @@ export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe):
       '/recipe/nonFinite',
     );
   }
-  const recordKey = recordKeyOf(meta.sha256, pinned.hash);
+  const recordKey = recordKeyOf(meta.tenant, meta.sha256, pinned.hash);
   return {
     jobId: jobIdOf(recordKey),
-    spec: { signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey },
+    spec: { tenant: meta.tenant, signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey },
   };
 }

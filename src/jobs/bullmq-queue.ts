@@ -1,4 +1,4 @@
-import { Queue, type Job } from 'bullmq';
+import { Queue, QueueEvents, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
 import { PROBLEMS, problemType } from '../common/errors.js';
 import type { JobOutcome } from './run-job.js';
@@ -33,6 +33,9 @@ export class BullQueue implements JobQueue {
   readonly mode = 'distributed' as const;
   readonly queue: Queue;
   private readonly connection: Redis;
+  private events: QueueEvents | null = null;
+  private eventsConnection: Redis | null = null;
+  private readonly finishedListeners = new Set<(job: JobView, spec: JobSpec) => void>();
 
   constructor(private readonly options: BullQueueOptions) {
     this.connection = new Redis(options.url, { maxRetriesPerRequest: 1 });
@@ -111,6 +114,55 @@ export class BullQueue implements JobQueue {
     return this.view(job);
   }
 
+  async list(filter: { tenant: string | null; signal?: string; limit: number }): Promise<JobView[]> {
+    this.ensureUp();
+    // Scans at most 10 000 recent jobs; enough for a lab's dashboard, bounded for Redis.
+    const jobs = await this.queue.getJobs(['active', 'waiting', 'delayed', 'prioritized', 'completed', 'failed'], 0, 9999);
+    const views = await Promise.all(
+      jobs
+        .filter((j) => {
+          const spec = j.data as JobSpec;
+          return (filter.tenant === null || spec.tenant === filter.tenant) && (filter.signal === undefined || spec.signalId === filter.signal);
+        })
+        .map((j) => this.view(j)),
+    );
+    return views.sort((a, b) => (a.createdAt < b.createdAt ? 1 : a.createdAt > b.createdAt ? -1 : a.id < b.id ? 1 : -1)).slice(0, filter.limit);
+  }
+
+  async remove(jobId: string): Promise<boolean> {
+    this.ensureUp();
+    const job = await this.queue.getJob(jobId);
+    if (!job) return (await this.connection.del(this.tombstoneKey(jobId))) > 0;
+    if ((await job.getState()) === 'active') await this.cancel(jobId);
+    await job.remove().catch(() => undefined);
+    await this.connection.del(this.tombstoneKey(jobId));
+    return true;
+  }
+
+  onFinished(listener: (job: JobView, spec: JobSpec) => void): () => void {
+    if (!this.events) {
+      this.eventsConnection = new Redis(this.options.url, { maxRetriesPerRequest: null });
+      this.eventsConnection.on('error', () => {});
+      this.events = new QueueEvents(this.options.queueName, { connection: this.eventsConnection, prefix: this.options.prefix });
+      this.events.on('error', () => {});
+      const notify = async (jobId: string) => {
+        const job = await this.queue.getJob(jobId).catch(() => undefined);
+        if (!job) return;
+        const view = await this.view(job);
+        for (const l of this.finishedListeners) l(view, job.data as JobSpec);
+      };
+      this.events.on('completed', ({ jobId }) => void notify(jobId));
+      this.events.on('failed', ({ jobId }) => void notify(jobId));
+    }
+    this.finishedListeners.add(listener);
+    return () => this.finishedListeners.delete(listener);
+  }
+
+  async counts(): Promise<Record<JobState, number>> {
+    const c = await this.queue.getJobCounts('waiting', 'delayed', 'prioritized', 'active', 'completed', 'failed');
+    return { queued: (c.waiting ?? 0) + (c.delayed ?? 0) + (c.prioritized ?? 0), running: c.active ?? 0, succeeded: c.completed ?? 0, failed: c.failed ?? 0, canceled: 0 };
+  }
+
   waitFor(jobId: string, timeoutMs: number): Promise<JobView> {
     return waitForJob(this, jobId, timeoutMs);
   }
@@ -124,6 +176,8 @@ export class BullQueue implements JobQueue {
   }
 
   async close(): Promise<void> {
+    await this.events?.close().catch(() => undefined);
+    this.eventsConnection?.disconnect();
     await this.queue.close().catch(() => undefined);
     await this.connection.quit().catch(() => this.connection.disconnect());
   }

@@ -2,7 +2,7 @@ import { PROBLEMS, problemType } from '../common/errors.js';
 import type { Store, StoreConfig } from '../stores/store.js';
 import type { ComputePool } from './compute-pool.js';
 import type { JobQueue } from './queue.js';
-import { isFinished, newJobView, type JobSpec, type JobView } from './spec.js';
+import { isFinished, newJobView, type JobSpec, type JobState, type JobView } from './spec.js';
 import { waitForJob } from './wait.js';
 
 interface Entry {
@@ -33,6 +33,7 @@ export class EmbeddedQueue implements JobQueue {
   private running = 0;
   private closed = false;
   private readonly concurrency: number;
+  private readonly finishedListeners = new Set<(job: JobView, spec: JobSpec) => void>();
   private readonly maxAttempts: number;
 
   private constructor(private readonly options: EmbeddedQueueOptions) {
@@ -92,6 +93,35 @@ export class EmbeddedQueue implements JobQueue {
       await waitForJob(this, jobId, 10_000).catch(() => undefined);
     }
     return { ...entry.view };
+  }
+
+  async list(filter: { tenant: string | null; signal?: string; limit: number }): Promise<JobView[]> {
+    return [...this.entries.values()]
+      .map((e) => e.view)
+      .filter((v) => (filter.tenant === null || v.tenant === filter.tenant) && (filter.signal === undefined || v.signal === filter.signal))
+      .sort((a, b) => (a.createdAt < b.createdAt ? 1 : a.createdAt > b.createdAt ? -1 : a.id < b.id ? 1 : -1))
+      .slice(0, filter.limit)
+      .map((v) => ({ ...v }));
+  }
+
+  async remove(jobId: string): Promise<boolean> {
+    const entry = this.entries.get(jobId);
+    if (!entry) return false;
+    if (!isFinished(entry.view.state)) await this.cancel(jobId);
+    this.entries.delete(jobId);
+    await this.options.store.deleteDocument('jobs', jobId);
+    return true;
+  }
+
+  onFinished(listener: (job: JobView, spec: JobSpec) => void): () => void {
+    this.finishedListeners.add(listener);
+    return () => this.finishedListeners.delete(listener);
+  }
+
+  async counts(): Promise<Record<JobState, number>> {
+    const counts: Record<JobState, number> = { queued: 0, running: 0, succeeded: 0, failed: 0, canceled: 0 };
+    for (const { view } of this.entries.values()) counts[view.state]++;
+    return counts;
   }
 
   waitFor(jobId: string, timeoutMs: number): Promise<JobView> {
@@ -167,6 +197,7 @@ export class EmbeddedQueue implements JobQueue {
     entry.view.state = state;
     entry.view.finishedAt = new Date().toISOString();
     await this.persist(entry);
+    for (const listener of this.finishedListeners) listener({ ...entry.view }, entry.spec);
   }
 
   private persist(entry: Entry): Promise<void> {

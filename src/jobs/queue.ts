@@ -1,4 +1,4 @@
-import type { JobSpec, JobView } from './spec.js';
+import type { JobSpec, JobState, JobView } from './spec.js';
 
 /**
  * The port every queue adapter implements; one conformance suite runs against each
@@ -13,6 +13,14 @@ export interface JobQueue {
   cancel(jobId: string): Promise<JobView | null>;
   /** Resolves when the job reaches a finished state (for tests and the CLI). */
   waitFor(jobId: string, timeoutMs: number): Promise<JobView>;
+  /** Jobs newest first; `tenant: null` lists every tenant's (admin). */
+  list(filter: { tenant: string | null; signal?: string; limit: number }): Promise<JobView[]>;
+  /** Cancels the job if it runs, then forgets it; false when unknown. */
+  remove(jobId: string): Promise<boolean>;
+  /** Jobs per state, for metrics. */
+  counts(): Promise<Record<JobState, number>>;
+  /** Calls `listener` whenever a job reaches a finished state (metrics); returns the unsubscribe. */
+  onFinished(listener: (job: JobView, spec: JobSpec) => void): () => void;
   ready(): Promise<boolean>;
   close(): Promise<void>;
 }

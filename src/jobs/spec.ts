@@ -7,6 +7,7 @@ export type JobState = (typeof JOB_STATES)[number];
 
 /** Everything a worker needs; small enough to travel through Redis. The samples stay in the store. */
 export interface JobSpec {
+  tenant: string;
   signalId: string;
   sha256: string;
   recipeId: string;
@@ -26,6 +27,7 @@ export interface JobProblem {
 
 export interface JobView {
   id: string;
+  tenant: string;
   state: JobState;
   /** 0..1 */
   progress: number;
@@ -40,12 +42,15 @@ export interface JobView {
   problem: JobProblem | null;
 }
 
-/** A record is stored under (signal hash, recipe hash, engine version): equal inputs can only write equal bytes. */
-export function recordKeyOf(sha256: string, recipeHash: string, engineVersion = ENGINE_VERSION): string {
-  return `${sha256}.${recipeHash}.${engineVersion}`;
+/**
+ * A record is stored under (tenant, signal hash, recipe hash, engine version): equal inputs can only
+ * write equal bytes, and one tenant deleting its data never removes another tenant's record.
+ */
+export function recordKeyOf(tenant: string, sha256: string, recipeHash: string, engineVersion = ENGINE_VERSION): string {
+  return `${tenant}.${sha256}.${recipeHash}.${engineVersion}`;
 }
 
-/** Job ids follow from the record key, so an identical submission finds the existing job. */
+/** Job ids follow from the record key (which names the tenant), so an identical submission finds the existing job. */
 export function jobIdOf(recordKey: string): string {
   return `job_${sha256Hex(recordKey).slice(0, 32)}`;
 }
@@ -54,6 +59,7 @@ export function jobIdOf(recordKey: string): string {
 export function newJobView(id: string, spec: JobSpec, createdAt: string): JobView {
   return {
     id,
+    tenant: spec.tenant,
     state: 'queued',
     progress: 0,
     signal: spec.signalId,

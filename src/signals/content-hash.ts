@@ -35,6 +35,11 @@ export function signalSha256(signal: Signal): string {
   return createHash('sha256').update(canonicalJson(signalHeader(signal))).update('\n').update(sampleBytes(signal.data)).digest('hex');
 }
 
-export function signalIdFromHash(sha256: string): string {
-  return `sig_${sha256.slice(0, 32)}`;
+/**
+ * Signal ids follow from the content hash and the owning tenant: the same upload by the same tenant
+ * gives the same id, and another tenant's id for the same content is different (and answers 404).
+ */
+export function signalIdFromHash(sha256: string, tenant = 'public'): string {
+  const basis = tenant === 'public' ? sha256 : createHash('sha256').update(`${tenant}\n${sha256}`).digest('hex');
+  return `sig_${basis.slice(0, 32)}`;
 }

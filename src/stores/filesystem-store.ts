@@ -11,6 +11,7 @@ import { checkKey, signalFromParts, type Collection, type SignalMeta, type Store
 export class FilesystemStore implements Store {
   readonly kind = 'filesystem' as const;
   private ready: Promise<void> | null = null;
+  private usageCache: Promise<{ signals: number; bytes: number }> | null = null;
 
   constructor(readonly dataDir: string) {}
 
@@ -44,6 +45,46 @@ export class FilesystemStore implements Store {
     if (await this.getSignalMeta(id)) return;
     await this.writeAtomic(join(this.dataDir, 'signals', `${id}.f64`), samples);
     await this.writeAtomic(join(this.dataDir, 'signals', `${id}.json`), JSON.stringify(meta));
+    await this.adjustUsage(1, meta.bytes);
+  }
+
+  async listSignals(): Promise<string[]> {
+    await this.init();
+    return (await readdir(join(this.dataDir, 'signals'))).filter((n) => n.endsWith('.json')).map((n) => n.slice(0, -5)).sort();
+  }
+
+  async deleteSignal(id: string): Promise<boolean> {
+    const meta = await this.getSignalMeta(id);
+    if (!meta) return false;
+    // Meta first: once it is gone the signal no longer exists for readers, whatever happens next.
+    await rm(join(this.dataDir, 'signals', `${checkKey(id)}.json`), { force: true });
+    await rm(join(this.dataDir, 'signals', `${id}.f64`), { force: true });
+    await this.adjustUsage(-1, -meta.bytes);
+    return true;
+  }
+
+  async deleteDocument(collection: Collection, key: string): Promise<boolean> {
+    const path = join(this.dataDir, collection, `${checkKey(key)}.json`);
+    const existed = (await this.readOrNull(path)) !== null;
+    await rm(path, { force: true });
+    return existed;
+  }
+
+  /** Scanned once, then kept up to date by this process's writes and deletes. */
+  usage(): Promise<{ signals: number; bytes: number }> {
+    this.usageCache ??= (async () => {
+      let bytes = 0;
+      const ids = await this.listSignals();
+      for (const id of ids) bytes += (await this.getSignalMeta(id))?.bytes ?? 0;
+      return { signals: ids.length, bytes };
+    })();
+    return this.usageCache.then((u) => ({ ...u }));
+  }
+
+  private async adjustUsage(signals: number, bytes: number): Promise<void> {
+    if (!this.usageCache) return;
+    const current = await this.usageCache;
+    this.usageCache = Promise.resolve({ signals: current.signals + signals, bytes: current.bytes + bytes });
   }
 
   async getSignalMeta(id: string): Promise<SignalMeta | null> {

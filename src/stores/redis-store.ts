@@ -29,7 +29,46 @@ export class RedisStore implements Store {
       .multi()
       .set(this.key('signal', id, 'samples'), Buffer.from(samples.buffer, samples.byteOffset, samples.byteLength))
       .set(this.key('signal', id, 'meta'), JSON.stringify(meta))
+      .incrby(this.key('usage', 'bytes'), meta.bytes)
+      .incr(this.key('usage', 'signals'))
       .exec();
+  }
+
+  async listSignals(): Promise<string[]> {
+    const start = this.key('signal', '').length;
+    return (await this.scanKeys(this.key('signal', '*', 'meta'))).map((k) => k.slice(start, -':meta'.length)).sort();
+  }
+
+  async deleteSignal(id: string): Promise<boolean> {
+    const meta = await this.getSignalMeta(id);
+    if (!meta) return false;
+    const [[, removed]] = (await this.redis
+      .multi()
+      .del(this.key('signal', id, 'meta'), this.key('signal', id, 'samples'))
+      .decrby(this.key('usage', 'bytes'), meta.bytes)
+      .decr(this.key('usage', 'signals'))
+      .exec()) as [[unknown, number]];
+    return removed > 0;
+  }
+
+  async deleteDocument(collection: Collection, key: string): Promise<boolean> {
+    return (await this.redis.del(this.key(collection, checkKey(key)))) > 0;
+  }
+
+  async usage(): Promise<{ signals: number; bytes: number }> {
+    const [bytes, signals] = await this.redis.mget(this.key('usage', 'bytes'), this.key('usage', 'signals'));
+    return { signals: Number(signals ?? 0), bytes: Number(bytes ?? 0) };
+  }
+
+  private async scanKeys(pattern: string): Promise<string[]> {
+    const found: string[] = [];
+    let cursor = '0';
+    do {
+      const [next, keys] = await this.redis.scan(cursor, 'MATCH', pattern, 'COUNT', 500);
+      cursor = next;
+      found.push(...keys);
+    } while (cursor !== '0');
+    return found;
   }
 
   async getSignalMeta(id: string): Promise<SignalMeta | null> {
@@ -57,15 +96,8 @@ export class RedisStore implements Store {
   }
 
   async listDocuments(collection: Collection): Promise<string[]> {
-    const found: string[] = [];
-    let cursor = '0';
     const start = this.key(collection, '').length;
-    do {
-      const [next, keys] = await this.redis.scan(cursor, 'MATCH', this.key(collection, '*'), 'COUNT', 500);
-      cursor = next;
-      for (const k of keys) found.push(k.slice(start));
-    } while (cursor !== '0');
-    return found.sort();
+    return (await this.scanKeys(this.key(collection, '*'))).map((k) => k.slice(start)).sort();
   }
 
   async ping(): Promise<boolean> {

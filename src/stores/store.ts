@@ -4,6 +4,8 @@ import type { Signal, SignalDescription, SignalEvent } from '../signals/signal.j
 export interface SignalMeta extends SignalDescription {
   id: string;
   sha256: string;
+  /** the tenant that uploaded it; only that tenant's keys can see or use it */
+  tenant: string;
   nonFiniteSamples: number;
   events: SignalEvent[];
   /** bytes of float64 samples */
@@ -26,6 +28,12 @@ export interface Store {
   putDocument(collection: Collection, key: string, text: string): Promise<void>;
   getDocument(collection: Collection, key: string): Promise<string | null>;
   listDocuments(collection: Collection): Promise<string[]>;
+  listSignals(): Promise<string[]>;
+  /** Removes a signal (samples and meta); false when it was not there. */
+  deleteSignal(id: string): Promise<boolean>;
+  deleteDocument(collection: Collection, key: string): Promise<boolean>;
+  /** stored signals and their sample bytes */
+  usage(): Promise<{ signals: number; bytes: number }>;
   ping(): Promise<boolean>;
   close(): Promise<void>;
 }

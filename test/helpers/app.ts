@@ -36,10 +36,11 @@ export async function startTestApi(env: Record<string, string> = {}) {
 }
 
 /** Polls a job through the API until it finishes. */
-export async function pollJob(app: Awaited<ReturnType<typeof startTestApi>>['app'], id: string, timeoutMs = 20_000) {
+export async function pollJob(app: Awaited<ReturnType<typeof startTestApi>>['app'], id: string, timeoutMs = 20_000, headers: Record<string, string> = {}) {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
-    const res = await app.inject({ method: 'GET', url: `/v1/jobs/${id}` });
+    const res = await app.inject({ method: 'GET', url: `/v1/jobs/${id}`, headers });
+    if (res.statusCode !== 200) throw new Error(`GET /v1/jobs/${id} answered ${res.statusCode}: ${res.body}`);
     const job = res.json() as { state: string };
     if (['succeeded', 'failed', 'canceled'].includes(job.state)) return job as Record<string, unknown> & { state: string };
     if (Date.now() > deadline) throw new Error(`job ${id} still ${job.state}`);

@@ -32,10 +32,10 @@ function noise(channels: number, samples: number, seed: number, epochs = 1): Sig
 }
 
 async function specFor(store: Store, signal: Signal, recipe: unknown): Promise<{ spec: JobSpec; id: string }> {
-  const meta = await storeSignal(store, signal);
+  const meta = await storeSignal(store, signal, 'public');
   const pinned = normalizeRecipe(recipe);
-  const recordKey = recordKeyOf(meta.sha256, pinned.hash);
-  return { id: jobIdOf(recordKey), spec: { signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey } };
+  const recordKey = recordKeyOf('public', meta.sha256, pinned.hash);
+  return { id: jobIdOf(recordKey), spec: { tenant: 'public', signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey } };
 }
 
 const adapters: [string, boolean, () => Promise<Harness>][] = [
@@ -147,12 +147,12 @@ describe.each(adapters)('queue adapter %s', (name, enabled, create) => {
   });
 
   it.skipIf(!enabled)('should cancel a running job', async () => {
-    const big = await specFor(h.store, noise(64, 120_000, 21), { method: 'welch', fftLength: 997 });
+    const big = await specFor(h.store, noise(64, 120_000, 21), { method: 'welch', fftLength: 1009 });
     await h.queue.submit(big.spec, big.id);
     const deadline = Date.now() + 10_000;
     while ((await h.queue.get(big.id))?.state !== 'running' && Date.now() < deadline) await new Promise((r) => setTimeout(r, 5));
     const canceled = await h.queue.cancel(big.id);
-    expect(canceled?.state).toBe('canceled');
+    expect(canceled?.state, JSON.stringify(canceled?.problem)).toBe('canceled');
     expect(await h.store.getDocument('records', big.spec.recordKey)).toBeNull();
   });
 

@@ -9,6 +9,8 @@ import { ProblemError } from '../problem.js';
 import { FeatureRecordSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse } from '../schemas.js';
 import { getRecipe, getSignalMeta, pinRecipe, planJob, storeSignal } from '../services.js';
 import { zodValidator } from '../validation.js';
+import { tenantOf } from '../auth.js';
+import { z } from 'zod';
 
 /** Decodes an inline signal, with pointers relative to the whole job body. */
 function decodeInline(signal: unknown, limits: SignalLimits): Signal {
@@ -20,6 +22,12 @@ function decodeInline(signal: unknown, limits: SignalLimits): Signal {
   }
 }
 
+/** A queue fault becomes 503 with Retry-After, never a 500 that hides a transient outage. */
+function unavailable(error: unknown, what = 'try again shortly'): ProblemError {
+  const reason = error instanceof Error ? error.message : String(error);
+  return new ProblemError('queue-unavailable', `the job queue cannot be reached (${reason}); ${what}`, null, { 'retry-after': '5' });
+}
+
 function present(job: JobView) {
   const { recordKey: _key, ...rest } = job;
   return { ...rest, links: { self: `/v1/jobs/${job.id}`, record: `/v1/jobs/${job.id}/record` } };
@@ -28,16 +36,24 @@ function present(job: JobView) {
 export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
   const { store, queue, config } = deps;
 
-  async function requireJob(id: string): Promise<JobView> {
-    const job = /^job_[0-9a-f]{32}$/.test(id) ? await queue.get(id) : null;
-    if (!job) throw new ProblemError('job-not-found', `no job with id "${id}"`);
+  async function requireJob(id: string, tenant: string): Promise<JobView> {
+    let job: JobView | null = null;
+    if (/^job_[0-9a-f]{32}$/.test(id)) {
+      try {
+        job = await queue.get(id);
+      } catch (error) {
+        throw unavailable(error);
+      }
+    }
+    // Another tenant's job answers exactly like a missing one.
+    if (!job || job.tenant !== tenant) throw new ProblemError('job-not-found', `no job with id "${id}"`);
     return job;
   }
 
   app.post(
     '/v1/jobs',
     {
-      config: { recipePointer: '/recipe' },
+      config: { recipePointer: '/recipe', access: 'submit' },
       schema: {
         summary: 'Submit an analysis',
         description:
@@ -58,7 +74,11 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     },
     async (request, reply) => {
       const body = request.body as { signal: unknown; recipe: unknown };
-      const meta = typeof body.signal === 'string' ? await getSignalMeta(store, body.signal, '/signal') : await storeSignal(store, decodeInline(body.signal, config.signalLimits));
+      const tenant = tenantOf(request);
+      const meta =
+        typeof body.signal === 'string'
+          ? await getSignalMeta(store, body.signal, tenant, '/signal')
+          : await storeSignal(store, decodeInline(body.signal, config.signalLimits), tenant, config.maxStoreBytes);
       const pinned = typeof body.recipe === 'string' ? await getRecipe(store, body.recipe, '/recipe') : await pinRecipe(store, body.recipe);
       const { jobId, spec } = planJob(config, meta, pinned);
       let submitted;
@@ -66,8 +86,9 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
         submitted = await queue.submit(spec, jobId);
       } catch (error) {
         request.log.warn({ err: error, jobId }, 'queue unavailable');
-        throw new ProblemError('queue-unavailable', 'the job queue cannot be reached; nothing was queued', null, { 'retry-after': '5' });
+        throw unavailable(error, 'nothing was queued');
       }
+      deps.metrics?.jobSubmitted(spec.recipe.method, submitted.created);
       request.log.info({ jobId, created: submitted.created, signalId: meta.id, recipeId: pinned.id }, 'job submitted');
       const status = !submitted.created && submitted.job.state === 'succeeded' ? 200 : 202;
       return reply.code(status).header('location', `/v1/jobs/${jobId}`).send(present(submitted.job));
@@ -79,12 +100,39 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     {
       schema: { summary: 'Job state and progress', tags: ['jobs'], params: IdParams, response: { 200: JobViewSchema, 404: problemResponse('unknown job') } },
     },
-    async (request) => present(await requireJob(request.params.id)),
+    async (request) => present(await requireJob(request.params.id, tenantOf(request))),
+  );
+
+  app.get(
+    '/v1/jobs',
+    {
+      schema: {
+        summary: "List jobs, newest first (the caller's tenant; admin keys may ask for every tenant)",
+        tags: ['jobs'],
+        querystring: z.strictObject({
+          limit: z.coerce.number().int().min(1).max(1000).default(100),
+          signal: z.string().optional().describe('only jobs on this signal'),
+          tenant: z.literal('all').optional().describe('admin only: every tenant'),
+        }),
+        response: { 200: z.object({ jobs: z.array(JobViewSchema) }), 403: problemResponse('tenant=all needs an admin key') },
+      },
+    },
+    async (request) => {
+      const all = request.query.tenant === 'all';
+      if (all && request.principal?.role !== 'admin') throw new ProblemError('forbidden', 'listing every tenant\'s jobs needs an admin key');
+      try {
+        const jobs = await queue.list({ tenant: all ? null : tenantOf(request), limit: request.query.limit, ...(request.query.signal ? { signal: request.query.signal } : {}) });
+        return { jobs: jobs.map(present) };
+      } catch (error) {
+        throw unavailable(error);
+      }
+    },
   );
 
   app.delete(
     '/v1/jobs/:id',
     {
+      config: { access: 'submit' },
       schema: {
         summary: 'Cancel a job that has not finished',
         tags: ['jobs'],
@@ -93,7 +141,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       },
     },
     async (request) => {
-      const job = await requireJob(request.params.id);
+      const job = await requireJob(request.params.id, tenantOf(request));
       if (job.state === 'succeeded' || job.state === 'failed') {
         throw new ProblemError('job-finished', `job ${job.id} already ${job.state}; only queued or running jobs can be canceled`);
       }
@@ -114,7 +162,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
     },
     async (request, reply) => {
-      const job = await requireJob(request.params.id);
+      const job = await requireJob(request.params.id, tenantOf(request));
       if (job.state !== 'succeeded') {
         throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}${job.problem ? `: ${job.problem.detail}` : ''}; the record exists once it has succeeded`);
       }

@@ -9,7 +9,7 @@ import { problemResponse } from '../schemas.js';
 const Health = z.object({ status: z.enum(['ok', 'unavailable']), engineVersion: z.string(), mode: z.enum(['embedded', 'distributed']), checks: z.record(z.string(), z.boolean()).optional() });
 
 export const metaRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
-  app.get('/healthz', { schema: { summary: 'The process is alive', tags: ['operations'], response: { 200: Health } } }, async () => ({
+  app.get('/healthz', { config: { access: 'public' }, schema: { summary: 'The process is alive', tags: ['operations'], response: { 200: Health } } }, async () => ({
     status: 'ok' as const,
     engineVersion: ENGINE_VERSION,
     mode: deps.queue.mode,
@@ -17,7 +17,7 @@ export const metaRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
 
   app.get(
     '/readyz',
-    { schema: { summary: 'The store and the queue answer', tags: ['operations'], response: { 200: Health, 503: Health } } },
+    { config: { access: 'public' }, schema: { summary: 'The store and the queue answer', tags: ['operations'], response: { 200: Health, 503: Health } } },
     async (_request, reply) => {
       const [store, queue] = await Promise.all([deps.store.ping().catch(() => false), deps.queue.ready().catch(() => false)]);
       const ok = store && queue;
@@ -25,11 +25,21 @@ export const metaRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
     },
   );
 
-  app.get('/openapi.json', { schema: { hide: true } }, async (_request, reply) => reply.type('application/json').send(app.swagger()));
+  app.get(
+    '/metrics',
+    { schema: { summary: 'Prometheus metrics (text exposition format)', tags: ['operations'] } },
+    async (_request, reply) => {
+      const registry = deps.metrics!.registry;
+      return reply.type(registry.contentType).send(await registry.metrics());
+    },
+  );
+
+  app.get('/openapi.json', { config: { access: 'public' }, schema: { hide: true } }, async (_request, reply) => reply.type('application/json').send(app.swagger()));
 
   app.get(
     '/problems/:code',
     {
+      config: { access: 'public' },
       schema: {
         summary: 'Documentation of a problem type',
         tags: ['operations'],

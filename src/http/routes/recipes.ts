@@ -17,6 +17,7 @@ export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
         body: RecipeSchema,
         response: { 201: PinnedRecipeSchema, 400: problemResponse('malformed request'), 422: problemResponse('invalid recipe (pointer names the field)') },
       },
+      config: { access: 'submit' },
       // The recipe is parsed by normalizeRecipe, which names misspelt settings and contradictions.
       validatorCompiler: zodValidator({ body: z.unknown() }),
     },

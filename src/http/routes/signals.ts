@@ -5,6 +5,8 @@ import { edfToSignal } from '../../signals/edf-to-signal.js';
 import { BinaryUploadQuery, EdfUploadQuery, IdParams, UploadQueryDoc, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
 import { getSignalMeta, storeSignal } from '../services.js';
 import { validationError, zodValidator } from '../validation.js';
+import { tenantOf } from '../auth.js';
+import { z } from 'zod';
 import type { AppDeps } from '../app.js';
 
 export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
@@ -13,7 +15,7 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
   app.post(
     '/v1/signals',
     {
-      config: { bodyProblem: 'invalid-signal' },
+      config: { bodyProblem: 'invalid-signal', access: 'submit' },
       schema: {
         summary: 'Upload a signal',
         description:
@@ -45,7 +47,7 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
       } else {
         signal = decodeJsonSignal(request.body as Parameters<typeof decodeJsonSignal>[0], limits);
       }
-      const meta = await storeSignal(deps.store, signal);
+      const meta = await storeSignal(deps.store, signal, tenantOf(request), deps.config.maxStoreBytes);
       request.log.info({ signalId: meta.id, bytes: meta.bytes }, 'signal stored');
       return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
     },
@@ -61,7 +63,31 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
         response: { 200: SignalInfoSchema, 404: problemResponse('unknown signal') },
       },
     },
-    async (request) => getSignalMeta(deps.store, request.params.id),
+    async (request) => getSignalMeta(deps.store, request.params.id, tenantOf(request)),
+  );
+
+  app.delete(
+    '/v1/signals/:id',
+    {
+      config: { access: 'admin' },
+      schema: {
+        summary: 'Delete a signal, the jobs that use it and their records',
+        tags: ['signals'],
+        params: IdParams,
+        response: { 200: z.object({ id: z.string(), deleted: z.literal(true), jobsDeleted: z.number().int() }), 404: problemResponse('unknown signal') },
+      },
+    },
+    async (request) => {
+      const meta = await getSignalMeta(deps.store, request.params.id, tenantOf(request));
+      const jobs = await deps.queue.list({ tenant: meta.tenant, signal: meta.id, limit: 100_000 });
+      for (const job of jobs) {
+        await deps.queue.remove(job.id);
+        await deps.store.deleteDocument('records', job.recordKey);
+      }
+      await deps.store.deleteSignal(meta.id);
+      request.log.info({ signalId: meta.id, jobsDeleted: jobs.length }, 'signal deleted');
+      return { id: meta.id, deleted: true as const, jobsDeleted: jobs.length };
+    },
   );
 };
 
