@@ -38,6 +38,7 @@ const EnvSchema = z.object({
   CORS_ORIGINS: z.string().optional(),
   WORKER_LOCK_MS: int(30_000, 1000),
   WORKER_MAX_STALLED: int(2, 0),
+  REQUEST_TIMEOUT_MS: int(120_000, 0),
   RETENTION_DAYS: z.coerce.number().min(0).default(0),
   SWEEP_INTERVAL_SECONDS: int(3600),
 });
@@ -66,6 +67,8 @@ export interface Config {
   corsOrigins: string[];
   workerLockMs: number;
   workerMaxStalled: number;
+  /** ms a request (headers and body) may take; 0 = no limit */
+  requestTimeoutMs: number;
   /** days after which signals, jobs and records are swept; 0 = kept */
   retentionDays: number;
   sweepIntervalSeconds: number;
@@ -136,6 +139,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     corsOrigins: e.CORS_ORIGINS ? e.CORS_ORIGINS.split(',').map((o) => o.trim()).filter(Boolean) : [],
     workerLockMs: e.WORKER_LOCK_MS,
     workerMaxStalled: e.WORKER_MAX_STALLED,
+    requestTimeoutMs: e.REQUEST_TIMEOUT_MS,
     retentionDays: e.RETENTION_DAYS,
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
   };

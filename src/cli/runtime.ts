@@ -6,6 +6,7 @@ import { startBullWorker } from '../jobs/bullmq-worker.js';
 import { createComputePool, type ComputePool } from '../jobs/compute-pool.js';
 import { EmbeddedQueue } from '../jobs/embedded-queue.js';
 import type { JobQueue } from '../jobs/queue.js';
+import { sweepExpired } from '../jobs/retention.js';
 import { createStore } from '../stores/create-store.js';
 
 export function createLogger(config: Pick<Config, 'logLevel'>, destination?: NodeJS.WritableStream): Logger {
@@ -45,12 +46,23 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
       onError: (error, jobId) => logger.error({ err: error, jobId }, 'job attempt failed'),
     });
   }
-  const app = await buildApp({ config, store, queue, logger });
+  const app = await buildApp({ config, store, queue, logger, ...(pool ? { poolReady: () => pool!.threads > 0 } : {}) });
+  let sweeper: NodeJS.Timeout | null = null;
+  if (config.retentionDays > 0) {
+    const sweep = () =>
+      sweepExpired(store, queue, config.retentionDays * 86_400_000).then(
+        (removed) => logger.info({ removed, retentionDays: config.retentionDays }, 'retention sweep'),
+        (error: unknown) => logger.warn({ err: error }, 'retention sweep failed'),
+      );
+    sweeper = setInterval(sweep, config.sweepIntervalSeconds * 1000);
+    sweeper.unref();
+  }
   return {
     app,
     queue,
     store,
     async close() {
+      if (sweeper) clearInterval(sweeper);
       await app.close();
       await queue.close();
       await pool?.close();

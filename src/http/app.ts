@@ -25,6 +25,8 @@ export interface AppDeps {
   logger: Logger;
   /** set by buildApp */
   metrics?: Metrics;
+  /** embedded mode: whether the worker-thread pool can take work */
+  poolReady?: () => boolean;
 }
 
 const REQUEST_ID = /^[A-Za-z0-9._:-]{1,128}$/;
@@ -44,6 +46,8 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   const app = Fastify({
     loggerInstance: deps.logger as unknown as FastifyBaseLogger,
     bodyLimit: deps.config.bodyLimitBytes,
+    // A client that trickles its body is cut off instead of holding a connection for ever.
+    requestTimeout: deps.config.requestTimeoutMs,
     genReqId: (request) => {
       const given = request.headers['x-request-id'];
       return typeof given === 'string' && REQUEST_ID.test(given) ? given : randomUUID();

@@ -59,3 +59,22 @@ describe('when the store has a size limit', () => {
     }
   });
 });
+
+describe('when data outlives the retention period', () => {
+  it('should sweep finished jobs, their records and old signals, and keep what is newer', async () => {
+    const { sweepExpired } = await import('../../src/jobs/retention.js');
+    const local = await startTestApi();
+    try {
+      const job = (await local.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal, recipe: { method: 'welch', segmentSeconds: 1 } } })).json();
+      await pollJob(local.app, job.id);
+      expect(await sweepExpired(local.store, local.queue, 3_600_000)).toEqual({ jobs: 0, records: 0, signals: 0 });
+      // An hour later with a retention of one minute, everything above is expired.
+      const removed = await sweepExpired(local.store, local.queue, 60_000, Date.now() + 3_600_000);
+      expect(removed).toEqual({ jobs: 1, records: 1, signals: 1 });
+      expect((await local.app.inject({ method: 'GET', url: `/v1/jobs/${job.id}` })).statusCode).toBe(404);
+      expect(await local.store.listDocuments('records')).toEqual([]);
+    } finally {
+      await local.stop();
+    }
+  });
+});

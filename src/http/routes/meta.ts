@@ -20,8 +20,11 @@ export const metaRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
     { config: { access: 'public' }, schema: { summary: 'The store and the queue answer', tags: ['operations'], response: { 200: Health, 503: Health } } },
     async (_request, reply) => {
       const [store, queue] = await Promise.all([deps.store.ping().catch(() => false), deps.queue.ready().catch(() => false)]);
-      const ok = store && queue;
-      return reply.code(ok ? 200 : 503).send({ status: ok ? 'ok' : 'unavailable', engineVersion: ENGINE_VERSION, mode: deps.queue.mode, checks: { store, queue } });
+      const checks: Record<string, boolean> = { store, queue };
+      if (deps.poolReady) checks.workerPool = deps.poolReady();
+      const ok = Object.values(checks).every(Boolean);
+      if (!ok) reply.header('retry-after', '5');
+      return reply.code(ok ? 200 : 503).send({ status: ok ? 'ok' : 'unavailable', engineVersion: ENGINE_VERSION, mode: deps.queue.mode, checks });
     },
   );
 
