@@ -13,6 +13,7 @@ import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
+import { createRandom } from '../src/common/random.js';
 import { createWelchPlan } from '../src/dsp/welch.js';
 import { makeWindow } from '../src/dsp/windows.js';
 
@@ -29,22 +30,15 @@ const RUNS = [
 const REPEATS = 3;
 const PYTHON = '/usr/bin/python3';
 
-/** Seeded synthetic recording: white noise (xorshift32 + Box–Muller), a 10 Hz rhythm and 50 Hz hum. */
+/** Seeded synthetic recording: white noise, a 10 Hz rhythm of channel-dependent size and 50 Hz hum. */
 function syntheticRecording(): Float64Array {
   const data = new Float64Array(CHANNELS * SAMPLES);
-  let state = 0x2545f491;
-  const uniform = (): number => {
-    state ^= state << 13; state >>>= 0;
-    state ^= state >>> 17;
-    state ^= state << 5; state >>>= 0;
-    return (state + 0.5) / 4294967296;
-  };
+  const random = createRandom(0x2545f491);
   for (let c = 0; c < CHANNELS; c++) {
     const alpha = 5 + (c % 8);
     for (let i = 0; i < SAMPLES; i++) {
       const t = i / SAMPLING_RATE;
-      const noise = Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
-      data[c * SAMPLES + i] = 10 * noise + alpha * Math.sin(2 * Math.PI * 10 * t + c) + 2 * Math.sin(2 * Math.PI * 50 * t);
+      data[c * SAMPLES + i] = 10 * random.normal() + alpha * Math.sin(2 * Math.PI * 10 * t + c) + 2 * Math.sin(2 * Math.PI * 50 * t);
     }
   }
   return data;

@@ -1,6 +1,7 @@
 import FFT from 'fft.js';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { createRandom } from '../../src/common/random.js';
 import { complexFftPlan, realFftPlan } from '../../src/dsp/fft.js';
 
 /** O(N²) DFT written here as the reference; j·k is reduced mod N first so the angles stay exact. */
@@ -20,17 +21,10 @@ function naiveDft(re: Float64Array, im: Float64Array, sign = -1): { re: Float64A
   return { re: outRe, im: outIm };
 }
 
-/** seeded uniform values in [−1, 1) (xorshift32), so failures reproduce */
+/** seeded uniform values in [−1, 1) from the project's generator, so failures reproduce */
 function seeded(n: number, seed: number): Float64Array {
-  let state = seed >>> 0 || 1;
-  const out = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    state ^= state << 13; state >>>= 0;
-    state ^= state >>> 17;
-    state ^= state << 5; state >>>= 0;
-    out[i] = state / 2147483648 - 1;
-  }
-  return out;
+  const random = createRandom(seed);
+  return new Float64Array(n).map(() => 2 * random.uniform() - 1);
 }
 
 function l1(re: Float64Array, im: Float64Array): number {

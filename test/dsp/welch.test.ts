@@ -11,6 +11,7 @@ import {
 } from '../../src/dsp/welch.js';
 import { makeWindow, windowFigures, type WindowName } from '../../src/dsp/windows.js';
 import type { DetrendKind } from '../../src/dsp/detrend.js';
+import { createRandom } from '../../src/common/random.js';
 import { float32s, float64s, readWelchFixture, worstRelativeError } from '../fixtures/welch/fixture.js';
 
 interface WelchCase {
@@ -21,18 +22,10 @@ interface WelchCase {
 const fixture = readWelchFixture<{ provenance: { scipy: string }; cases: WelchCase[] }>('./welch-cases.json');
 const biasFixture = readWelchFixture<{ values: { count: number; bias: number }[] }>('./median-bias.json');
 
-/** seeded xorshift-style generator with Box–Muller normals, so tests never depend on Math.random */
+/** seeded standard normals from the project's generator, so tests never depend on Math.random */
 function normals(n: number, seed: number): Float64Array {
-  let state = seed >>> 0 || 1;
-  const uniform = (): number => {
-    state ^= state << 13; state >>>= 0;
-    state ^= state >>> 17;
-    state ^= state << 5; state >>>= 0;
-    return (state + 0.5) / 4294967296;
-  };
-  const out = new Float64Array(n);
-  for (let i = 0; i < n; i++) out[i] = Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
-  return out;
+  const random = createRandom(seed);
+  return new Float64Array(n).map(() => random.normal());
 }
 
 function options(overrides: Partial<WelchOptions> = {}): WelchOptions {
