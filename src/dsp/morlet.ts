@@ -171,15 +171,16 @@ export function morletWavelet(frequency: number, cycles: number, samplingRate: n
   return { frequency, cycles, sigmaTime, sigmaFrequency: frequency / cycles, halfWidth, re, im, gain };
 }
 
-/** Smallest 2^a·3^b·5^c ≥ n: the lengths the FFT does fastest. */
-function nextFastLength(n: number): number {
+/**
+ * Smallest m·2^a ≥ n with m ∈ {1, 3, 5, 9}: lengths the mixed-radix FFT does at its best speed, spaced
+ * at most 4/3 apart, so frequencies with similar wavelet lengths share one transform of the signal.
+ */
+function transformLength(n: number): number {
   let best = Infinity;
-  for (let p5 = 1; p5 < 2 * n; p5 *= 5) {
-    for (let p35 = p5; p35 < 2 * n; p35 *= 3) {
-      let m = p35;
-      while (m < n) m *= 2;
-      if (m < best) best = m;
-    }
+  for (const m of [1, 3, 5, 9]) {
+    let size = m;
+    while (size < n) size *= 2;
+    best = Math.min(best, size);
   }
   return best;
 }
@@ -193,7 +194,11 @@ interface WaveletSpectrum {
 const SPECTRUM_CACHE_LIMIT = 256;
 const spectrumCache = new Map<string, WaveletSpectrum>();
 
-/** DFT (length fftLength) of the wavelet laid out as h[j] = ψ̃[j − M], cached per (fftLength, fs, f, n_c). */
+/**
+ * DFT (length fftLength) of the wavelet laid out as h[j mod L] += ψ̃[j − M], j = 0..2M, cached per
+ * (fftLength, fs, f, n_c). A wavelet longer than L is folded (added) onto itself: the circular
+ * convolution is then the L-periodised linear one, which is all the reader needs (see convolve).
+ */
 function waveletSpectrum(fftLength: number, samplingRate: number, frequency: number, cycles: number): WaveletSpectrum {
   const key = `${fftLength}|${samplingRate}|${frequency}|${cycles}`;
   let entry = spectrumCache.get(key);
@@ -201,8 +206,11 @@ function waveletSpectrum(fftLength: number, samplingRate: number, frequency: num
     const wavelet = morletWavelet(frequency, cycles, samplingRate);
     const re = new Float64Array(fftLength);
     const im = new Float64Array(fftLength);
-    re.set(wavelet.re);
-    im.set(wavelet.im);
+    for (let j = 0; j < wavelet.re.length; j++) {
+      const at = j % fftLength;
+      re[at] = re[at]! + wavelet.re[j]!;
+      im[at] = im[at]! + wavelet.im[j]!;
+    }
     complexFftPlan(fftLength).transform(re, im);
     entry = { re, im, halfWidth: wavelet.halfWidth };
     if (spectrumCache.size >= SPECTRUM_CACHE_LIMIT) spectrumCache.delete(spectrumCache.keys().next().value!);
@@ -289,8 +297,10 @@ class MorletPlanImpl implements MorletPlan {
       this.sigmaTime[j] = sigma;
       this.sigmaFrequency[j] = f / c;
       const halfWidth = Math.ceil(SUPPORT_SIGMAS * sigma * samplingRate);
-      // linear (not circular) convolution needs length + 2M − 1 points at least
-      const fftLength = nextFastLength(length + 2 * halfWidth);
+      // Only outputs n + M, n < length, of the linear convolution (length + 2M − 1 points) are read.
+      // With period L ≥ length + M the circular result there has no alias: the images n + M ± L fall
+      // outside [0, length + 2M − 1). That saves M points per transform over the full linear length.
+      const fftLength = transformLength(length + halfWidth);
       this.fftLengths.push(fftLength);
       this.spectra.push(waveletSpectrum(fftLength, samplingRate, f, c));
       longest = Math.max(longest, fftLength);
