@@ -1,0 +1,86 @@
+import { Redis } from 'ioredis';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { RedisStore } from '../../src/stores/redis-store.js';
+import { redisForTests, TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
+import { busiest, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, pollJobHttp, startHttpApi, startWorkerProcess, until, uploadFloat32, type ServiceProcess } from './helpers.js';
+
+const withRedis = await redisForTests();
+const { channels, seconds, samplingRate } = LONG_SIGNAL;
+
+/**
+ * SIGKILL is what the kernel's OOM killer or a lost machine does: no shutdown hook runs, the job's
+ * lock simply stops being renewed. BullMQ's stalled-job check (docs.bullmq.io, "Stalled jobs")
+ * must then hand the job to another worker, or fail it after maxStalledCount redeliveries.
+ */
+describe.skipIf(!withRedis)('when a worker process is killed while it computes', () => {
+  const prefix = uniqueName('rm-faults-kill');
+  const env = { REDIS_URL: TEST_REDIS_URL, REDIS_PREFIX: prefix, QUEUE_NAME: 'analyses', WORKER_LOCK_MS: '2000', WORKER_MAX_STALLED: '2' };
+  const workers: ServiceProcess[] = [];
+  let api: Awaited<ReturnType<typeof startHttpApi>>;
+  let redis: Redis;
+  const bytes = noiseFloat32(11, channels, seconds, samplingRate);
+
+  beforeAll(async () => {
+    redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
+    api = await startHttpApi(env);
+    workers.push(startWorkerProcess(env), startWorkerProcess(env));
+    await Promise.all(workers.map((w) => w.waitForLog('rhythmetric worker started', 20_000)));
+  });
+
+  afterAll(async () => {
+    await Promise.all(workers.map((w) => w.stop()));
+    await api?.stop();
+    const keys = await redis.keys(`${prefix}:*`);
+    if (keys.length > 0) await redis.del(...keys);
+    redis.disconnect();
+  });
+
+  it('should redeliver the job to the other worker and succeed exactly once with the embedded-mode hash', async () => {
+    const signal = await uploadFloat32(api.base, bytes, channels, samplingRate);
+    const submitted = await http(api.base, 'POST', '/v1/jobs', { signal, recipe: LONG_RECIPE });
+    expect(submitted.status).toBe(202);
+    const id = submitted.body.id as string;
+    await until('the job to run', async () => ((await http(api.base, 'GET', `/v1/jobs/${id}`)).body.state === 'running' ? true : undefined), 20_000, 50);
+
+    const { process: holder, ticks } = await busiest(workers);
+    const survivor = workers.find((w) => w !== holder)!;
+    // The holder computes on a thread and burns CPU; the other one waits on a blocking Redis call.
+    expect(Math.max(...ticks)).toBeGreaterThan(3 * Math.min(...ticks) + 5);
+    holder.kill('SIGKILL');
+    expect((await holder.exited).signal).toBe('SIGKILL');
+    const killedAt = Date.now();
+
+    const finished = await pollJobHttp(api.base, id, 100_000);
+    expect(finished.state).toBe('succeeded');
+    // The survivor saw the stall and finished the job; the dead worker never completed it.
+    const stall = survivor.logs('worker stalled').find((l) => l.jobId === id);
+    expect(stall).toBeDefined();
+    console.info(`[faults] SIGKILL → redelivery noticed after ${(stall!.time as number) - killedAt} ms (WORKER_LOCK_MS=2000)`);
+    expect(survivor.logs('job completed').map((l) => l.jobId)).toEqual([id]);
+    expect(holder.logs('job completed')).toEqual([]);
+    // BullMQ counts every start of the job in the job hash ("ats", attemptsStarted): two starts.
+    expect(Number(await redis.hget(`${prefix}:analyses:${id}`, 'ats'))).toBe(2);
+
+    const store = new RedisStore(TEST_REDIS_URL, prefix);
+    try {
+      const records = await store.listDocuments('records');
+      expect(records).toHaveLength(1);
+      const record = JSON.parse((await store.getDocument('records', records[0]!))!) as { resultHash: string };
+      expect(record.resultHash).toBe(finished.resultHash);
+    } finally {
+      await store.close();
+    }
+
+    // Reference: the same bytes and recipe through the embedded mode (README: both modes give byte-identical records).
+    const embedded = await startHttpApi({});
+    try {
+      const local = await uploadFloat32(embedded.base, bytes, channels, samplingRate);
+      const job = await http(embedded.base, 'POST', '/v1/jobs', { signal: local, recipe: LONG_RECIPE });
+      const done = await pollJobHttp(embedded.base, job.body.id as string, 60_000);
+      expect(done.state).toBe('succeeded');
+      expect(done.resultHash).toBe(finished.resultHash);
+    } finally {
+      await embedded.stop();
+    }
+  }, 180_000);
+});
