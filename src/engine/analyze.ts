@@ -6,7 +6,9 @@ import { qualityFlags } from '../features/quality.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
-import { createEstimator } from './estimators.js';
+import { createEstimator, type SegmentFilter } from './estimators.js';
+import { prepareInput, type PreparedInput } from './prepare.js';
+import type { SignalView } from '../signals/view.js';
 import type { ChannelFeatures, ChannelQuality, FeatureRecord, FeatureResult, RecordInput, SkippedEpoch } from './record.js';
 import { computeFeatures } from './spectral-features.js';
 import { ENGINE_NAME, ENGINE_VERSION, RECORD_SCHEMA } from './version.js';
@@ -14,6 +16,8 @@ import { ENGINE_NAME, ENGINE_VERSION, RECORD_SCHEMA } from './version.js';
 export type ProgressListener = (fraction: number) => void;
 
 export interface AnalyzeContext {
+  /** a window, channel subset and bad spans of the stored signal (referenced jobs) */
+  view?: SignalView | null;
   signalId: string;
   sha256: string;
   recipeId: string;
@@ -35,6 +39,10 @@ export interface Spectra {
   /** perEpoch[i][c]: PSD of used epoch i, channel c (only with recipe.perEpoch) */
   perEpoch: Float64Array[][] | null;
   quality: { index: number; channels: ChannelQuality[] }[] | null;
+  /** Welch segments averaged and left out, per channel, over all used epochs */
+  segments: { used: number; leftOut: number }[];
+  /** per event label (events epoching): Σ PSD per channel and the epoch count */
+  groups: Map<string, { count: number; psdSums: Float64Array[] }> | null;
   warnings: string[];
 }
 
@@ -42,10 +50,17 @@ export interface Spectra {
  * Computes the spectrum of every channel of every usable epoch, each epoch on its own.
  * Deterministic: the same signal and resolved recipe give the same bits in every mode.
  */
-export function computeSpectra(signal: Signal, resolved: ResolvedRecipe, context: Pick<AnalyzeContext, 'onProgress' | 'checkpoint'> = {}): Spectra {
+export function computeSpectra(
+  signal: Signal,
+  resolved: ResolvedRecipe,
+  context: Pick<AnalyzeContext, 'onProgress' | 'checkpoint'> = {},
+  prepared: Pick<PreparedInput, 'badSpans' | 'labels'> = { badSpans: [], labels: null },
+): Spectra {
   const { recipe } = resolved;
-  const estimator = createEstimator(signal.samplingRate, resolved);
+  const estimator = createEstimator(signal.samplingRate, resolved, segmentFilterFor(signal, resolved, prepared.badSpans));
   const { usedEpochs, skipped, quality } = selectEpochs(signal, resolved);
+  const segments = signal.channels.map(() => ({ used: 0, leftOut: 0 }));
+  const groups = prepared.labels ? new Map<string, { count: number; psdSums: Float64Array[] }>() : null;
   const channelCount = signal.channels.length;
   const bins = estimator.frequencies.length;
   const psdSums = Array.from({ length: channelCount }, () => new Float64Array(bins));
@@ -56,9 +71,30 @@ export function computeSpectra(signal: Signal, resolved: ResolvedRecipe, context
   let done = 0;
   for (const e of usedEpochs) {
     const row: Float64Array[] = [];
+    let group: { count: number; psdSums: Float64Array[] } | undefined;
+    if (groups) {
+      const label = prepared.labels![e]!;
+      group = groups.get(label);
+      if (!group) groups.set(label, (group = { count: 0, psdSums: signal.channels.map(() => new Float64Array(bins)) }));
+      group.count++;
+    }
     for (let c = 0; c < channelCount; c++) {
       context.checkpoint?.();
-      const estimate = estimator.estimate(channelView(signal, e, c));
+      let estimate;
+      try {
+        estimate = estimator.estimate(channelView(signal, e, c));
+      } catch (error) {
+        if (error instanceof RangeError && /rejected all/.test(error.message)) {
+          throw new EngineInputError('no-usable-epochs', `channel "${signal.channels[c]}"${signal.epochCount > 1 ? `, epoch ${e}` : ''}: every Welch segment overlaps a bad span or exceeds the peak-to-peak limit`, '/recipe/badSpans');
+        }
+        throw error;
+      }
+      segments[c]!.used += estimate.segments.used;
+      segments[c]!.leftOut += estimate.segments.leftOut;
+      if (group) {
+        const g = group.psdSums[c]!;
+        for (let k = 0; k < bins; k++) g[k]! += estimate.psd[k]!;
+      }
       const sum = psdSums[c]!;
       const dof = dofSums[c]!;
       for (let k = 0; k < bins; k++) {
@@ -72,7 +108,34 @@ export function computeSpectra(signal: Signal, resolved: ResolvedRecipe, context
     }
     perEpoch?.push(row);
   }
-  return { frequencies: estimator.frequencies, usedEpochs, skipped, psdSums, dofSums, perEpoch, quality, warnings: [...warnings] };
+  return { frequencies: estimator.frequencies, usedEpochs, skipped, psdSums, dofSums, perEpoch, quality, segments, groups, warnings: [...warnings] };
+}
+
+/**
+ * Welch segments of an unepoched signal that overlap a bad span, or whose peak-to-peak amplitude in
+ * the channel exceeds the recipe's limit, are left out of that channel's average.
+ */
+function segmentFilterFor(signal: Signal, resolved: ResolvedRecipe, badSpans: [number, number][]): SegmentFilter | null {
+  const { recipe } = resolved;
+  const limit = recipe.badSpans.peakToPeak;
+  if (recipe.method !== 'welch' || recipe.epoching !== null || (badSpans.length === 0 && limit === null)) return null;
+  const fs = signal.samplingRate;
+  return (x, start, end) => {
+    const first = start / fs;
+    const last = (end - 1) / fs;
+    for (const [a, b] of badSpans) if (first <= b && last >= a) return false;
+    if (limit !== null) {
+      let lo = Infinity;
+      let hi = -Infinity;
+      for (let i = start; i < end; i++) {
+        const v = x[i]!;
+        if (v < lo) lo = v;
+        if (v > hi) hi = v;
+      }
+      if (hi - lo > limit) return false;
+    }
+    return true;
+  };
 }
 
 /** Leaves out epochs with gaps (per `nonFinite`) and, when asked, epochs with flagged channels. */
@@ -93,6 +156,15 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe) {
       }
       skipped.push({ index: e, reason: 'non-finite', detail: `first non-finite sample at ${where}` });
       continue;
+    }
+    // Without recipe epoching, Welch drops segments (see segmentFilterFor); the other methods drop epochs.
+    const limit = recipe.badSpans.peakToPeak;
+    if (limit !== null && recipe.epoching === null && recipe.method !== 'welch') {
+      const over = signal.channels.map((name, c) => ({ name, p2p: peakToPeak(channelView(signal, e, c)) })).filter((c) => c.p2p > limit);
+      if (over.length > 0) {
+        skipped.push({ index: e, reason: 'amplitude', detail: over.map((c) => `${c.name}: peak-to-peak ${c.p2p}`).join('; ') });
+        continue;
+      }
     }
     if (qualityOptions && quality) {
       const channels = signal.channels.map((name, c): ChannelQuality => {
@@ -117,6 +189,16 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe) {
     throw new EngineInputError('no-usable-epochs', `all ${signal.epochCount} epoch(s) were left out (${[...new Set(skipped.map((s) => s.reason))].join(', ')}); nothing is left to analyze`);
   }
   return { usedEpochs, skipped, quality };
+}
+
+function peakToPeak(x: Float64Array): number {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of x) {
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  return hi - lo;
 }
 
 function firstNonFinite(data: Float64Array, from: number, to: number): number {
@@ -173,6 +255,7 @@ export function summarize(signal: Signal, resolved: ResolvedRecipe, spectra: Spe
       segmentsPerEpoch: derived.segmentsPerEpoch,
       epochsUsed: count,
       epochsSkipped: spectra.skipped,
+      segments: signal.channels.map((name, c) => ({ name, ...spectra.segments[c]! })),
       ...(recipe.confidence !== null ? { confidence: recipe.confidence } : {}),
     },
     warnings,
@@ -184,6 +267,13 @@ export function summarize(signal: Signal, resolved: ResolvedRecipe, spectra: Spe
     }));
   }
   if (spectra.quality) result.quality = spectra.quality;
+  if (spectra.groups) {
+    result.groups = [...spectra.groups.entries()].map(([label, g]) => ({
+      label,
+      epochs: g.count,
+      channels: signal.channels.map((name, c) => collect(`group "${label}", channel "${name}"`, describe(name, g.psdSums[c]!.map((v) => v / g.count), null))),
+    }));
+  }
   result.warnings = [...new Set(result.warnings)];
   return result;
 }
@@ -204,15 +294,19 @@ export function recordInput(signal: Signal, signalId: string, sha256: string): R
  * `analyze(signal, recipe) → FeatureRecord`. The only nondeterministic fields are in `provenance`,
  * which the result hash leaves out.
  */
-export function analyze(signal: Signal, resolved: ResolvedRecipe, context: AnalyzeContext): FeatureRecord {
+export function analyze(original: Signal, resolved: ResolvedRecipe, context: AnalyzeContext): FeatureRecord {
   const started = performance.now();
-  const spectra = computeSpectra(signal, resolved, context);
+  const prepared = prepareInput(original, resolved.recipe, context.view ?? null);
+  const signal = prepared.signal;
+  const spectra = computeSpectra(signal, resolved, context, prepared);
+  spectra.warnings.unshift(...prepared.warnings);
   const result = summarize(signal, resolved, spectra);
+  if (prepared.epoching) result.epoching = prepared.epoching;
   return {
     schema: RECORD_SCHEMA,
     engineVersion: ENGINE_VERSION,
     recipe: { ...resolved.recipe, id: context.recipeId, hash: resolved.hash, derived: resolved.derived },
-    input: recordInput(signal, context.signalId, context.sha256),
+    input: { ...recordInput(original, context.signalId, context.sha256), ...(context.view ? { view: context.view } : {}) },
     result,
     resultHash: hashCanonical(result),
     provenance: {

@@ -10,7 +10,12 @@ export interface Estimate {
   psd: Float64Array;
   degreesOfFreedom: Float64Array;
   warnings: readonly string[];
+  /** Welch: segments averaged and segments left out (bad spans, amplitude) */
+  segments: { used: number; leftOut: number };
 }
+
+/** Decides per channel whether a Welch segment [start, end) of `x` may be averaged. */
+export type SegmentFilter = (x: Float64Array, start: number, end: number) => boolean;
 
 /** A spectral estimator set up once per job (windows, tapers, FFT plans) and reused per channel and epoch. */
 export interface Estimator {
@@ -22,12 +27,15 @@ export interface Estimator {
 
 const none: readonly string[] = Object.freeze([]);
 
-export function createEstimator(samplingRate: number, resolved: ResolvedRecipe): Estimator {
+export function createEstimator(samplingRate: number, resolved: ResolvedRecipe, segmentFilter: SegmentFilter | null = null): Estimator {
   const { recipe, derived } = resolved;
   switch (recipe.method) {
     case 'welch': {
       const window = makeWindow(recipe.window, derived.segmentSamples, recipe.tukeyRatio === undefined ? {} : { tukeyRatio: recipe.tukeyRatio });
+      // The filter needs the channel being estimated; the plan calls it during compute(current).
+      let current: Float64Array = new Float64Array(0);
       const plan = createWelchPlan({
+        ...(segmentFilter ? { acceptSegment: (start: number, end: number) => segmentFilter(current, start, end) } : {}),
         samplingRate,
         segmentSamples: derived.segmentSamples,
         overlapSamples: derived.overlapSamples,
@@ -36,8 +44,26 @@ export function createEstimator(samplingRate: number, resolved: ResolvedRecipe):
         detrend: recipe.detrend,
         average: recipe.average,
       });
-      const dof = perBinDegreesOfFreedom(welchDegreesOfFreedom(window, derived.overlapSamples, derived.segmentsPerEpoch, recipe.average), derived.fftLength);
-      return { frequencies: plan.frequencies, warnings: none, estimate: (x) => ({ psd: plan.compute(x).psd, degreesOfFreedom: dof, warnings: none }) };
+      const dofFor = new Map<number, Float64Array>();
+      const dof = (count: number) => {
+        let d = dofFor.get(count);
+        if (!d) {
+          // With segments left out the overlap structure is broken; the formula for `count` contiguous
+          // segments is then an approximation, and a generous one.
+          d = perBinDegreesOfFreedom(welchDegreesOfFreedom(window, derived.overlapSamples, count, recipe.average), derived.fftLength);
+          dofFor.set(count, d);
+        }
+        return d;
+      };
+      return {
+        frequencies: plan.frequencies,
+        warnings: none,
+        estimate: (x) => {
+          current = x;
+          const r = plan.compute(x);
+          return { psd: r.psd, degreesOfFreedom: dof(r.segmentCount), warnings: none, segments: { used: r.segmentCount, leftOut: r.rejectedSegments } };
+        },
+      };
     }
     case 'multitaper': {
       const plan = createMultitaperPlan(derived.segmentSamples, {
@@ -54,7 +80,7 @@ export function createEstimator(samplingRate: number, resolved: ResolvedRecipe):
         warnings: plan.warnings,
         estimate: (x) => {
           const r = plan.compute(x);
-          return { psd: r.psd, degreesOfFreedom: r.degreesOfFreedom, warnings: r.warnings.filter((w) => !shared.has(w)) };
+          return { psd: r.psd, degreesOfFreedom: r.degreesOfFreedom, warnings: r.warnings.filter((w) => !shared.has(w)), segments: { used: 1, leftOut: 0 } };
         },
       };
     }
@@ -71,7 +97,7 @@ export function createEstimator(samplingRate: number, resolved: ResolvedRecipe):
         warnings: none,
         estimate: (x) => {
           const r = plan.compute(x);
-          return { psd: r.psd, degreesOfFreedom: r.degreesOfFreedom, warnings: none };
+          return { psd: r.psd, degreesOfFreedom: r.degreesOfFreedom, warnings: none, segments: { used: 1, leftOut: 0 } };
         },
       };
     }

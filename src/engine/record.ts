@@ -2,6 +2,8 @@ import type { BandPower, BandRatio } from '../features/bands.js';
 import type { DerivedSettings } from '../recipes/resolve.js';
 import type { Recipe } from '../recipes/schema.js';
 import type { FeatureValues } from './spectral-features.js';
+import type { EpochingSummary } from './prepare.js';
+import type { SignalView } from '../signals/view.js';
 import type { SignalDescription } from '../signals/signal.js';
 
 export interface ChannelFeatures {
@@ -36,7 +38,7 @@ export interface EpochFeatures {
 
 export interface SkippedEpoch {
   index: number;
-  reason: 'non-finite' | 'quality';
+  reason: 'non-finite' | 'quality' | 'amplitude';
   detail: string;
 }
 
@@ -52,7 +54,13 @@ export interface FeatureResult {
     epochsUsed: number;
     epochsSkipped: SkippedEpoch[];
     confidence?: number;
+    /** Welch segments averaged and left out (bad spans, amplitude), per channel over all epochs */
+    segments: { name: string; used: number; leftOut: number }[];
   };
+  /** epochs cut by the recipe's epoching: those kept and those dropped with the reason */
+  epoching?: EpochingSummary;
+  /** events epoching: mean spectra and features per event label */
+  groups?: { label: string; epochs: number; channels: ChannelFeatures[] }[];
   /** time-domain flags per used-or-dropped epoch and channel (with features.quality) */
   quality?: { index: number; channels: ChannelQuality[] }[];
   warnings: string[];
@@ -61,6 +69,8 @@ export interface FeatureResult {
 export interface RecordInput extends SignalDescription {
   signal: string;
   sha256: string;
+  /** the part of the stored signal the job named */
+  view?: SignalView;
 }
 
 export interface Provenance {

@@ -105,15 +105,29 @@ export const PinnedRecipeSchema = z
 
 export const IdParams = z.object({ id: z.string().min(1).max(200) });
 
+export const SignalReferenceSchema = z
+  .strictObject({
+    signal: z.string().min(1).describe('id of a stored signal'),
+    start: z.number().min(0).optional().describe('seconds from the start of a continuous signal'),
+    end: z.number().positive().optional().describe('seconds, excluded'),
+    channels: z.array(z.string().min(1)).min(1).max(1024).optional().describe('channel names to keep, in this order'),
+    badSpans: z
+      .array(z.tuple([z.number(), z.number()]))
+      .max(100_000)
+      .optional()
+      .describe('[start, end] seconds from the signal start, left out of the analysis'),
+  })
+  .meta({ id: 'SignalReference', description: 'A window, channel subset and bad spans of a stored signal, without uploading it again.' });
+
 export const JobRequestSchema = z
   .strictObject({
-    signal: z.union([z.string().describe('id of a stored signal'), SignalUploadSchema]),
+    signal: z.union([z.string().describe('id of a stored signal'), SignalReferenceSchema, SignalUploadSchema]),
     recipe: z.union([z.string().describe('id of a pinned recipe'), RecipeSchema]),
   })
   .meta({ id: 'JobRequest' });
 
 export const JobRequestEnvelope = z.strictObject({
-  signal: z.union([z.string().min(1), SignalUploadEnvelope]),
+  signal: z.union([z.string().min(1), SignalReferenceSchema, SignalUploadEnvelope]),
   recipe: z.union([z.string().min(1), z.record(z.string(), z.unknown())]),
 });
 

@@ -3,7 +3,9 @@ import { normalizeRecipe, type PinnedRecipe } from '../recipes/normalize.js';
 import { resolveRecipe } from '../recipes/resolve.js';
 import { sampleBytes, signalIdFromHash, signalSha256 } from '../signals/content-hash.js';
 import { findNonFinite, type Signal } from '../signals/signal.js';
-import { jobIdOf, recordKeyOf, type JobSpec } from '../jobs/spec.js';
+import { jobIdOf, recordKeyOf, viewedShape, type JobSpec } from '../jobs/spec.js';
+import { SignalInputError } from '../signals/errors.js';
+import type { SignalView } from '../signals/view.js';
 import type { SignalMeta, Store } from '../stores/store.js';
 import { ProblemError } from './problem.js';
 
@@ -61,8 +63,19 @@ export async function getRecipe(store: Store, id: string, pointer: string | null
  * Builds the job for a (signal, recipe) pair after checking, before anything is queued, that the
  * recipe fits the signal; a misfit answers 422 now instead of a failed job later.
  */
-export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe): { jobId: string; spec: JobSpec } {
-  resolveRecipe(pinned.recipe, pinned.hash, meta, config.recipeLimits);
+export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe, view: SignalView | null = null): { jobId: string; spec: JobSpec } {
+  let shape;
+  try {
+    shape = viewedShape(meta, view);
+  } catch (error) {
+    if (error instanceof SignalInputError) throw new SignalInputError(error.code, error.message, `/signal${error.pointer ?? ''}`);
+    throw error;
+  }
+  const reference = pinned.recipe.reference;
+  if (view?.channels && typeof reference === 'object' && view.channels.includes(reference.channel)) {
+    throw new ProblemError('recipe-unfit', `channel "${reference.channel}" is the recipe's reference and is left out of the output; do not select it`, '/signal/channels');
+  }
+  resolveRecipe(pinned.recipe, pinned.hash, shape, config.recipeLimits);
   if (meta.nonFiniteSamples > 0 && pinned.recipe.nonFinite === 'reject') {
     throw new ProblemError(
       'non-finite',
@@ -70,9 +83,9 @@ export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe):
       '/recipe/nonFinite',
     );
   }
-  const recordKey = recordKeyOf(meta.tenant, meta.sha256, pinned.hash);
+  const recordKey = recordKeyOf(meta.tenant, meta.sha256, pinned.hash, view);
   return {
     jobId: jobIdOf(recordKey),
-    spec: { tenant: meta.tenant, signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey },
+    spec: { tenant: meta.tenant, signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey, view },
   };
 }

@@ -4,7 +4,8 @@ import { EngineInputError } from '../engine/errors.js';
 import { RecipeInputError } from '../recipes/errors.js';
 import { resolveRecipe } from '../recipes/resolve.js';
 import type { Store } from '../stores/store.js';
-import type { JobProblem, JobSpec } from './spec.js';
+import { viewedShape, type JobProblem, type JobSpec } from './spec.js';
+import { SignalInputError } from '../signals/errors.js';
 
 /** A failure that will fail again on every retry: bad input, not a transient fault. */
 export class PermanentJobError extends Error {
@@ -42,8 +43,9 @@ export async function runJob(
     throw new PermanentJobError({ type: problemType('signal-not-found'), title: PROBLEMS['signal-not-found'].title, status: 404, detail: `signal ${spec.signalId} is not in the store` });
   }
   try {
-    const resolved = resolveRecipe(spec.recipe, spec.recipeHash, loaded.signal);
+    const resolved = resolveRecipe(spec.recipe, spec.recipeHash, viewedShape(loaded.signal, spec.view ?? null));
     const record = analyze(loaded.signal, resolved, {
+      view: spec.view ?? null,
       signalId: spec.signalId,
       sha256: spec.sha256,
       recipeId: spec.recipeId,
@@ -54,6 +56,9 @@ export async function runJob(
     await store.putDocument('records', spec.recordKey, JSON.stringify(record));
     return { recordKey: spec.recordKey, resultHash: record.resultHash, computed: true };
   } catch (error) {
+    if (error instanceof SignalInputError) {
+      throw new PermanentJobError({ type: problemType('invalid-signal'), title: PROBLEMS['invalid-signal'].title, status: 422, detail: error.message, ...(error.pointer ? { pointer: `/signal${error.pointer}` } : {}) });
+    }
     if (error instanceof RecipeInputError || error instanceof EngineInputError) {
       const code: ProblemCode = error instanceof RecipeInputError ? (error.code === 'limit' ? 'limit-exceeded' : 'recipe-unfit') : error.code;
       throw new PermanentJobError({

@@ -1,6 +1,10 @@
-import { sha256Hex } from '../common/hash.js';
+import { hashCanonical, sha256Hex } from '../common/hash.js';
+import type { SignalShape } from '../recipes/resolve.js';
+import { resolveView } from '../signals/view.js';
+import type { SignalDescription } from '../signals/signal.js';
 import { ENGINE_VERSION } from '../engine/version.js';
 import type { Recipe } from '../recipes/schema.js';
+import type { SignalView } from '../signals/view.js';
 
 export const JOB_STATES = ['queued', 'running', 'succeeded', 'failed', 'canceled'] as const;
 export type JobState = (typeof JOB_STATES)[number];
@@ -14,6 +18,8 @@ export interface JobSpec {
   recipeHash: string;
   recipe: Recipe;
   recordKey: string;
+  /** the part of the stored signal to analyze; null = all of it */
+  view?: SignalView | null;
 }
 
 /** RFC 9457 problem details, as stored on a failed job. */
@@ -46,8 +52,16 @@ export interface JobView {
  * A record is stored under (tenant, signal hash, recipe hash, engine version): equal inputs can only
  * write equal bytes, and one tenant deleting its data never removes another tenant's record.
  */
-export function recordKeyOf(tenant: string, sha256: string, recipeHash: string, engineVersion = ENGINE_VERSION): string {
-  return `${tenant}.${sha256}.${recipeHash}.${engineVersion}`;
+export function recordKeyOf(tenant: string, sha256: string, recipeHash: string, view: SignalView | null = null, engineVersion = ENGINE_VERSION): string {
+  const part = view ? `.${hashCanonical(view).slice(0, 16)}` : '';
+  return `${tenant}.${sha256}.${recipeHash}${part}.${engineVersion}`;
+}
+
+/** What the recipe is resolved against: the signal as the view leaves it. */
+export function viewedShape(meta: SignalDescription, view: SignalView | null): SignalShape {
+  if (!view) return meta;
+  const resolved = resolveView(meta, view);
+  return { samplingRate: meta.samplingRate, epochCount: meta.epochCount, samplesPerEpoch: resolved.endSample - resolved.startSample, channels: meta.channels };
 }
 
 /** Job ids follow from the record key (which names the tenant), so an identical submission finds the existing job. */

@@ -4,6 +4,9 @@ import type { Recipe } from './schema.js';
 export interface SignalShape {
   samplingRate: number;
   samplesPerEpoch: number;
+  /** default 1 */
+  epochCount?: number;
+  channels?: readonly string[];
 }
 
 export interface RecipeLimits {
@@ -48,6 +51,16 @@ export function resolveRecipe(recipe: Recipe, hash: string, shape: SignalShape, 
   const fs = shape.samplingRate;
   const nyquist = fs / 2;
   const warnings: string[] = [];
+  shape = { ...shape, samplesPerEpoch: epochLength(recipe, shape) };
+  if (typeof recipe.reference === 'object' && shape.channels && !shape.channels.includes(recipe.reference.channel)) {
+    throw new RecipeInputError('unfit-for-signal', `reference channel "${recipe.reference.channel}" is not in the signal (it has ${shape.channels.join(', ')})`, '/reference/channel');
+  }
+  if (typeof recipe.reference === 'object' && shape.channels?.length === 1) {
+    throw new RecipeInputError('unfit-for-signal', 're-referencing to a channel needs at least one other channel', '/reference/channel');
+  }
+  if (recipe.method !== 'welch' && recipe.epoching === null && (shape.epochCount ?? 1) === 1 && (recipe.badSpans.labels.length > 0 || recipe.badSpans.peakToPeak !== null)) {
+    warnings.push(`bad spans leave out Welch segments or epochs; ${recipe.method} on an unepoched signal can only use or skip whole epochs`);
+  }
   let segmentSamples: number;
   let overlapSamples = 0;
   if (recipe.method === 'welch') {
@@ -149,6 +162,25 @@ function checkFeatureRanges(recipe: Recipe, nyquist: number): void {
   if (f.lineNoise && f.lineNoise.frequency + f.lineNoise.halfWidth + f.lineNoise.neighbourhoodWidth > nyquist) {
     throw new RecipeInputError('unfit-for-signal', `line noise at ${f.lineNoise.frequency} Hz and its neighbourhood do not fit below the Nyquist frequency ${nyquist} Hz`, '/features/lineNoise/frequency');
   }
+}
+
+/** Samples per analysed epoch: the uploaded epochs, or those the recipe's epoching cuts. */
+function epochLength(recipe: Recipe, shape: SignalShape): number {
+  const e = recipe.epoching;
+  if (!e) return shape.samplesPerEpoch;
+  if ((shape.epochCount ?? 1) !== 1) {
+    throw new RecipeInputError('unfit-for-signal', `epoching cuts a continuous signal; this one already has ${shape.epochCount} epochs`, '/epoching');
+  }
+  const fs = shape.samplingRate;
+  const samples = e.mode === 'fixed' ? Math.round(e.lengthSeconds * fs) : Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs);
+  if (samples < 2) throw new RecipeInputError('unfit-for-signal', `epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'fixed' ? '/epoching/lengthSeconds' : '/epoching/afterSeconds');
+  if (samples > shape.samplesPerEpoch) {
+    throw new RecipeInputError('unfit-for-signal', `epochs of ${samples} samples are longer than the signal (${shape.samplesPerEpoch} samples)`, '/epoching');
+  }
+  if (e.mode === 'events' && e.baseline && !(e.baseline[0] < e.baseline[1] && e.baseline[0] >= -e.beforeSeconds && e.baseline[1] <= e.afterSeconds)) {
+    throw new RecipeInputError('unfit-for-signal', `baseline [${e.baseline[0]}, ${e.baseline[1]}) s must lie inside the epoch [${-e.beforeSeconds}, ${e.afterSeconds}) s`, '/epoching/baseline');
+  }
+  return samples;
 }
 
 /** Frequency of bin k in Hz, computed as k·fs/n in this order everywhere (band edges compare against it). */

@@ -74,6 +74,23 @@ export const FeaturesSchema = z
   })
   .meta({ id: 'Features' });
 
+export const EpochingSchema = z
+  .discriminatedUnion('mode', [
+    z.strictObject({
+      mode: z.literal('fixed'),
+      lengthSeconds: z.number().positive().max(3600).describe('epoch length'),
+      stepSeconds: z.number().positive().max(3600).nullable().default(null).describe('time between epoch starts; null = lengthSeconds (no overlap)'),
+    }),
+    z.strictObject({
+      mode: z.literal('events'),
+      labels: z.array(z.string().min(1)).min(1).max(256).nullable().default(null).describe("event labels to cut around; null = every event of the signal"),
+      beforeSeconds: z.number().min(0).max(3600).default(0).describe('data kept before each event'),
+      afterSeconds: z.number().positive().max(3600).describe('data kept after each event'),
+      baseline: z.tuple([z.number(), z.number()]).nullable().default(null).describe('[start, end) s relative to the event; its mean is subtracted per channel'),
+    }),
+  ])
+  .meta({ id: 'Epoching', description: 'Cut a continuous signal into epochs: fixed-length, or around its events (EDF+ annotations or uploaded events).' });
+
 const common = {
   schema: z.literal(RECIPE_SCHEMA).default(RECIPE_SCHEMA).describe('recipe format version'),
   detrend: z.enum(DETREND_KINDS).default('mean').describe('removed from each segment before windowing'),
@@ -105,6 +122,18 @@ const common = {
     .default(null)
     .describe('confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none'),
   features: FeaturesSchema.default({}).describe('spectral features to compute, by name'),
+  reference: z
+    .union([z.enum(['none', 'average']), z.strictObject({ channel: z.string().min(1) })])
+    .default('none')
+    .describe('re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)'),
+  epoching: EpochingSchema.nullable().default(null).describe('cut a continuous signal into epochs first; null = use the epochs as uploaded'),
+  badSpans: z
+    .strictObject({
+      labels: z.array(z.string().min(1)).max(256).default([]).describe('events with these labels mark bad spans [onset, onset + duration]'),
+      peakToPeak: z.number().positive().nullable().default(null).describe('an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out'),
+    })
+    .default({ labels: [], peakToPeak: null })
+    .describe('time spans left out: a Welch segment or an epoch overlapping one is not averaged'),
   nonFinite: z
     .enum(['reject', 'skip-epoch'])
     .default('reject')
@@ -152,4 +181,5 @@ export type WelchRecipe = z.output<typeof WelchRecipeSchema>;
 export type MultitaperRecipe = z.output<typeof MultitaperRecipeSchema>;
 export type PeriodogramRecipe = z.output<typeof PeriodogramRecipeSchema>;
 export type Features = z.output<typeof FeaturesSchema>;
+export type Epoching = z.output<typeof EpochingSchema>;
 export type Band = z.output<typeof BandSchema>;

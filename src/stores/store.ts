@@ -59,7 +59,7 @@ export function signalFromParts(meta: SignalMeta, samples: Uint8Array): Signal {
   return signal;
 }
 
-const SAFE_KEY = /^[A-Za-z0-9_.-]{1,200}$/;
+const SAFE_KEY = /^[A-Za-z0-9_.-]{1,240}$/;
 
 /** Keys reach file names and Redis keys: only a safe alphabet is accepted. */
 export function checkKey(key: string): string {

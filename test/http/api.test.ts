@@ -245,3 +245,27 @@ describe('when operators look at the service', () => {
     expect(line).toMatchObject({ jobId: res.json().id });
   });
 });
+
+describe('when a job refers to part of a stored signal', () => {
+  it('should analyze the window and channels it names, and refuse names and times that do not exist', async () => {
+    const stored = (await post('/v1/signals', { samplingRate: fs, channels: ['O1', 'O2'], data: [tone(2, 10, 20), tone(1, 10, 20)] })).json();
+    const ok = await post('/v1/jobs', { signal: { signal: stored.id, start: 4, end: 12, channels: ['O2'] }, recipe: { method: 'welch', detrend: 'none' } });
+    expect(ok.statusCode).toBe(202);
+    const job = await pollJob(api.app, ok.json().id);
+    const record = (await api.app.inject({ method: 'GET', url: `/v1/jobs/${job.id}/record` })).json();
+    expect(record.input.view).toEqual({ start: 4, end: 12, channels: ['O2'] });
+    expect(record.result.channels.map((c: { name: string }) => c.name)).toEqual(['O2']);
+    expect(record.result.channels[0].bands.find((b: { name: string }) => b.name === 'alpha').absolute).toBeCloseTo(0.5, 10);
+
+    const badName = await post('/v1/jobs', { signal: { signal: stored.id, channels: ['Oz'] }, recipe: { method: 'welch' } });
+    expect(badName.statusCode).toBe(422);
+    expect(badName.json()).toMatchObject({ type: '/problems/invalid-signal', pointer: '/signal/channels/0' });
+    const badTime = await post('/v1/jobs', { signal: { signal: stored.id, start: 30 }, recipe: { method: 'welch' } });
+    expect(badTime.json().pointer).toBe('/signal/start');
+    const epochedTwice = await post('/v1/jobs', {
+      signal: { samplingRate: fs, channels: ['Cz'], epochs: [[tone(1, 10, 4)], [tone(1, 10, 4)]] },
+      recipe: { method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 2 } },
+    });
+    expect(epochedTwice.json()).toMatchObject({ type: '/problems/recipe-unfit', pointer: '/recipe/epoching' });
+  });
+});

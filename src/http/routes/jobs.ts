@@ -4,6 +4,7 @@ import { decodeJsonSignal } from '../../signals/decode-json.js';
 import { SignalInputError } from '../../signals/errors.js';
 import type { SignalLimits } from '../../signals/limits.js';
 import type { Signal } from '../../signals/signal.js';
+import type { SignalView } from '../../signals/view.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
 import { FeatureRecordSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse } from '../schemas.js';
@@ -75,12 +76,19 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     async (request, reply) => {
       const body = request.body as { signal: unknown; recipe: unknown };
       const tenant = tenantOf(request);
-      const meta =
-        typeof body.signal === 'string'
-          ? await getSignalMeta(store, body.signal, tenant, '/signal')
-          : await storeSignal(store, decodeInline(body.signal, config.signalLimits), tenant, config.maxStoreBytes);
+      let view: SignalView | null = null;
+      let meta;
+      if (typeof body.signal === 'string') {
+        meta = await getSignalMeta(store, body.signal, tenant, '/signal');
+      } else if (body.signal && typeof body.signal === 'object' && 'signal' in body.signal) {
+        const { signal: id, ...rest } = body.signal as SignalView & { signal: string };
+        meta = await getSignalMeta(store, id, tenant, '/signal/signal');
+        view = rest;
+      } else {
+        meta = await storeSignal(store, decodeInline(body.signal, config.signalLimits), tenant, config.maxStoreBytes);
+      }
       const pinned = typeof body.recipe === 'string' ? await getRecipe(store, body.recipe, '/recipe') : await pinRecipe(store, body.recipe);
-      const { jobId, spec } = planJob(config, meta, pinned);
+      const { jobId, spec } = planJob(config, meta, pinned, view);
       let submitted;
       try {
         submitted = await queue.submit(spec, jobId);
