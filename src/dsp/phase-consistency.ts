@@ -25,6 +25,13 @@ export interface PhaseConsistencyNull {
   rootMeanSquare: number;
 }
 
+export interface PhaseConsistencyOptions {
+  /** level of {@link phaseConsistencyThreshold}. @defaultValue 0.05 */
+  alpha?: number;
+  /** cells marked 1 (e.g. a Morlet edge mask) are reported as NaN rather than used. @defaultValue none */
+  exclude?: Uint8Array;
+}
+
 export interface PhaseConsistencyResult {
   /** R per cell, in [0, 1], in the layout of the inputs */
   values: Float64Array;
@@ -92,14 +99,18 @@ export function phaseConsistencyThreshold(trialCount: number, alpha: number): nu
  *
  * @param re - real parts, one Float64Array per trial, all of one length (any layout)
  * @param im - imaginary parts, matching `re`
- * @param alpha - level of the reported threshold. @defaultValue 0.05
- * @returns values R = |Σ_r z_r/|z_r|| / n per cell, the trial count, the null expectations
+ * @param options - `alpha`, the level of the reported threshold, and `exclude`, a mask of cells to
+ *   report as NaN (e.g. the Morlet plan's edgeMask)
+ * @defaultValue alpha 0.05, exclude none
+ * @returns values R = |Σ_r z_r/|z_r|| / n per cell (NaN where excluded), the trial count, the null expectations
  *   ({@link phaseConsistencyNull}), the level-alpha threshold and the number of zero coefficients
- * @throws RangeError for no trials, mismatched lengths or a bad alpha
+ * @throws RangeError for no trials, mismatched lengths, a bad alpha or a mask of the wrong length
  * @see C. Tallon-Baudry et al. (1996), J. Neurosci. 16:4240–4249 (phase locking across trials);
  *   J.-P. Lachaux et al. (1999), Hum. Brain Mapp. 8:194–208
  */
-export function phaseConsistency(re: readonly Float64Array[], im: readonly Float64Array[], alpha = 0.05): PhaseConsistencyResult {
+export function phaseConsistency(re: readonly Float64Array[], im: readonly Float64Array[], options: PhaseConsistencyOptions = {}): PhaseConsistencyResult {
+  const alpha = options.alpha ?? 0.05;
+  const { exclude } = options;
   if (!Array.isArray(re) || !Array.isArray(im) || re.length === 0 || re.length !== im.length) {
     throw new RangeError('re and im must hold the same number (≥ 1) of trials');
   }
@@ -110,6 +121,9 @@ export function phaseConsistency(re: readonly Float64Array[], im: readonly Float
     if (!(re[r] instanceof Float64Array) || !(im[r] instanceof Float64Array) || re[r]!.length !== size || im[r]!.length !== size) {
       throw new RangeError(`trial ${r} must be two Float64Arrays of ${size} values`);
     }
+  }
+  if (exclude !== undefined && (!(exclude instanceof Uint8Array) || exclude.length !== size)) {
+    throw new RangeError(`exclude must be a Uint8Array of ${size} values`);
   }
   const sumRe = new Float64Array(size), sumIm = new Float64Array(size);
   let zeroCoefficients = 0;
@@ -123,7 +137,7 @@ export function phaseConsistency(re: readonly Float64Array[], im: readonly Float
     }
   }
   const values = new Float64Array(size);
-  for (let i = 0; i < size; i++) values[i] = Math.hypot(sumRe[i]!, sumIm[i]!) / n;
+  for (let i = 0; i < size; i++) values[i] = exclude !== undefined && exclude[i] === 1 ? Number.NaN : Math.hypot(sumRe[i]!, sumIm[i]!) / n;
   return {
     values, trialCount: n, null: phaseConsistencyNull(n), alpha,
     threshold: n >= 2 ? phaseConsistencyThreshold(n, alpha) : 1, zeroCoefficients,

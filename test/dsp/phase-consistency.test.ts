@@ -83,7 +83,7 @@ describe('phaseConsistency', () => {
     it.each([[10, 0.05], [30, 0.01]] as const)('should exceed the threshold for n = %i in about α = %s of cells (± 4 binomial SD)', (n, alpha) => {
       const cells = 20000;
       const { re, im } = randomPhases(n, cells, 7 * n);
-      const r = phaseConsistency(re, im, alpha);
+      const r = phaseConsistency(re, im, { alpha });
       expect(r.threshold).toBe(phaseConsistencyThreshold(n, alpha));
       let hits = 0;
       for (const v of r.values) if (v >= r.threshold) hits++;
@@ -106,7 +106,7 @@ describe('phaseConsistency', () => {
         const phase = 2 * Math.PI * random.uniform();
         return plan.coefficients(Float64Array.from({ length: plan.length }, (_, i) => random.normal() + signal(i / fs - 0.8, phase)));
       });
-      return phaseConsistency(coefficients.map((c) => c.re), coefficients.map((c) => c.im));
+      return phaseConsistency(coefficients.map((c) => c.re), coefficients.map((c) => c.im), { exclude: plan.edgeMask });
     };
     const locked = channel((t) => (t >= 0.1 && t < 0.8 ? Math.cos(2 * Math.PI * 6 * t) : 0));
     const burst = channel((t, phase) => (t >= 0.3 && t < 0.6 ? 2 * Math.cos(2 * Math.PI * 10 * t + phase) : 0));
@@ -116,6 +116,11 @@ describe('phaseConsistency', () => {
       expect(locked.values[at(0.45, 0)]!).toBeGreaterThan(locked.threshold);
       expect(locked.values[at(0.45, 0)]!).toBeGreaterThan(0.5);
       expect(locked.values[at(-0.3, 0)]!).toBeLessThan(locked.threshold);
+    });
+
+    it('should report the edge cells of the Morlet mask as NaN', () => {
+      expect(Number.isNaN(locked.values[0]!)).toBe(true);
+      expect(locked.values.filter(Number.isNaN).length).toBe(plan.edgeMask.reduce((a, b) => a + b, 0));
     });
 
     it('should leave the randomly phased 10 Hz burst within the null distribution', () => {
@@ -132,7 +137,8 @@ describe('phaseConsistency', () => {
     it('should reject mismatched trials and a bad alpha', () => {
       expect(() => phaseConsistency([new Float64Array(2)], [])).toThrow(RangeError);
       expect(() => phaseConsistency([new Float64Array(2)], [new Float64Array(3)])).toThrow(/trial 0/);
-      expect(() => phaseConsistency([new Float64Array(2)], [new Float64Array(2)], 1.5)).toThrow(/alpha/);
+      expect(() => phaseConsistency([new Float64Array(2)], [new Float64Array(2)], { alpha: 1.5 })).toThrow(/alpha/);
+      expect(() => phaseConsistency([new Float64Array(2)], [new Float64Array(2)], { exclude: new Uint8Array(1) })).toThrow(/exclude/);
     });
   });
 });
