@@ -1,3 +1,4 @@
+import type { Stats } from 'node:fs';
 import { constants, type FileHandle, open, realpath, stat } from 'node:fs/promises';
 import { isAbsolute, join, relative, sep } from 'node:path';
 
@@ -102,12 +103,12 @@ export async function createDataRoot(root: string): Promise<DataRoot> {
   if (!(await stat(realRoot)).isDirectory()) throw new Error(`the data root ${JSON.stringify(root)} is not a directory`);
   return {
     realRoot,
-    resolve: (requested: string) => resolveInside(realRoot, requested),
+    resolve: async (requested: string) => (await resolveInside(realRoot, requested)).real,
     open: (requested: string) => openInside(realRoot, requested),
   };
 }
 
-async function resolveInside(realRoot: string, requested: string): Promise<string> {
+async function resolveInside(realRoot: string, requested: string): Promise<{ real: string; info: Stats }> {
   const segments = checkRelativePath(requested);
   let real: string;
   try {
@@ -118,6 +119,7 @@ async function resolveInside(realRoot: string, requested: string): Promise<strin
       throw new SourceError('not-found', `no file ${JSON.stringify(requested)} under the data root`, POINTER);
     }
     if (code === 'ELOOP') throw refuse('the path runs through a loop of symbolic links');
+    if (code === 'ENAMETOOLONG') throw refuse('the path or one of its names is too long for the file system');
     if (code === 'EACCES' || code === 'EPERM') throw refuse('the server may not read this path');
     throw error;
   }
@@ -130,12 +132,11 @@ async function resolveInside(realRoot: string, requested: string): Promise<strin
   if (!info.isFile()) {
     throw new SourceError('not-a-file', `${JSON.stringify(requested)} is ${info.isDirectory() ? 'a directory' : 'not a regular file'}`, POINTER);
   }
-  return real;
+  return { real, info };
 }
 
 async function openInside(realRoot: string, requested: string): Promise<OpenedFile> {
-  const realPath = await resolveInside(realRoot, requested);
-  const checked = await stat(realPath);
+  const { real: realPath, info: checked } = await resolveInside(realRoot, requested);
   // O_NOFOLLOW refuses a final component swapped for a symlink after the check; the inode
   // comparison catches a file swapped for another one (a rename race) in between.
   const handle = await open(realPath, constants.O_RDONLY | constants.O_NOFOLLOW).catch((error: unknown) => {

@@ -133,6 +133,14 @@ describe('when a symbolic link leads out of the root', () => {
   });
 });
 
+describe('when the file system refuses the name', () => {
+  it('should refuse a name longer than the file system allows (NAME_MAX is 255 bytes on Linux, from memory)', async () => {
+    const error = await failure(`a/${'x'.repeat(300)}.edf`);
+    expect(error.code).toBe('forbidden-path');
+    expect(error.message).toContain('too long');
+  });
+});
+
 describe('when nothing usable is at the path', () => {
   it.each([['missing.edf'], ['a/missing.edf'], ['nowhere/b.edf'], ['top.edf/inner'], ['dangling.edf']])(
     'should answer not-found for %j',
