@@ -1,0 +1,86 @@
+import { Redis } from 'ioredis';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { RedisStore } from '../../src/stores/redis-store.js';
+import { redisForTests, TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
+import { busiest, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, startHttpApi, startWorkerProcess, until, uploadFloat32, type ServiceProcess } from './helpers.js';
+
+const withRedis = await redisForTests();
+const { channels, seconds, samplingRate } = LONG_SIGNAL;
+const MAX_STALLED = 1;
+
+/**
+ * A job whose every run ends with the worker dead (a poison job) must not circle for ever: BullMQ
+ * fails it once it has stalled more than maxStalledCount times (docs.bullmq.io, "Stalled jobs"),
+ * with the reason "job stalled more than allowable limit" (BullMQ's wording, from memory).
+ */
+describe.skipIf(!withRedis)('when a job kills every worker that picks it up', () => {
+  const prefix = uniqueName('rm-faults-poison');
+  const env = { REDIS_URL: TEST_REDIS_URL, REDIS_PREFIX: prefix, QUEUE_NAME: 'analyses', WORKER_LOCK_MS: '2000', WORKER_MAX_STALLED: String(MAX_STALLED) };
+  const workers: ServiceProcess[] = [];
+  let api: Awaited<ReturnType<typeof startHttpApi>>;
+  let redis: Redis;
+
+  beforeAll(async () => {
+    redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
+    api = await startHttpApi(env);
+    workers.push(startWorkerProcess(env), startWorkerProcess(env));
+    await Promise.all(workers.map((w) => w.waitForLog('rhythmetric worker started', 20_000)));
+  });
+
+  afterAll(async () => {
+    await Promise.all(workers.map((w) => w.stop()));
+    await api?.stop();
+    const keys = await redis.keys(`${prefix}:*`);
+    if (keys.length > 0) await redis.del(...keys);
+    redis.disconnect();
+  });
+
+  it('should fail the job after maxStalledCount + 1 runs and say that it stalled', async () => {
+    const signal = await uploadFloat32(api.base, noiseFloat32(23, channels, seconds, samplingRate), channels, samplingRate);
+    const submitted = await http(api.base, 'POST', '/v1/jobs', { signal, recipe: LONG_RECIPE });
+    expect(submitted.status).toBe(202);
+    const id = submitted.body.id as string;
+
+    let kills = 0;
+    let job: Record<string, unknown> = submitted.body;
+    // Bounded: at most MAX_STALLED + 3 kills, each wait bounded in time.
+    for (let round = 0; round < MAX_STALLED + 3 && job.state !== 'failed'; round++) {
+      job = await until(
+        'the job to run again or fail',
+        async () => {
+          const res = await http(api.base, 'GET', `/v1/jobs/${id}`);
+          if (res.body.state !== 'running') return res.body.state === 'queued' ? undefined : res.body;
+          // A killed worker's job stays "running" until the stall is noticed: wait for a fresh start
+          // (BullMQ's attemptsStarted, "ats" in the job hash).
+          return Number(await redis.hget(`${prefix}:analyses:${id}`, 'ats')) > kills ? res.body : undefined;
+        },
+        100_000,
+        100,
+      );
+      if (job.state !== 'running') break;
+      const { process: holder } = await busiest(workers);
+      holder.kill('SIGKILL');
+      await holder.exited;
+      kills++;
+      const replacement = startWorkerProcess(env);
+      workers.push(replacement);
+      await replacement.waitForLog('rhythmetric worker started', 20_000);
+    }
+
+    expect(job.state).toBe('failed');
+    expect(kills).toBe(MAX_STALLED + 1);
+    const problem = job.problem as { type: string; status: number; detail: string };
+    expect(problem.type).toBe('/problems/worker-crashed');
+    expect(problem.status).toBe(500);
+    expect(problem.detail).toMatch(/stalled more than allowable limit/);
+    // Nothing half-written: no record exists for a job that never finished a run.
+    const store = new RedisStore(TEST_REDIS_URL, prefix);
+    try {
+      expect(await store.listDocuments('records')).toEqual([]);
+    } finally {
+      await store.close();
+    }
+    const record = await http(api.base, 'GET', `/v1/jobs/${id}/record`);
+    expect(record.status).toBe(409);
+  }, 240_000);
+});
