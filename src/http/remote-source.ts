@@ -164,7 +164,7 @@ function checkAddress(address: string, host: string, allowPrivate: boolean): voi
   }
 }
 
-type Resolver = (hostname: string, options: { all: true; family?: number }, callback: (error: NodeJS.ErrnoException | null, addresses: LookupAddress[]) => void) => void;
+export type Resolver = (hostname: string, options: { all: true; family?: number }, callback: (error: NodeJS.ErrnoException | null, addresses: LookupAddress[]) => void) => void;
 
 /**
  * A `lookup` for http(s).request that resolves every address of a host and refuses the lot when
