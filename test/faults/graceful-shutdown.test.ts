@@ -1,0 +1,111 @@
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { Redis } from 'ioredis';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { redisForTests, TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
+import { freePort, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, pollJobHttp, ServiceProcess, startHttpApi, startWorkerProcess, until, uploadFloat32 } from './helpers.js';
+
+const withRedis = await redisForTests();
+const { channels, seconds, samplingRate } = LONG_SIGNAL;
+/** SIGTERM → exit: Kubernetes waits 30 s (terminationGracePeriodSeconds) before SIGKILL; common practice. */
+const EXIT_BOUND_MS = 30_000;
+
+async function runningJob(base: string, seed: number): Promise<string> {
+  const signal = await uploadFloat32(base, noiseFloat32(seed, channels, seconds, samplingRate), channels, samplingRate);
+  const submitted = await http(base, 'POST', '/v1/jobs', { signal, recipe: LONG_RECIPE });
+  expect(submitted.status).toBe(202);
+  const id = submitted.body.id as string;
+  await until('the job to run', async () => ((await http(base, 'GET', `/v1/jobs/${id}`)).body.state === 'running' ? true : undefined), 20_000, 50);
+  return id;
+}
+
+async function exitWithin(child: ServiceProcess, ms: number) {
+  const started = Date.now();
+  const result = await Promise.race([child.exited, new Promise<null>((ok) => setTimeout(() => ok(null), ms))]);
+  return { result, ms: Date.now() - started };
+}
+
+describe('when the embedded server gets SIGTERM while a job runs', () => {
+  let dataDir: string;
+  const children: ServiceProcess[] = [];
+
+  beforeAll(async () => {
+    dataDir = await mkdtemp(join(tmpdir(), 'rhythmetric-shutdown-'));
+  });
+
+  afterAll(async () => {
+    await Promise.all(children.map((c) => c.stop()));
+    await rm(dataDir, { recursive: true, force: true });
+  });
+
+  async function serve(): Promise<{ child: ServiceProcess; base: string }> {
+    const port = await freePort();
+    const child = new ServiceProcess('serve', { DATA_DIR: dataDir, PORT: String(port), HOST: '127.0.0.1', RATE_LIMIT_PER_MINUTE: '0' });
+    children.push(child);
+    await child.waitForLog('rhythmetric serving', 20_000);
+    return { child, base: `http://127.0.0.1:${port}` };
+  }
+
+  it('should exit 0 promptly and resume the job from DATA_DIR after a restart', async () => {
+    const first = await serve();
+    const id = await runningJob(first.base, 31);
+    first.child.kill('SIGTERM');
+    const { result, ms } = await exitWithin(first.child, EXIT_BOUND_MS);
+    expect(result, `no exit within ${EXIT_BOUND_MS} ms`).not.toBeNull();
+    expect(result!.code).toBe(0);
+    expect(ms).toBeLessThan(EXIT_BOUND_MS);
+    expect(first.child.logs('shutting down')).toHaveLength(1);
+
+    const second = await serve();
+    const finished = await pollJobHttp(second.base, id, 60_000);
+    expect(finished.state).toBe('succeeded');
+    // The interrupted run and the resumed one.
+    expect(finished.attempts).toBe(2);
+    const record = await http(second.base, 'GET', `/v1/jobs/${id}/record`);
+    expect(record.status).toBe(200);
+    expect(record.body.resultHash).toBe(finished.resultHash);
+  }, 150_000);
+});
+
+describe.skipIf(!withRedis)('when a worker process gets SIGTERM while it computes', () => {
+  const prefix = uniqueName('rm-faults-term');
+  const env = { REDIS_URL: TEST_REDIS_URL, REDIS_PREFIX: prefix, QUEUE_NAME: 'analyses', WORKER_LOCK_MS: '2000' };
+  let api: Awaited<ReturnType<typeof startHttpApi>>;
+  const workers: ServiceProcess[] = [];
+
+  beforeAll(async () => {
+    api = await startHttpApi(env);
+  });
+
+  afterAll(async () => {
+    await Promise.all(workers.map((w) => w.stop()));
+    await api?.stop();
+    const redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
+    const keys = await redis.keys(`${prefix}:*`);
+    if (keys.length > 0) await redis.del(...keys);
+    redis.disconnect();
+  });
+
+  it('should not lose the job: the worker finishes it (or hands it back) and exits 0', async () => {
+    const worker = startWorkerProcess(env);
+    workers.push(worker);
+    await worker.waitForLog('rhythmetric worker started', 20_000);
+    const id = await runningJob(api.base, 37);
+    worker.kill('SIGTERM');
+    const { result } = await exitWithin(worker, 60_000);
+    expect(result, 'the worker did not exit within 60 s').not.toBeNull();
+    expect(result!.code).toBe(0);
+
+    let job = (await http(api.base, 'GET', `/v1/jobs/${id}`)).body;
+    if (job.state !== 'succeeded') {
+      // Handed back instead of finished: another worker must pick it up.
+      const next = startWorkerProcess(env);
+      workers.push(next);
+      job = await pollJobHttp(api.base, id, 100_000);
+    }
+    expect(job.state).toBe('succeeded');
+    const completions = workers.flatMap((w) => w.logs('job completed')).filter((l) => l.jobId === id);
+    expect(completions).toHaveLength(1);
+  }, 180_000);
+});
