@@ -13,6 +13,8 @@ export const PROBLEMS = {
   'limit-exceeded': { status: 422, title: 'A size limit of this server is exceeded', about: 'Too many channels, epochs, samples or too long an FFT; limits are configuration.' },
   'payload-too-large': { status: 413, title: 'The body is too large', about: 'The request body exceeds BODY_LIMIT_BYTES.' },
   'unsupported-media-type': { status: 415, title: 'The content type is not supported', about: 'Send application/json or application/octet-stream.' },
+  'upload-not-found': { status: 404, title: 'Upload not found', about: 'No resumable upload with this id (it may have completed or been abandoned).' },
+  'hash-mismatch': { status: 422, title: 'The content hash does not match', about: 'The joined parts do not have the SHA-256 announced; nothing was stored.' },
   'signal-not-found': { status: 404, title: 'Signal not found', about: 'No signal with this id is stored.' },
   'recipe-not-found': { status: 404, title: 'Recipe not found', about: 'No pinned recipe with this id.' },
   'job-not-found': { status: 404, title: 'Job not found', about: 'No job with this id.' },

@@ -14,6 +14,7 @@ import { registerAuth } from './auth.js';
 import { createMetrics, type Metrics } from './metrics.js';
 import { eventRoutes } from './routes/events.js';
 import { jobRoutes } from './routes/jobs.js';
+import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
@@ -108,6 +109,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(recipeRoutes(deps));
   await app.register(jobRoutes(deps));
   await app.register(eventRoutes(deps));
+  await app.register(uploadRoutes(deps));
   await app.ready();
   return app;
 }

@@ -27,7 +27,7 @@ export function zodValidator(parts: Partial<Record<'body' | 'querystring' | 'par
   return ({ httpPart }) => {
     const schema = parts[httpPart as keyof typeof parts];
     return (data: unknown) => {
-      if (!schema || Buffer.isBuffer(data)) return { value: data };
+      if (!schema || Buffer.isBuffer(data) || (typeof data === 'object' && data !== null && typeof (data as { pipe?: unknown }).pipe === 'function')) return { value: data };
       const parsed = schema.safeParse(data);
       if (parsed.success) return { value: httpPart === 'body' ? data : parsed.data };
       const issues = createValidationError(parsed.error);

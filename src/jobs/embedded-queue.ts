@@ -196,8 +196,9 @@ export class EmbeddedQueue implements JobQueue {
   private async finish(entry: Entry, state: 'succeeded' | 'failed' | 'canceled'): Promise<void> {
     entry.view.state = state;
     entry.view.finishedAt = new Date().toISOString();
-    await this.persist(entry);
+    // Listeners first: a poller can see the finished state as soon as it is set in memory.
     for (const listener of this.finishedListeners) listener({ ...entry.view }, entry.spec);
+    await this.persist(entry);
   }
 
   private persist(entry: Entry): Promise<void> {

@@ -4,9 +4,9 @@ import { canonicalJson } from '../common/canonical-json.js';
 import type { Signal } from './signal.js';
 
 /** Format tag hashed with every signal; bump it if the hashed layout ever changes. */
-export const SIGNAL_HASH_FORMAT = 'rhythmetric-signal/1';
+export const SIGNAL_HASH_FORMAT = 'rhythmetric-signal/2';
 
-export function signalHeader(signal: Signal) {
+export function signalHeader(signal: Omit<Signal, 'data'>) {
   return {
     format: SIGNAL_HASH_FORMAT,
     samplingRate: signal.samplingRate,
@@ -28,11 +28,16 @@ export function sampleBytes(data: Float64Array): Uint8Array {
 }
 
 /**
- * SHA-256 over the canonical JSON header, a newline, then the samples as little-endian float64.
- * The same numbers give the same hash whether they arrived as JSON or as float32 binary.
+ * SHA-256 of the canonical JSON header with, in it, the SHA-256 of the samples as little-endian
+ * float64. The same numbers give the same hash whether they arrived as JSON, float32 binary or EDF,
+ * and the samples' hash can be taken while they stream to disk, before the header is known.
  */
 export function signalSha256(signal: Signal): string {
-  return createHash('sha256').update(canonicalJson(signalHeader(signal))).update('\n').update(sampleBytes(signal.data)).digest('hex');
+  return signalSha256FromParts(signal, createHash('sha256').update(sampleBytes(signal.data)).digest('hex'));
+}
+
+export function signalSha256FromParts(description: Parameters<typeof signalHeader>[0], samplesSha256: string): string {
+  return createHash('sha256').update(canonicalJson({ ...signalHeader(description), samplesSha256 })).digest('hex');
 }
 
 /**

@@ -1,4 +1,4 @@
-import { ANNOTATION_LABEL, EdfFormatError, decodeEdfRecords, parseEdf, type EdfFile, type EdfSignalHeader } from './edf/index.js';
+import { ANNOTATION_LABEL, EdfFormatError, decodeEdfRecords, parseEdf, type EdfFile, type EdfHeader, type EdfSignalHeader } from './edf/index.js';
 import { SignalInputError } from './errors.js';
 import type { SignalLimits } from './limits.js';
 import type { Signal, SignalEvent } from './signal.js';
@@ -27,7 +27,7 @@ const RATE_TOLERANCE = 1e-9;
 
 type OrdinarySignal = EdfSignalHeader & { samplingRate: number };
 
-function formatError(error: EdfFormatError): SignalInputError {
+export function formatError(error: EdfFormatError): SignalInputError {
   const located = error.message.includes(`offset ${error.offset}`);
   const message = located ? error.message : `${error.message} (${error.field} at byte offset ${error.offset})`;
   return new SignalInputError('format', message, BODY);
@@ -57,7 +57,7 @@ function sameRate(a: number, b: number): boolean {
   return Math.abs(a - b) <= RATE_TOLERANCE * Math.max(Math.abs(a), Math.abs(b));
 }
 
-function selectByLabel(ordinary: readonly OrdinarySignal[], file: EdfFile, labels: readonly string[]): OrdinarySignal[] {
+function selectByLabel(ordinary: readonly OrdinarySignal[], header: EdfHeader, labels: readonly string[]): OrdinarySignal[] {
   if (labels.length === 0) throw new SignalInputError('channels', `select at least one channel; the file's signals are ${labelList(ordinary)}`, CHANNELS_QUERY);
   return labels.map((label, i) => {
     const before = labels.indexOf(label);
@@ -68,7 +68,7 @@ function selectByLabel(ordinary: readonly OrdinarySignal[], file: EdfFile, label
       const positions = matches.map((s) => s.index + 1).join(', ');
       throw new SignalInputError('channels', `channel "${label}" is ambiguous: signals ${positions} of the file share that label`, `${CHANNELS_QUERY}/${i}`);
     }
-    const why = file.header.annotationSignals.length > 0 && label === ANNOTATION_LABEL ? ' (it holds the EDF+ annotations, which become events, not samples)' : '';
+    const why = header.annotationSignals.length > 0 && label === ANNOTATION_LABEL ? ' (it holds the EDF+ annotations, which become events, not samples)' : '';
     throw new SignalInputError(
       'channels',
       `the file has no ordinary signal labelled "${label}"${why}; its signals are ${labelList(ordinary)}`,
@@ -171,13 +171,55 @@ export function edfToSignal(bytes: Uint8Array, options: EdfUploadOptions, limits
       BODY,
     );
   }
+  const plan = planEdfSignal(header, options, limits);
+  let decoded;
+  try {
+    decoded = decodeEdfRecords(plan.header, bytes, { channels: plan.channelIndices, annotations: false });
+  } catch (error) {
+    throw error instanceof EdfFormatError ? formatError(error) : error;
+  }
+  const { samplesPerEpoch, channels } = plan;
+  const data = new Float64Array(channels.length * samplesPerEpoch);
+  decoded.signals.forEach((s, c) => data.set(s.samples, c * samplesPerEpoch));
+
+  const signal: Signal = {
+    samplingRate: plan.samplingRate,
+    channels,
+    unit: plan.unit,
+    epochCount: 1,
+    samplesPerEpoch,
+    data,
+  };
+  if (file.annotations.length > 0) {
+    const firstSample = file.recordStarts[0] ?? 0;
+    signal.events = file.annotations.map((a): SignalEvent => ({ onset: a.onset - firstSample, duration: a.duration, label: a.label }));
+  }
+  return signal;
+}
+
+/** What to read from an EDF file: the selected ordinary signals, checked, with voltages in µV. */
+export interface EdfPlan {
+  /** the file's header with the selected signals' physical extremes rewritten in µV */
+  header: EdfHeader;
+  channelIndices: number[];
+  channels: string[];
+  unit: string;
+  samplingRate: number;
+  samplesPerEpoch: number;
+}
+
+/**
+ * Checks the selection, rates, units and limits against the header alone (no sample is read), so a
+ * large file can be refused, or decoded piecewise, after its first 256·(ns + 1) bytes.
+ */
+export function planEdfSignal(header: EdfHeader, options: EdfUploadOptions, limits: SignalLimits): EdfPlan {
   const ordinary = header.signals.filter((s): s is OrdinarySignal => !s.isAnnotation && s.samplingRate !== null);
   if (ordinary.length === 0) {
     throw new SignalInputError('channels', `the file holds ${header.signalCount} annotation signal(s) and no ordinary signal, so there are no samples`, BODY);
   }
 
   const pointer = options.channels ? CHANNELS_QUERY : BODY;
-  const chosen = pickRate(options.channels ? selectByLabel(ordinary, file, options.channels) : ordinary, ordinary, options);
+  const chosen = pickRate(options.channels ? selectByLabel(ordinary, header, options.channels) : ordinary, ordinary, options);
   checkLabels(chosen, pointer);
   const units = chosen.map(unitOf);
   if (units.some((u) => u.unit !== units[0]!.unit)) {
@@ -209,29 +251,14 @@ export function edfToSignal(bytes: Uint8Array, options: EdfUploadOptions, limits
       return [s.index, { ...s, physicalMinimum, physicalMaximum, gain: (physicalMaximum - physicalMinimum) / (s.digitalMaximum - s.digitalMinimum) }];
     }),
   );
-  const microvoltHeader = { ...header, signals: header.signals.map((s) => scaled.get(s.index) ?? s) };
-  let decoded;
-  try {
-    decoded = decodeEdfRecords(microvoltHeader, bytes, { channels: chosen.map((s) => s.index), annotations: false });
-  } catch (error) {
-    throw error instanceof EdfFormatError ? formatError(error) : error;
-  }
-  const data = new Float64Array(channels.length * samplesPerEpoch);
-  decoded.signals.forEach((s, c) => data.set(s.samples, c * samplesPerEpoch));
-
-  const signal: Signal = {
-    samplingRate: chosen[0]!.samplingRate,
+  return {
+    header: { ...header, signals: header.signals.map((s) => scaled.get(s.index) ?? s) },
+    channelIndices: chosen.map((s) => s.index),
     channels,
     unit: units[0]!.unit,
-    epochCount: 1,
+    samplingRate: chosen[0]!.samplingRate,
     samplesPerEpoch,
-    data,
   };
-  if (file.annotations.length > 0) {
-    const firstSample = file.recordStarts[0] ?? 0;
-    signal.events = file.annotations.map((a): SignalEvent => ({ onset: a.onset - firstSample, duration: a.duration, label: a.label }));
-  }
-  return signal;
 }
 
 /** value·10^exponent computed on the decimal digits, exactly as if the field had been written in the new unit. */

@@ -48,6 +48,28 @@ export class FilesystemStore implements Store {
     await this.adjustUsage(1, meta.bytes);
   }
 
+  async putSignalFile(meta: SignalMeta, path: string): Promise<void> {
+    const id = checkKey(meta.id);
+    if (await this.getSignalMeta(id)) {
+      await rm(path, { force: true });
+      return;
+    }
+    const handle = await open(path, 'r+');
+    try {
+      await handle.sync();
+    } finally {
+      await handle.close();
+    }
+    await rename(path, join(this.dataDir, 'signals', `${id}.f64`));
+    await this.writeAtomic(join(this.dataDir, 'signals', `${id}.json`), JSON.stringify(meta));
+    await this.adjustUsage(1, meta.bytes);
+  }
+
+  async tempDir(): Promise<string> {
+    await this.init();
+    return join(this.dataDir, 'tmp');
+  }
+
   async listSignals(): Promise<string[]> {
     await this.init();
     return (await readdir(join(this.dataDir, 'signals'))).filter((n) => n.endsWith('.json')).map((n) => n.slice(0, -5)).sort();
@@ -95,8 +117,21 @@ export class FilesystemStore implements Store {
   async getSignal(id: string) {
     const meta = await this.getSignalMeta(id);
     if (!meta) return null;
-    const samples = await readFile(join(this.dataDir, 'signals', `${checkKey(id)}.f64`));
-    return { meta, signal: signalFromParts(meta, samples) };
+    // Read straight into the Float64Array's memory: a large recording is held once, not twice.
+    const data = new Float64Array(meta.bytes / 8);
+    const bytes = new Uint8Array(data.buffer);
+    const handle = await open(join(this.dataDir, 'signals', `${checkKey(id)}.f64`), 'r');
+    try {
+      let offset = 0;
+      while (offset < bytes.length) {
+        const { bytesRead } = await handle.read(bytes, offset, Math.min(bytes.length - offset, 1 << 26), offset);
+        if (bytesRead === 0) throw new Error(`stored samples of ${id} end after ${offset} of ${meta.bytes} bytes`);
+        offset += bytesRead;
+      }
+    } finally {
+      await handle.close();
+    }
+    return { meta, signal: signalFromParts(meta, bytes) };
   }
 
   async putDocument(collection: Collection, key: string, text: string): Promise<void> {

@@ -1,4 +1,10 @@
+import { mkdir, readFile, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { Redis } from 'ioredis';
+
+/** Redis strings hold at most 512 MiB. */
+const REDIS_VALUE_LIMIT = 512 * 1024 * 1024;
 import { checkKey, signalFromParts, type Collection, type SignalMeta, type Store } from './store.js';
 
 /**
@@ -32,6 +38,23 @@ export class RedisStore implements Store {
       .incrby(this.key('usage', 'bytes'), meta.bytes)
       .incr(this.key('usage', 'signals'))
       .exec();
+  }
+
+  async putSignalFile(meta: SignalMeta, path: string): Promise<void> {
+    try {
+      if (meta.bytes > REDIS_VALUE_LIMIT) {
+        throw new RangeError(`a signal of ${meta.bytes} bytes exceeds what one Redis value can hold (${REDIS_VALUE_LIMIT}); use STORE=filesystem on a shared disk for recordings this large`);
+      }
+      await this.putSignal(meta, await readFile(path));
+    } finally {
+      await rm(path, { force: true });
+    }
+  }
+
+  async tempDir(): Promise<string> {
+    const dir = join(tmpdir(), 'rhythmetric-ingest');
+    await mkdir(dir, { recursive: true });
+    return dir;
   }
 
   async listSignals(): Promise<string[]> {

@@ -23,6 +23,10 @@ export type Collection = 'recipes' | 'records' | 'jobs';
 export interface Store {
   readonly kind: 'filesystem' | 'redis';
   putSignal(meta: SignalMeta, samples: Uint8Array): Promise<void>;
+  /** Stores samples already written (little-endian float64) to `path` under tempDir(); the file is moved or consumed. */
+  putSignalFile(meta: SignalMeta, path: string): Promise<void>;
+  /** A directory for files on their way into the store (same file system for filesystem stores). */
+  tempDir(): Promise<string>;
   getSignalMeta(id: string): Promise<SignalMeta | null>;
   getSignal(id: string): Promise<{ meta: SignalMeta; signal: Signal } | null>;
   putDocument(collection: Collection, key: string, text: string): Promise<void>;
@@ -45,8 +49,9 @@ export function signalFromParts(meta: SignalMeta, samples: Uint8Array): Signal {
   if (samples.byteLength !== meta.bytes) {
     throw new Error(`stored samples of ${meta.id} have ${samples.byteLength} bytes, expected ${meta.bytes}`);
   }
-  const copy = new Float64Array(meta.bytes / 8);
-  new Uint8Array(copy.buffer).set(samples);
+  const aligned = samples.byteOffset % 8 === 0 && samples.buffer instanceof ArrayBuffer;
+  const copy = aligned ? new Float64Array(samples.buffer, samples.byteOffset, meta.bytes / 8) : new Float64Array(meta.bytes / 8);
+  if (!aligned) new Uint8Array(copy.buffer).set(samples);
   const signal: Signal = {
     samplingRate: meta.samplingRate,
     channels: meta.channels,

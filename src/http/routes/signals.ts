@@ -1,7 +1,9 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { decodeBinarySignal } from '../../signals/decode-binary.js';
+import type { Readable } from 'node:stream';
+import { ingestFile, StorageFullError, type IngestDescription } from '../../stores/ingest.js';
+import { ProblemError } from '../problem.js';
+import { receiveToFile } from '../receive.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
-import { edfToSignal } from '../../signals/edf-to-signal.js';
 import { BinaryUploadQuery, EdfUploadQuery, IdParams, UploadQueryDoc, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
 import { getSignalMeta, storeSignal } from '../services.js';
 import { validationError, zodValidator } from '../validation.js';
@@ -9,8 +11,26 @@ import { tenantOf } from '../auth.js';
 import { z } from 'zod';
 import type { AppDeps } from '../app.js';
 
+/** The query of a binary upload, parsed by its format. */
+export function binaryDescription(query: unknown): IngestDescription {
+  if ((query as { format?: string }).format === 'edf') {
+    const parsed = EdfUploadQuery.safeParse(query);
+    if (!parsed.success) throw validationError(parsed.error, 'querystring');
+    return { format: 'edf', channels: parsed.data.channels, samplingRate: parsed.data.samplingRate };
+  }
+  const parsed = BinaryUploadQuery.safeParse(query);
+  if (!parsed.success) throw validationError(parsed.error, 'querystring');
+  return { ...parsed.data, format: 'float32' };
+}
+
+function isStream(body: unknown): body is Readable {
+  return !!body && typeof (body as Readable).pipe === 'function';
+}
+
 export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
-  app.addContentTypeParser('application/octet-stream', { parseAs: 'buffer', bodyLimit: deps.config.bodyLimitBytes }, (_request, body, done) => done(null, body));
+  // Binary bodies are not buffered: the handler streams them to a file under the store's temp
+  // directory and ingests that in bounded chunks, so a gigabyte upload never sits in memory.
+  app.addContentTypeParser('application/octet-stream', (_request, payload, done) => done(null, payload));
 
   app.post(
     '/v1/signals',
@@ -35,19 +55,22 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     },
     async (request, reply) => {
       const limits = deps.config.signalLimits;
-      let signal;
-      if (Buffer.isBuffer(request.body) && (request.query as { format?: string }).format === 'edf') {
-        const parsed = EdfUploadQuery.safeParse(request.query);
-        if (!parsed.success) throw validationError(parsed.error, 'querystring');
-        signal = edfToSignal(request.body, { ...(parsed.data.channels ? { channels: parsed.data.channels } : {}), ...(parsed.data.samplingRate ? { samplingRate: parsed.data.samplingRate } : {}) }, limits);
-      } else if (Buffer.isBuffer(request.body)) {
-        const parsed = BinaryUploadQuery.safeParse(request.query);
-        if (!parsed.success) throw validationError(parsed.error, 'querystring');
-        signal = decodeBinarySignal(request.body, parsed.data, limits);
+      let meta;
+      if (isStream(request.body)) {
+        const description = binaryDescription(request.query);
+        const raw = await receiveToFile(request.body, await deps.store.tempDir(), deps.config.bodyLimitBytes, request.headers['content-length']);
+        try {
+          meta = await ingestFile(deps.store, raw.path, description, { tenant: tenantOf(request), limits, maxStoreBytes: deps.config.maxStoreBytes });
+        } catch (error) {
+          if (error instanceof StorageFullError) throw new ProblemError('storage-full', error.message);
+          throw error;
+        } finally {
+          await raw.remove();
+        }
       } else {
-        signal = decodeJsonSignal(request.body as Parameters<typeof decodeJsonSignal>[0], limits);
+        const signal = decodeJsonSignal(request.body as Parameters<typeof decodeJsonSignal>[0], limits);
+        meta = await storeSignal(deps.store, signal, tenantOf(request), deps.config.maxStoreBytes);
       }
-      const meta = await storeSignal(deps.store, signal, tenantOf(request), deps.config.maxStoreBytes);
       request.log.info({ signalId: meta.id, bytes: meta.bytes }, 'signal stored');
       return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
     },

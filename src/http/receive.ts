@@ -1,0 +1,54 @@
+import { randomBytes } from 'node:crypto';
+import { createWriteStream } from 'node:fs';
+import { rm } from 'node:fs/promises';
+import { join } from 'node:path';
+import type { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import { Transform } from 'node:stream';
+import { createHash } from 'node:crypto';
+import { ProblemError } from './problem.js';
+
+export interface ReceivedFile {
+  path: string;
+  bytes: number;
+  /** SHA-256 of the raw bytes as received */
+  sha256: string;
+  remove(): Promise<void>;
+}
+
+/**
+ * Streams a request body to a file, counting and hashing as it goes. A declared Content-Length
+ * over the limit is refused before reading; a body that grows past it is cut off. Either way the
+ * answer is 413 and the partial file is removed.
+ */
+export async function receiveToFile(body: Readable, dir: string, limit: number, declared?: string | undefined): Promise<ReceivedFile> {
+  if (declared !== undefined && Number(declared) > limit) {
+    body.resume();
+    throw new ProblemError('payload-too-large', `the body of ${declared} bytes exceeds this server's limit of ${limit} bytes`);
+  }
+  const path = join(dir, `${randomBytes(8).toString('hex')}.upload`);
+  const hash = createHash('sha256');
+  let bytes = 0;
+  const meter = new Transform({
+    transform(chunk: Buffer, _encoding, done) {
+      bytes += chunk.length;
+      if (bytes > limit) {
+        done(new ProblemError('payload-too-large', `the body exceeds this server's limit of ${limit} bytes`));
+        return;
+      }
+      hash.update(chunk);
+      done(null, chunk);
+    },
+  });
+  try {
+    await pipeline(body, meter, createWriteStream(path));
+  } catch (error) {
+    await rm(path, { force: true });
+    if (error instanceof ProblemError) {
+      body.resume();
+      throw error;
+    }
+    throw new ProblemError('invalid-request', `the body could not be received: ${error instanceof Error ? error.message : String(error)}`);
+  }
+  return { path, bytes, sha256: hash.digest('hex'), remove: () => rm(path, { force: true }) };
+}

@@ -1,0 +1,201 @@
+import { randomBytes } from 'node:crypto';
+import { createReadStream, createWriteStream } from 'node:fs';
+import { mkdir, readdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import type { Readable } from 'node:stream';
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { z } from 'zod';
+import { ingestFile, StorageFullError, type IngestDescription } from '../../stores/ingest.js';
+import type { AppDeps } from '../app.js';
+import { tenantOf } from '../auth.js';
+import { ProblemError } from '../problem.js';
+import { receiveToFile } from '../receive.js';
+import { problemResponse, SignalInfoSchema } from '../schemas.js';
+import { zodValidator } from '../validation.js';
+
+const MAX_PARTS = 10_000;
+
+const UploadStart = z
+  .strictObject({
+    format: z.enum(['float32', 'edf']),
+    samplingRate: z.number().positive().optional().describe('float32: Hz (required); edf: keep the signals of this rate'),
+    channels: z.array(z.string().min(1)).min(1).max(1024).optional().describe('float32: names (required); edf: labels to keep'),
+    epochCount: z.number().int().min(1).default(1).describe('float32 only'),
+    unit: z.string().min(1).max(32).optional().describe('float32 only; default uV'),
+    nonFinite: z.enum(['reject', 'keep']).optional().describe('float32 only'),
+    sha256: z.string().regex(/^[0-9a-f]{64}$/).optional().describe('SHA-256 of the whole file (all parts in order); checked when the upload completes'),
+  })
+  .meta({ id: 'UploadStart', description: 'Starts a resumable upload of a large file in numbered parts.' });
+
+const UploadState = z
+  .object({
+    id: z.string(),
+    format: z.enum(['float32', 'edf']),
+    parts: z.array(z.object({ part: z.number().int(), bytes: z.number().int(), sha256: z.string() })),
+    bytes: z.number().int(),
+    createdAt: z.string(),
+  })
+  .meta({ id: 'Upload' });
+
+const UploadParams = z.object({ id: z.string().regex(/^upl_[0-9a-f]{32}$/, 'an upload id is upl_ followed by 32 hex digits') });
+const PartParams = UploadParams.extend({ part: z.coerce.number().int().min(1).max(MAX_PARTS) });
+
+interface Stored {
+  id: string;
+  tenant: string;
+  start: z.infer<typeof UploadStart>;
+  createdAt: string;
+}
+
+/**
+ * Resumable uploads for recordings too large for one request: POST /v1/uploads, PUT numbered
+ * parts (any order, a part may be sent again), then POST …/complete, which joins the parts,
+ * checks the SHA-256 the client announced and stores the signal. Parts live on the API's disk
+ * under the store's temp directory until then.
+ */
+export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
+  app.addContentTypeParser('application/octet-stream', (_request, payload, done) => done(null, payload));
+
+  const root = async () => join(await deps.store.tempDir(), 'uploads');
+  async function load(id: string, tenant: string): Promise<{ dir: string; stored: Stored }> {
+    const dir = join(await root(), id);
+    const text = await readFile(join(dir, 'upload.json'), 'utf8').catch(() => null);
+    const stored = text ? (JSON.parse(text) as Stored) : null;
+    if (!stored || stored.tenant !== tenant) throw new ProblemError('upload-not-found', `no upload with id "${id}"`);
+    return { dir, stored };
+  }
+  async function parts(dir: string) {
+    const names = (await readdir(dir)).filter((n) => /^\d+\.part$/.test(n));
+    const list = await Promise.all(
+      names.map(async (n) => {
+        const [sha256, size] = await Promise.all([readFile(join(dir, `${n}.sha256`), 'utf8').catch(() => ''), stat(join(dir, n)).then((s) => s.size)]);
+        return { part: Number(n.slice(0, -5)), bytes: size, sha256 };
+      }),
+    );
+    return list.sort((a, b) => a.part - b.part);
+  }
+  const view = async (dir: string, stored: Stored) => {
+    const list = await parts(dir);
+    return { id: stored.id, format: stored.start.format, parts: list, bytes: list.reduce((s, p) => s + p.bytes, 0), createdAt: stored.createdAt };
+  };
+
+  app.post(
+    '/v1/uploads',
+    {
+      config: { access: 'submit' },
+      schema: { summary: 'Start a resumable upload', tags: ['signals'], body: UploadStart, response: { 201: UploadState, 422: problemResponse('invalid description') } },
+    },
+    async (request, reply) => {
+      const start = request.body;
+      if (start.format === 'float32' && (start.samplingRate === undefined || start.channels === undefined)) {
+        throw new ProblemError('invalid-signal', 'a float32 upload needs samplingRate and channels', start.samplingRate === undefined ? '/samplingRate' : '/channels');
+      }
+      const id = `upl_${randomBytes(16).toString('hex')}`;
+      const dir = join(await root(), id);
+      await mkdir(dir, { recursive: true });
+      const stored: Stored = { id, tenant: tenantOf(request), start, createdAt: new Date().toISOString() };
+      await writeFile(join(dir, 'upload.json'), JSON.stringify(stored));
+      return reply.code(201).header('location', `/v1/uploads/${id}`).send(await view(dir, stored));
+    },
+  );
+
+  app.put(
+    '/v1/uploads/:id/parts/:part',
+    {
+      config: { access: 'submit' },
+      schema: {
+        summary: 'Send one numbered part (1, 2, …) of the file; sending a part again replaces it',
+        tags: ['signals'],
+        params: PartParams,
+        response: { 200: z.object({ part: z.number().int(), bytes: z.number().int(), sha256: z.string() }), 404: problemResponse('unknown upload'), 413: problemResponse('part too large') },
+      },
+      validatorCompiler: zodValidator({ params: PartParams }),
+    },
+    async (request) => {
+      const { id, part } = request.params as z.infer<typeof PartParams>;
+      const { dir } = await load(id, tenantOf(request));
+      if (!request.body || typeof (request.body as Readable).pipe !== 'function') throw new ProblemError('unsupported-media-type', 'send the part as application/octet-stream');
+      const received = await receiveToFile(request.body as Readable, dir, deps.config.bodyLimitBytes, request.headers['content-length']);
+      await writeFile(join(dir, `${part}.part.sha256`), received.sha256);
+      await rename(received.path, join(dir, `${part}.part`));
+      return { part, bytes: received.bytes, sha256: received.sha256 };
+    },
+  );
+
+  app.get(
+    '/v1/uploads/:id',
+    { schema: { summary: 'Parts received so far (to resume an interrupted upload)', tags: ['signals'], params: UploadParams, response: { 200: UploadState, 404: problemResponse('unknown upload') } } },
+    async (request) => {
+      const { dir, stored } = await load(request.params.id, tenantOf(request));
+      return view(dir, stored);
+    },
+  );
+
+  app.delete(
+    '/v1/uploads/:id',
+    { config: { access: 'submit' }, schema: { summary: 'Abandon an upload and its parts', tags: ['signals'], params: UploadParams, response: { 200: z.object({ id: z.string(), deleted: z.literal(true) }) } } },
+    async (request) => {
+      const { dir } = await load(request.params.id, tenantOf(request));
+      await rm(dir, { recursive: true, force: true });
+      return { id: request.params.id, deleted: true as const };
+    },
+  );
+
+  app.post(
+    '/v1/uploads/:id/complete',
+    {
+      config: { access: 'submit' },
+      schema: {
+        summary: 'Join the parts in order, check the SHA-256 and store the signal',
+        tags: ['signals'],
+        params: UploadParams,
+        body: z.strictObject({ sha256: z.string().regex(/^[0-9a-f]{64}$/).optional(), parts: z.number().int().min(1).max(MAX_PARTS).optional().describe('the number of parts sent; checked') }).optional(),
+        response: { 201: SignalInfoSchema, 404: problemResponse('unknown upload'), 422: problemResponse('missing parts, a hash mismatch or an unusable file') },
+      },
+    },
+    async (request, reply) => {
+      const { dir, stored } = await load(request.params.id, tenantOf(request));
+      const list = await parts(dir);
+      const expectedCount = request.body?.parts ?? list.length;
+      if (list.length === 0) throw new ProblemError('invalid-signal', 'no part has been received', '/parts');
+      const missing = Array.from({ length: expectedCount }, (_, i) => i + 1).filter((n) => !list.some((p) => p.part === n));
+      if (missing.length > 0 || list.length !== expectedCount) {
+        throw new ProblemError('invalid-signal', `parts must be numbered 1…${expectedCount} without gaps; missing ${missing.slice(0, 10).join(', ') || 'none'}, received ${list.map((p) => p.part).slice(0, 10).join(', ')}`, '/parts');
+      }
+      const joined = join(dir, 'joined.raw');
+      const hash = (await import('node:crypto')).createHash('sha256');
+      const out = createWriteStream(joined);
+      for (const p of list) {
+        await new Promise<void>((resolve, reject) => {
+          const input = createReadStream(join(dir, `${p.part}.part`));
+          input.on('data', (chunk) => hash.update(chunk));
+          input.on('error', reject);
+          input.on('end', resolve);
+          input.pipe(out, { end: false });
+        });
+      }
+      await new Promise<void>((resolve, reject) => out.end((error?: Error | null) => (error ? reject(error) : resolve())));
+      const actual = hash.digest('hex');
+      const expected = request.body?.sha256 ?? stored.start.sha256;
+      if (expected && expected !== actual) {
+        await rm(joined, { force: true });
+        throw new ProblemError('hash-mismatch', `the joined parts have SHA-256 ${actual}, not the ${expected} announced; resend the parts that differ (GET the upload lists each part's hash)`, '/sha256');
+      }
+      const s = stored.start;
+      const description: IngestDescription =
+        s.format === 'edf'
+          ? { format: 'edf', channels: s.channels, samplingRate: s.samplingRate }
+          : { format: 'float32', samplingRate: s.samplingRate!, channels: s.channels!, epochCount: s.epochCount, unit: s.unit, nonFinite: s.nonFinite };
+      try {
+        const meta = await ingestFile(deps.store, joined, description, { tenant: stored.tenant, limits: deps.config.signalLimits, maxStoreBytes: deps.config.maxStoreBytes });
+        await rm(dir, { recursive: true, force: true });
+        request.log.info({ uploadId: stored.id, signalId: meta.id, bytes: meta.bytes, parts: list.length }, 'upload completed');
+        return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
+      } catch (error) {
+        await rm(joined, { force: true });
+        if (error instanceof StorageFullError) throw new ProblemError('storage-full', error.message);
+        throw error;
+      }
+    },
+  );
+};

@@ -1,0 +1,239 @@
+import { createHash, randomBytes } from 'node:crypto';
+import { open, rm, stat, type FileHandle } from 'node:fs/promises';
+import { join } from 'node:path';
+import { signalIdFromHash, signalSha256FromParts } from '../signals/content-hash.js';
+import { EdfFormatError, decodeEdfRecords, readEdfHeader, type EdfHeader } from '../signals/edf/index.js';
+import { formatError, planEdfSignal } from '../signals/edf-to-signal.js';
+import { SignalInputError } from '../signals/errors.js';
+import type { SignalLimits } from '../signals/limits.js';
+import type { SignalEvent } from '../signals/signal.js';
+import { checkSignalShape } from '../signals/validate.js';
+import type { SignalMeta, Store } from './store.js';
+
+export type IngestDescription =
+  | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; nonFinite?: 'reject' | 'keep' | undefined }
+  | { format: 'edf'; channels?: string[] | undefined; samplingRate?: number | undefined };
+
+export interface IngestOptions {
+  tenant: string;
+  limits: SignalLimits;
+  /** 0 = no limit */
+  maxStoreBytes: number;
+}
+
+/** Bytes read or written per step: memory stays bounded by a few of these, whatever the file size. */
+const CHUNK = 8 * 1024 * 1024;
+
+/**
+ * Turns a raw upload already on disk (float32 or EDF/EDF+) into a stored signal without holding the
+ * recording in memory: samples are converted chunk by chunk into a float64 file under the store's
+ * temp directory, hashed, then moved into place. Nothing is stored when any check fails.
+ */
+export async function ingestFile(store: Store, rawPath: string, description: IngestDescription, options: IngestOptions): Promise<SignalMeta> {
+  const out = join(await store.tempDir(), `${randomBytes(8).toString('hex')}.f64.part`);
+  try {
+    const decoded = description.format === 'float32' ? await decodeFloat32File(rawPath, out, description, options.limits) : await decodeEdfFile(rawPath, out, description, options.limits);
+    const samplesSha256 = await hashFile(out);
+    const sha256 = signalSha256FromParts(decoded.description, samplesSha256);
+    const id = signalIdFromHash(sha256, options.tenant);
+    const existing = await store.getSignalMeta(id);
+    if (existing) return existing;
+    const bytes = decoded.description.epochCount * decoded.description.channels.length * decoded.description.samplesPerEpoch * 8;
+    if (options.maxStoreBytes > 0) {
+      const usage = await store.usage();
+      if (usage.bytes + bytes > options.maxStoreBytes) throw new StorageFullError(bytes, usage.bytes, options.maxStoreBytes);
+    }
+    const meta: SignalMeta = {
+      id,
+      sha256,
+      tenant: options.tenant,
+      ...decoded.description,
+      nonFiniteSamples: decoded.nonFinite,
+      events: decoded.description.events ?? [],
+      bytes,
+      storedAt: new Date().toISOString(),
+    };
+    await store.putSignalFile(meta, out);
+    return meta;
+  } finally {
+    await rm(out, { force: true });
+  }
+}
+
+export class StorageFullError extends Error {
+  override readonly name = 'StorageFullError';
+  constructor(
+    readonly needed: number,
+    readonly used: number,
+    readonly limit: number,
+  ) {
+    super(`storing ${needed} bytes would exceed this server's limit of ${limit} bytes (${used} in use); nothing was stored`);
+  }
+}
+
+interface Decoded {
+  description: { samplingRate: number; channels: string[]; unit: string; epochCount: number; samplesPerEpoch: number; events?: SignalEvent[] };
+  nonFinite: number;
+}
+
+async function decodeFloat32File(rawPath: string, out: string, d: Extract<IngestDescription, { format: 'float32' }>, limits: SignalLimits): Promise<Decoded> {
+  const size = (await stat(rawPath)).size;
+  if (size % 4 !== 0) throw new SignalInputError('shape', `the body has ${size} bytes, not a whole number of float32 samples`, '/body');
+  const values = size / 4;
+  const rows = d.epochCount * d.channels.length;
+  if (rows === 0 || values % rows !== 0) throw new SignalInputError('shape', `${values} float32 samples do not divide into ${d.epochCount} epoch(s) × ${d.channels.length} channel(s)`, '/body');
+  const samplesPerEpoch = values / rows;
+  checkSignalShape({ samplingRate: d.samplingRate, channels: d.channels, epochCount: d.epochCount, samplesPerEpoch }, limits, {
+    samplingRate: '/query/samplingRate',
+    channels: '/query/channels',
+    samples: '/body',
+  });
+  const keep = d.nonFinite === 'keep';
+  let nonFinite = 0;
+  const input = await open(rawPath, 'r');
+  const output = await open(out, 'w');
+  try {
+    const raw = Buffer.alloc(CHUNK);
+    const wide = new Float64Array(CHUNK / 4);
+    let index = 0;
+    for (let position = 0; position < size; ) {
+      const { bytesRead } = await input.read(raw, 0, Math.min(CHUNK, size - position), position);
+      if (bytesRead === 0) throw new Error(`upload file ended after ${position} of ${size} bytes`);
+      const count = bytesRead / 4;
+      for (let i = 0; i < count; i++, index++) {
+        const v = raw.readFloatLE(i * 4);
+        if (!Number.isFinite(v)) {
+          if (!keep) {
+            const row = Math.floor(index / samplesPerEpoch);
+            throw new SignalInputError(
+              'non-finite',
+              `sample ${index % samplesPerEpoch} of channel "${d.channels[row % d.channels.length]}" in epoch ${Math.floor(row / d.channels.length)} is ${v} (byte offset ${index * 4}); use nonFinite=keep to store it as a gap`,
+              '/body',
+            );
+          }
+          nonFinite++;
+        }
+        wide[i] = v;
+      }
+      await writeAll(output, new Uint8Array(wide.buffer, 0, count * 8), position * 2);
+      position += bytesRead;
+    }
+  } finally {
+    await input.close();
+    await output.close();
+  }
+  return { description: { samplingRate: d.samplingRate, channels: [...d.channels], unit: d.unit ?? 'uV', epochCount: d.epochCount, samplesPerEpoch }, nonFinite };
+}
+
+async function decodeEdfFile(rawPath: string, out: string, d: Extract<IngestDescription, { format: 'edf' }>, limits: SignalLimits): Promise<Decoded> {
+  const size = (await stat(rawPath)).size;
+  const input = await open(rawPath, 'r');
+  const output = await open(out, 'w');
+  try {
+    const header = await readHeader(input, size);
+    const expected = header.headerBytes + header.recordCount * header.recordBytes;
+    if (size !== expected) {
+      throw new SignalInputError(
+        'format',
+        `the file has ${size} bytes but its header (${header.headerBytes} bytes) and ${header.recordCount} data records of ${header.recordBytes} bytes need ${expected} (number of data records at offset 236)`,
+        '/body',
+      );
+    }
+    const plan = planEdfSignal(header, { ...(d.channels ? { channels: d.channels } : {}), ...(d.samplingRate ? { samplingRate: d.samplingRate } : {}) }, limits);
+    const perRecord = plan.samplesPerEpoch / Math.max(1, header.recordCount);
+    const batch = Math.max(1, Math.floor(CHUNK / header.recordBytes));
+    const events: SignalEvent[] = [];
+    let firstStart: number | null = null;
+    let expectedStart = 0;
+    const gaps: string[] = [];
+    const buffer = Buffer.alloc(batch * header.recordBytes);
+    for (let r0 = 0; r0 < header.recordCount; r0 += batch) {
+      const r1 = Math.min(header.recordCount, r0 + batch);
+      const origin = header.headerBytes + r0 * header.recordBytes;
+      const length = (r1 - r0) * header.recordBytes;
+      await readAll(input, buffer, length, origin);
+      let records;
+      try {
+        records = decodeEdfRecords(plan.header, buffer.subarray(0, length), { channels: plan.channelIndices, startRecord: r0, endRecord: r1, bytesOrigin: origin, annotations: true });
+      } catch (error) {
+        throw error instanceof EdfFormatError ? formatError(error) : error;
+      }
+      // Record start times: continuity across batches (within a batch the decoder checks EDF+C).
+      for (let k = 0; k < records.recordStarts.length; k++) {
+        const start = records.recordStarts[k]!;
+        if (firstStart === null) firstStart = start;
+        else if (Math.abs(start - expectedStart) > 1e-6 * Math.max(1, header.recordDuration)) gaps.push(`after record ${r0 + k}, ${expectedStart} s to ${start} s`);
+        expectedStart = start + header.recordDuration;
+      }
+      for (const a of records.annotations) events.push({ onset: a.onset, duration: a.duration, label: a.label });
+      for (let c = 0; c < records.signals.length; c++) {
+        const samples = records.signals[c]!.samples;
+        await writeAll(output, new Uint8Array(samples.buffer, samples.byteOffset, samples.byteLength), (c * plan.samplesPerEpoch + r0 * perRecord) * 8);
+      }
+    }
+    if (gaps.length > 0) {
+      throw new SignalInputError(
+        'format',
+        `this EDF+D file is discontinuous: ${gaps.length} gap(s) between data records (${gaps.slice(0, 5).join('; ')}); discontinuous recordings are not supported yet, so upload each continuous part as its own file`,
+        '/body',
+      );
+    }
+    const offset = firstStart ?? 0;
+    const shifted = events.map((ev) => ({ ...ev, onset: ev.onset - offset }));
+    return {
+      description: { samplingRate: plan.samplingRate, channels: plan.channels, unit: plan.unit, epochCount: 1, samplesPerEpoch: plan.samplesPerEpoch, ...(shifted.length ? { events: shifted } : {}) },
+      nonFinite: 0,
+    };
+  } finally {
+    await input.close();
+    await output.close();
+  }
+}
+
+async function readHeader(input: FileHandle, size: number): Promise<EdfHeader> {
+  const fixed = Buffer.alloc(Math.min(256, size));
+  await readAll(input, fixed, fixed.length, 0);
+  const count = Number(fixed.subarray(252, 256).toString('latin1').trim());
+  const length = Number.isInteger(count) && count > 0 && count < 100_000 ? Math.min(size, 256 + 256 * count) : fixed.length;
+  const bytes = Buffer.alloc(length);
+  await readAll(input, bytes, length, 0);
+  try {
+    return readEdfHeader(bytes);
+  } catch (error) {
+    throw error instanceof EdfFormatError ? formatError(error) : error;
+  }
+}
+
+async function readAll(handle: FileHandle, buffer: Uint8Array, length: number, position: number): Promise<void> {
+  let done = 0;
+  while (done < length) {
+    const { bytesRead } = await handle.read(buffer, done, length - done, position + done);
+    if (bytesRead === 0) throw new SignalInputError('format', `the file ends at byte ${position + done}, before the ${length} bytes expected there`, '/body');
+    done += bytesRead;
+  }
+}
+
+async function writeAll(handle: FileHandle, bytes: Uint8Array, position: number): Promise<void> {
+  let done = 0;
+  while (done < bytes.length) {
+    const { bytesWritten } = await handle.write(bytes, done, bytes.length - done, position + done);
+    done += bytesWritten;
+  }
+}
+
+async function hashFile(path: string): Promise<string> {
+  const hash = createHash('sha256');
+  const handle = await open(path, 'r');
+  try {
+    const buffer = Buffer.alloc(CHUNK);
+    for (let position = 0; ; ) {
+      const { bytesRead } = await handle.read(buffer, 0, CHUNK, position);
+      if (bytesRead === 0) break;
+      hash.update(buffer.subarray(0, bytesRead));
+      position += bytesRead;
+    }
+  } finally {
+    await handle.close();
+  }
+  return hash.digest('hex');
+}
