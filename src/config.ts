@@ -39,6 +39,11 @@ const EnvSchema = z.object({
   WORKER_LOCK_MS: int(30_000, 1000),
   WORKER_MAX_STALLED: int(2, 0),
   REQUEST_TIMEOUT_MS: int(120_000, 0),
+  DATA_ROOT: z.string().min(1).optional(),
+  FETCH_ALLOWED_HOSTS: z.string().optional(),
+  FETCH_ALLOW_PRIVATE: z.enum(['true', 'false', '1', '0']).default('false'),
+  FETCH_TIMEOUT_MS: int(30_000),
+  FETCH_MAX_REDIRECTS: int(3, 0),
   RETENTION_DAYS: z.coerce.number().min(0).default(0),
   SWEEP_INTERVAL_SECONDS: int(3600),
 });
@@ -69,6 +74,13 @@ export interface Config {
   workerMaxStalled: number;
   /** ms a request (headers and body) may take; 0 = no limit */
   requestTimeoutMs: number;
+  /** directory whose files jobs and imports may name; null = off */
+  dataRoot: string | null;
+  /** hosts (exact, or *.domain for subdomains) whose http(s) URLs may be imported; empty = off */
+  fetchAllowedHosts: string[];
+  fetchAllowPrivate: boolean;
+  fetchTimeoutMs: number;
+  fetchMaxRedirects: number;
   /** days after which signals, jobs and records are swept; 0 = kept */
   retentionDays: number;
   sweepIntervalSeconds: number;
@@ -140,6 +152,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     workerLockMs: e.WORKER_LOCK_MS,
     workerMaxStalled: e.WORKER_MAX_STALLED,
     requestTimeoutMs: e.REQUEST_TIMEOUT_MS,
+    dataRoot: e.DATA_ROOT ? resolve(e.DATA_ROOT) : null,
+    fetchAllowedHosts: e.FETCH_ALLOWED_HOSTS ? e.FETCH_ALLOWED_HOSTS.split(',').map((h) => h.trim()).filter(Boolean) : [],
+    fetchAllowPrivate: e.FETCH_ALLOW_PRIVATE === 'true' || e.FETCH_ALLOW_PRIVATE === '1',
+    fetchTimeoutMs: e.FETCH_TIMEOUT_MS,
+    fetchMaxRedirects: e.FETCH_MAX_REDIRECTS,
     retentionDays: e.RETENTION_DAYS,
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
   };

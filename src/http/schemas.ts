@@ -119,15 +119,30 @@ export const SignalReferenceSchema = z
   })
   .meta({ id: 'SignalReference', description: 'A window, channel subset and bad spans of a stored signal, without uploading it again.' });
 
+const importFields = {
+  format: z.enum(['edf', 'float32']).default('edf').describe('layout of the file'),
+  samplingRate: z.number().positive().optional().describe('float32: Hz (required); edf: keep the signals of this rate'),
+  channels: z.array(z.string().min(1)).min(1).max(1024).optional().describe('float32: names (required); edf: labels to keep'),
+  epochCount: z.number().int().min(1).optional().describe('float32 only; default 1'),
+  unit: z.string().min(1).max(32).optional().describe('float32 only; default uV'),
+};
+
+export const ImportSourceSchema = z
+  .union([
+    z.strictObject({ file: z.string().min(1).max(4096).describe('path relative to the server\'s DATA_ROOT'), ...importFields }),
+    z.strictObject({ url: z.string().min(1).max(4096).describe('http(s) URL on a host of FETCH_ALLOWED_HOSTS'), ...importFields }),
+  ])
+  .meta({ id: 'ImportSource', description: 'A recording the server reads itself: a file under its data root, or an allow-listed URL. Both are off unless configured.' });
+
 export const JobRequestSchema = z
   .strictObject({
-    signal: z.union([z.string().describe('id of a stored signal'), SignalReferenceSchema, SignalUploadSchema]),
+    signal: z.union([z.string().describe('id of a stored signal'), SignalReferenceSchema, ImportSourceSchema, SignalUploadSchema]),
     recipe: z.union([z.string().describe('id of a pinned recipe'), RecipeSchema]),
   })
   .meta({ id: 'JobRequest' });
 
 export const JobRequestEnvelope = z.strictObject({
-  signal: z.union([z.string().min(1), SignalReferenceSchema, SignalUploadEnvelope]),
+  signal: z.union([z.string().min(1), SignalReferenceSchema, ImportSourceSchema, SignalUploadEnvelope]),
   recipe: z.union([z.string().min(1), z.record(z.string(), z.unknown())]),
 });
 

@@ -7,7 +7,8 @@ import type { Signal } from '../../signals/signal.js';
 import type { SignalView } from '../../signals/view.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
-import { FeatureRecordSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse } from '../schemas.js';
+import { importSignal } from '../imports.js';
+import { FeatureRecordSchema, ImportSourceSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse } from '../schemas.js';
 import { getRecipe, getSignalMeta, pinRecipe, planJob, storeSignal } from '../services.js';
 import { zodValidator } from '../validation.js';
 import { tenantOf } from '../auth.js';
@@ -80,6 +81,8 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       let meta;
       if (typeof body.signal === 'string') {
         meta = await getSignalMeta(store, body.signal, tenant, '/signal');
+      } else if (body.signal && typeof body.signal === 'object' && ('file' in body.signal || 'url' in body.signal)) {
+        meta = await importSignal(config, store, ImportSourceSchema.parse(body.signal), tenant, '/signal');
       } else if (body.signal && typeof body.signal === 'object' && 'signal' in body.signal) {
         const { signal: id, ...rest } = body.signal as SignalView & { signal: string };
         meta = await getSignalMeta(store, id, tenant, '/signal/signal');

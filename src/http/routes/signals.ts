@@ -4,7 +4,8 @@ import { ingestFile, StorageFullError, type IngestDescription } from '../../stor
 import { ProblemError } from '../problem.js';
 import { receiveToFile } from '../receive.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
-import { BinaryUploadQuery, EdfUploadQuery, IdParams, UploadQueryDoc, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
+import { importSignal } from '../imports.js';
+import { BinaryUploadQuery, EdfUploadQuery, IdParams, ImportSourceSchema, UploadQueryDoc, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
 import { getSignalMeta, storeSignal } from '../services.js';
 import { validationError, zodValidator } from '../validation.js';
 import { tenantOf } from '../auth.js';
@@ -72,6 +73,30 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
         meta = await storeSignal(deps.store, signal, tenantOf(request), deps.config.maxStoreBytes);
       }
       request.log.info({ signalId: meta.id, bytes: meta.bytes }, 'signal stored');
+      return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
+    },
+  );
+
+  app.post(
+    '/v1/signals/import',
+    {
+      config: { access: 'submit' },
+      schema: {
+        summary: 'Import a recording from a file under the data root or an allow-listed URL',
+        tags: ['signals'],
+        body: ImportSourceSchema,
+        response: {
+          201: SignalInfoSchema,
+          404: problemResponse('no such file'),
+          413: problemResponse('the file is too large'),
+          422: problemResponse('the source is not allowed, or the file cannot be used'),
+          502: problemResponse('the remote server failed'),
+        },
+      },
+    },
+    async (request, reply) => {
+      const meta = await importSignal(deps.config, deps.store, request.body, tenantOf(request), '');
+      request.log.info({ signalId: meta.id, bytes: meta.bytes, source: 'file' in request.body ? 'file' : 'url' }, 'signal imported');
       return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
     },
   );

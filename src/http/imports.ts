@@ -1,0 +1,65 @@
+import type { Config } from '../config.js';
+import { createDataRoot, SourceError, type DataRoot } from '../signals/data-root.js';
+import { ingestFile, StorageFullError, type IngestDescription } from '../stores/ingest.js';
+import type { SignalMeta, Store } from '../stores/store.js';
+import { ProblemError } from './problem.js';
+import { receiveToFile } from './receive.js';
+import { openRemote } from './remote-source.js';
+
+/** A recording the server fetches itself: a file under DATA_ROOT or an allow-listed URL. */
+export type ImportSource = ({ file: string; url?: undefined } | { url: string; file?: undefined }) & { format: 'edf' | 'float32'; samplingRate?: number | undefined; channels?: string[] | undefined; epochCount?: number | undefined; unit?: string | undefined };
+
+const roots = new Map<string, Promise<DataRoot>>();
+
+/**
+ * Imports a file or URL through the same bounded-memory ingest as uploads. Both are off unless
+ * configured; paths are confined to the data root (symlinks included) and URLs to the allow-list,
+ * with private addresses refused unless explicitly allowed.
+ */
+export async function importSignal(config: Readonly<Config>, store: Store, source: ImportSource, tenant: string, pointer: string): Promise<SignalMeta> {
+  const description = describe(source, pointer);
+  const options = { tenant, limits: config.signalLimits, maxStoreBytes: config.maxStoreBytes };
+  try {
+    if (source.file !== undefined) {
+      if (!config.dataRoot) throw new ProblemError('source-refused', 'reading files from the server is off; the operator can set DATA_ROOT', `${pointer}/file`);
+      let root = roots.get(config.dataRoot);
+      if (!root) roots.set(config.dataRoot, (root = createDataRoot(config.dataRoot)));
+      const opened = await (await root).open(source.file);
+      try {
+        if (opened.size > config.bodyLimitBytes) throw new ProblemError('payload-too-large', `the file has ${opened.size} bytes, over this server's limit of ${config.bodyLimitBytes}`, `${pointer}/file`);
+        return await ingestFile(store, opened.realPath, description, options);
+      } finally {
+        await opened.handle.close();
+      }
+    }
+    if (config.fetchAllowedHosts.length === 0) throw new ProblemError('source-refused', 'fetching URLs is off; the operator can set FETCH_ALLOWED_HOSTS', `${pointer}/url`);
+    const remote = await openRemote(source.url!, {
+      allowedHosts: config.fetchAllowedHosts,
+      allowPrivate: config.fetchAllowPrivate,
+      maxBytes: config.bodyLimitBytes,
+      timeoutMs: config.fetchTimeoutMs,
+      maxRedirects: config.fetchMaxRedirects,
+    });
+    const raw = await receiveToFile(remote.stream, await store.tempDir(), config.bodyLimitBytes);
+    try {
+      return await ingestFile(store, raw.path, description, options);
+    } finally {
+      await raw.remove();
+    }
+  } catch (error) {
+    if (error instanceof SourceError) {
+      const code = error.code === 'too-large' ? 'payload-too-large' : error.code === 'not-found' ? 'source-not-found' : error.code === 'timeout' || error.code === 'fetch-failed' ? 'source-failed' : 'source-refused';
+      throw new ProblemError(code, error.message, `${pointer}${error.pointer}`);
+    }
+    if (error instanceof StorageFullError) throw new ProblemError('storage-full', error.message);
+    throw error;
+  }
+}
+
+function describe(source: ImportSource, pointer: string): IngestDescription {
+  if (source.format === 'edf') return { format: 'edf', channels: source.channels, samplingRate: source.samplingRate };
+  if (source.samplingRate === undefined || source.channels === undefined) {
+    throw new ProblemError('invalid-signal', 'a float32 import needs samplingRate and channels', `${pointer}/${source.samplingRate === undefined ? 'samplingRate' : 'channels'}`);
+  }
+  return { format: 'float32', samplingRate: source.samplingRate, channels: source.channels, epochCount: source.epochCount ?? 1, unit: source.unit };
+}
