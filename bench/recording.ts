@@ -1,0 +1,246 @@
+/**
+ * A 2-hour, 64-channel, 512 Hz EDF+C recording through the real server (a child process on
+ * 127.0.0.1, see bench/upload.ts): build the file, upload it (POST /v1/signals?format=edf), then run
+ * a Welch job over fixed 4-s epochs and one over 4-s epochs after each 'probe' event.
+ *
+ * The file is seeded and synthetic: per channel N(0, 10²) µV noise, a 10 Hz rhythm of 15 µV whose
+ * amplitude differs across channels, and a 'probe' annotation every 30 s (at 15 s, 45 s, …). It is
+ * written without holding the recording in memory: writeEdf makes the header from a 1-record file
+ * (so its fields are the project's own), the two fields that depend on the length are patched (the
+ * number of data records at offset 236 and the annotation signal's samples per record), and the
+ * 7200 one-second records are appended as int16 with the same calibration, in batches.
+ * The server, by contrast, holds the whole recording as float64 while a job runs (64 × 3 686 400 × 8
+ * bytes ≈ 1.8 GiB); that is acceptable on this 24 GiB machine and is what the RSS figure shows.
+ *
+ * Bounded: 10 minutes in all, whatever happens; the child is killed and the temp files removed.
+ * Prints figures, never asserts. Run: npx tsx bench/recording.ts
+ */
+import { createReadStream } from 'node:fs';
+import { mkdtemp, open, rm, stat } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { setTimeout as sleep } from 'node:timers/promises';
+import { fileURLToPath } from 'node:url';
+import { createRandom, type Random } from '../src/common/random.js';
+import { encodeTal, readEdfHeader, writeEdf, type EdfWriteSignal } from '../src/signals/edf/index.js';
+import { callJson, mib, rate, readVm, startChildServer, uploadStream, type ChildServer } from './upload.js';
+
+const CHANNELS = 64;
+const SAMPLING_RATE = 512;
+const RECORDS = 7200;
+const EVENT_EVERY = 30;
+const EVENT_FIRST = 15;
+const PHYSICAL_MINIMUM = -3276.8;
+const PHYSICAL_MAXIMUM = 3276.7;
+const DIGITAL_MINIMUM = -32768;
+const DIGITAL_MAXIMUM = 32767;
+/** Bytes of the annotation signal per record: room for "+7199␔␔␀" and "+7185␔probe␔␀" (21 bytes). */
+const ANNOTATION_BYTES = 32;
+const BATCH_RECORDS = 60;
+const BOUND_MS = 600_000;
+const POLL_MS = 500;
+const MiB = 2 ** 20;
+const FINISHED = new Set(['succeeded', 'failed', 'canceled']);
+
+const LABELS = Array.from({ length: CHANNELS }, (_, c) => `E${c + 1}`);
+const RECIPES = [
+  { name: 'fixed 4 s', recipe: { method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 4 } } },
+  { name: "events 'probe' 0–4 s", recipe: { method: 'welch', epoching: { mode: 'events', labels: ['probe'], beforeSeconds: 0, afterSeconds: 4 } } },
+] as const;
+
+class Bound extends Error {}
+
+/** One record of one channel, physical µV; the generators carry on from record to record. */
+function recordSamples(random: Random, channel: number, record: number, out: Float64Array): void {
+  const alpha = 15 * (0.5 + channel / CHANNELS);
+  for (let i = 0; i < SAMPLING_RATE; i++) {
+    const t = record + i / SAMPLING_RATE;
+    out[i] = 10 * random.normal() + alpha * Math.sin(2 * Math.PI * 10 * t + channel);
+  }
+}
+
+/** Physical → digital with the header's calibration, as writeEdf quantizes. */
+function quantize(x: number): number {
+  const gain = (PHYSICAL_MAXIMUM - PHYSICAL_MINIMUM) / (DIGITAL_MAXIMUM - DIGITAL_MINIMUM);
+  const level = (x - PHYSICAL_MINIMUM) / gain + DIGITAL_MINIMUM;
+  return Math.min(DIGITAL_MAXIMUM, Math.max(DIGITAL_MINIMUM, Math.round(level)));
+}
+
+const signalFields = (samples: Float64Array): EdfWriteSignal[] =>
+  LABELS.map((label) => ({
+    label,
+    samples,
+    samplingRate: SAMPLING_RATE,
+    physicalDimension: 'uV',
+    physicalMinimum: PHYSICAL_MINIMUM,
+    physicalMaximum: PHYSICAL_MAXIMUM,
+  }));
+
+function patchField(header: Uint8Array, offset: number, value: number): void {
+  const text = String(value).padEnd(8, ' ');
+  for (let i = 0; i < 8; i++) header[offset + i] = text.charCodeAt(i);
+}
+
+/**
+ * Writes the recording to `path` and returns its size, after checking the patched header by
+ * reading it back and checking the appended records' quantization against writeEdf's own record.
+ */
+async function writeRecording(path: string, lines: string[]): Promise<number> {
+  const randoms = LABELS.map((_, c) => createRandom(7000 + c));
+  const first = LABELS.map((_, c) => {
+    const x = new Float64Array(SAMPLING_RATE);
+    recordSamples(randoms[c]!, c, 0, x);
+    return x;
+  });
+  // Only the header of this 1-record file is kept (the physical range is given, so it does not
+  // depend on the data); its E1 samples serve to check that quantize() matches writeEdf.
+  const probe = writeEdf({
+    signals: signalFields(first[0]!),
+    recordDuration: 1,
+    startDate: { year: 2024, month: 3, day: 4, hour: 22, minute: 0, second: 0 },
+    annotations: [],
+  });
+  const ns = CHANNELS + 1;
+  const headerBytes = 256 * (ns + 1);
+  const header = probe.slice(0, headerBytes);
+  patchField(header, 236, RECORDS);
+  patchField(header, 256 + ns * 216 + 8 * CHANNELS, ANNOTATION_BYTES / 2);
+  const parsed = readEdfHeader(header);
+  const recordBytes = CHANNELS * SAMPLING_RATE * 2 + ANNOTATION_BYTES;
+  const checks = [
+    ['variant', parsed.variant, 'EDF+C'],
+    ['number of data records (offset 236)', parsed.recordCount, RECORDS],
+    ['header bytes', parsed.headerBytes, headerBytes],
+    ['record bytes', parsed.recordBytes, recordBytes],
+    ['annotation signal', parsed.annotationSignals.join(','), String(CHANNELS)],
+    ['annotation samples per record', parsed.signals[CHANNELS]!.samplesPerRecord, ANNOTATION_BYTES / 2],
+    ['record duration', parsed.recordDuration, 1],
+  ] as const;
+  const wrong = checks.filter(([, got, want]) => got !== want);
+  if (wrong.length > 0) throw new Error(`patched EDF header read back wrong: ${wrong.map(([what, got, want]) => `${what} ${got}, not ${want}`).join('; ')}`);
+  const view = new DataView(probe.buffer, probe.byteOffset + headerBytes);
+  for (let k = 0; k < SAMPLING_RATE; k++) {
+    if (view.getInt16(2 * k, true) !== quantize(first[0]![k]!)) throw new Error(`quantization differs from writeEdf at sample ${k}`);
+  }
+  lines.push(`  header from writeEdf (1 record), patched and read back: ${checks.map(([what, got]) => `${what} ${got}`).join(', ')}; record 0 of E1 quantized as writeEdf does`);
+
+  const handle = await open(path, 'w');
+  try {
+    await handle.write(header, 0, header.length, 0);
+    const batch = Buffer.alloc(BATCH_RECORDS * recordBytes);
+    const x = new Float64Array(SAMPLING_RATE);
+    let position = headerBytes;
+    for (let r0 = 0; r0 < RECORDS; r0 += BATCH_RECORDS) {
+      const r1 = Math.min(RECORDS, r0 + BATCH_RECORDS);
+      batch.fill(0);
+      for (let r = r0; r < r1; r++) {
+        const at = (r - r0) * recordBytes;
+        for (let c = 0; c < CHANNELS; c++) {
+          if (r === 0) x.set(first[c]!);
+          else recordSamples(randoms[c]!, c, r, x);
+          const base = at + c * SAMPLING_RATE * 2;
+          for (let k = 0; k < SAMPLING_RATE; k++) batch.writeInt16LE(quantize(x[k]!), base + 2 * k);
+        }
+        const tals = [encodeTal(r, null, [''])];
+        if (r >= EVENT_FIRST && (r - EVENT_FIRST) % EVENT_EVERY === 0) tals.push(encodeTal(r, null, ['probe']));
+        let t = at + CHANNELS * SAMPLING_RATE * 2;
+        for (const tal of tals) {
+          if (t + tal.length > at + recordBytes) throw new Error(`record ${r}: annotations need more than ${ANNOTATION_BYTES} bytes`);
+          batch.set(tal, t);
+          t += tal.length;
+        }
+      }
+      const length = (r1 - r0) * recordBytes;
+      for (let done = 0; done < length; ) done += (await handle.write(batch, done, length - done, position + done)).bytesWritten;
+      position += length;
+    }
+  } finally {
+    await handle.close();
+  }
+  return (await stat(path)).size;
+}
+
+interface JobState {
+  id: string;
+  state: string;
+  problem?: { detail?: string };
+}
+
+interface RecordBody {
+  result: { estimate: { epochsUsed: number; segmentsPerEpoch?: number }; epoching?: { kept?: unknown[]; dropped?: unknown[] } };
+  provenance: { durationMs: number };
+}
+
+async function runJob(server: ChildServer, signalId: string, recipe: unknown, remaining: () => number): Promise<string> {
+  server.resetPeak();
+  const t0 = performance.now();
+  const submitted = await callJson<JobState>(server.base, 'POST', '/v1/jobs', { signal: signalId, recipe }, [200, 202], remaining());
+  let job = submitted.json;
+  while (!FINISHED.has(job.state)) {
+    await sleep(POLL_MS);
+    job = (await callJson<JobState>(server.base, 'GET', `/v1/jobs/${job.id}`, undefined, [200], remaining())).json;
+  }
+  const wall = performance.now() - t0;
+  const peak = server.peakRss();
+  if (job.state !== 'succeeded') return `${job.state} after ${(wall / 1000).toFixed(1)} s: ${job.problem?.detail ?? '(no detail)'}; server peak VmRSS ${mib(peak)} MiB`;
+  const fetched = await fetch(`${server.base}/v1/jobs/${job.id}/record`, { signal: AbortSignal.timeout(remaining()) });
+  const text = await fetched.text();
+  const record = JSON.parse(text) as RecordBody;
+  const epoching = record.result.epoching;
+  const kept = epoching?.kept?.length;
+  const dropped = epoching?.dropped?.length;
+  return (
+    `submit → succeeded ${(wall / 1000).toFixed(1)} s (engine ${(record.provenance.durationMs / 1000).toFixed(1)} s), epochs used ${record.result.estimate.epochsUsed}` +
+    `${kept === undefined ? '' : ` (kept ${kept}, dropped ${dropped ?? 0})`}, record ${(Buffer.byteLength(text) / 1024).toFixed(0)} KiB; server peak VmRSS ${mib(peak)} MiB`
+  );
+}
+
+export async function benchRecording(): Promise<string[]> {
+  const lines: string[] = [];
+  const began = performance.now();
+  const remaining = (): number => {
+    const left = began + BOUND_MS - performance.now();
+    if (left <= 0) throw new Bound();
+    return Math.ceil(left);
+  };
+  lines.push(`recording: ${RECORDS / 3600} h × ${CHANNELS} ch × ${SAMPLING_RATE} Hz EDF+C (1-s records, int16, 'probe' every ${EVENT_EVERY} s), to a child server over loopback`);
+  const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-recording-'));
+  let server: ChildServer | null = null;
+  try {
+    const path = join(dir, 'recording.edf');
+    const t0 = performance.now();
+    const size = await writeRecording(path, lines);
+    const buildMs = performance.now() - t0;
+    const samples = RECORDS * CHANNELS * SAMPLING_RATE;
+    lines.push(`  file ${(size / 1e6).toFixed(1)} MB (${mib(size)} MiB, ${samples.toLocaleString('en')} samples), built in ${(buildMs / 1000).toFixed(1)} s; this process's VmHWM ${mib(readVm(process.pid, 'VmHWM') ?? 0)} MiB`);
+    server = await startChildServer({
+      BODY_LIMIT_BYTES: String(2 * size),
+      MAX_SAMPLES: String(2 * samples),
+      REQUEST_TIMEOUT_MS: String(BOUND_MS),
+    });
+    lines.push(`  server pid ${server.pid}, idle VmRSS ${mib(readVm(server.pid, 'VmRSS') ?? 0)} MiB`);
+    server.resetPeak();
+    const sent = await uploadStream(server.base, '/v1/signals?format=edf', createReadStream(path, { highWaterMark: MiB }), size, remaining());
+    const signal = JSON.parse(sent.body) as { id: string; channels: string[]; samplesPerEpoch: number; samplingRate: number; events?: unknown[]; bytes: number };
+    lines.push(
+      `  upload: 201 after ${(sent.answeredMs / 1000).toFixed(1)} s (${rate(size, sent.answeredMs)} MiB/s end to end, body sent in ${(sent.sentMs / 1000).toFixed(1)} s); ` +
+        `stored ${signal.channels.length} ch × ${signal.samplesPerEpoch} samples at ${signal.samplingRate} Hz, ${signal.events?.length ?? 0} events, ${mib(signal.bytes)} MiB as float64; server peak VmRSS ${mib(server.peakRss())} MiB`,
+    );
+    for (const { name, recipe } of RECIPES) lines.push(`  job, ${name}: ${await runJob(server, signal.id, recipe, remaining)}`);
+    lines.push(`  server VmHWM at the end ${mib(readVm(server.pid, 'VmHWM') ?? 0)} MiB; total ${((performance.now() - began) / 1000).toFixed(1)} s`);
+  } catch (error) {
+    if (!(error instanceof Bound || (error instanceof Error && /took longer than|TimeoutError/.test(`${error.name} ${error.message}`)))) {
+      throw new Error(`${error instanceof Error ? error.message : String(error)}\n  after: ${lines.join('\n')}\n  server output (tail): ${server?.tail().trim() || '(none)'}`);
+    }
+    lines.push(`  stopped at the ${BOUND_MS / 60_000} min bound`);
+  } finally {
+    await server?.stop();
+    await rm(dir, { recursive: true, force: true });
+  }
+  return lines;
+}
+
+if (process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1]) {
+  for (const line of await benchRecording()) console.log(line);
+}
