@@ -4,6 +4,9 @@ import { confidenceInterval } from '../dsp/dof.js';
 import { bandPowers, bandRatios } from '../features/bands.js';
 import { qualityFlags } from '../features/quality.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
+import { isSpectrumRecipe, type ConnectivityRecipe, type SpectrumRecipe, type TimeFrequencyRecipe } from '../recipes/schema.js';
+import { analyzeTimeFrequency } from './time-frequency.js';
+import type { Attachment } from './record.js';
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
 import { createEstimator, type SegmentFilter } from './estimators.js';
@@ -52,7 +55,7 @@ export interface Spectra {
  */
 export function computeSpectra(
   signal: Signal,
-  resolved: ResolvedRecipe,
+  resolved: ResolvedRecipe<SpectrumRecipe>,
   context: Pick<AnalyzeContext, 'onProgress' | 'checkpoint'> = {},
   prepared: Pick<PreparedInput, 'badSpans' | 'labels'> = { badSpans: [], labels: null },
 ): Spectra {
@@ -115,7 +118,7 @@ export function computeSpectra(
  * Welch segments of an unepoched signal that overlap a bad span, or whose peak-to-peak amplitude in
  * the channel exceeds the recipe's limit, are left out of that channel's average.
  */
-function segmentFilterFor(signal: Signal, resolved: ResolvedRecipe, badSpans: [number, number][]): SegmentFilter | null {
+function segmentFilterFor(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>, badSpans: [number, number][]): SegmentFilter | null {
   const { recipe } = resolved;
   const limit = recipe.badSpans.peakToPeak;
   if (recipe.method !== 'welch' || recipe.epoching !== null || (badSpans.length === 0 && limit === null)) return null;
@@ -139,7 +142,7 @@ function segmentFilterFor(signal: Signal, resolved: ResolvedRecipe, badSpans: [n
 }
 
 /** Leaves out epochs with gaps (per `nonFinite`) and, when asked, epochs with flagged channels. */
-function selectEpochs(signal: Signal, resolved: ResolvedRecipe) {
+function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) {
   const { recipe } = resolved;
   const usedEpochs: number[] = [];
   const skipped: SkippedEpoch[] = [];
@@ -207,7 +210,7 @@ function firstNonFinite(data: Float64Array, from: number, to: number): number {
 }
 
 /** Turns spectra into the deterministic result: range-limited PSDs, band powers, ratios and features. */
-export function summarize(signal: Signal, resolved: ResolvedRecipe, spectra: Spectra): FeatureResult {
+export function summarize(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>, spectra: Spectra): FeatureResult {
   const { recipe, derived } = resolved;
   const { frequencies } = spectra;
   const [lo, hi] = derived.frequencyRange;
@@ -298,9 +301,16 @@ export function analyze(original: Signal, resolved: ResolvedRecipe, context: Ana
   const started = performance.now();
   const prepared = prepareInput(original, resolved.recipe, context.view ?? null);
   const signal = prepared.signal;
-  const spectra = computeSpectra(signal, resolved, context, prepared);
-  spectra.warnings.unshift(...prepared.warnings);
-  const result = summarize(signal, resolved, spectra);
+  let result: FeatureRecord['result'];
+  let attachments: Attachment[] = [];
+  if (isSpectrumRecipe(resolved.recipe)) {
+    const spectrum = resolved as ResolvedRecipe<SpectrumRecipe>;
+    const spectra = computeSpectra(signal, spectrum, context, prepared);
+    spectra.warnings.unshift(...prepared.warnings);
+    result = summarize(signal, spectrum, spectra);
+  } else {
+    ({ result, attachments } = analyzeTimeFrequency(signal, resolved as ResolvedRecipe<TimeFrequencyRecipe | ConnectivityRecipe>, prepared, context));
+  }
   if (prepared.epoching) result.epoching = prepared.epoching;
   return {
     schema: RECORD_SCHEMA,
@@ -309,6 +319,7 @@ export function analyze(original: Signal, resolved: ResolvedRecipe, context: Ana
     input: { ...recordInput(original, context.signalId, context.sha256), ...(context.view ? { view: context.view } : {}) },
     result,
     resultHash: hashCanonical(result),
+    ...(attachments.length > 0 ? { attachments } : {}),
     provenance: {
       engine: ENGINE_NAME,
       engineVersion: ENGINE_VERSION,

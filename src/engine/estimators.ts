@@ -4,6 +4,7 @@ import { createPeriodogramPlan } from '../dsp/periodogram.js';
 import { createWelchPlan } from '../dsp/welch.js';
 import { makeWindow } from '../dsp/windows.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
+import type { SpectrumRecipe } from '../recipes/schema.js';
 
 /** One spectrum of one channel of one epoch, with its equivalent degrees of freedom per bin. */
 export interface Estimate {
@@ -27,7 +28,7 @@ export interface Estimator {
 
 const none: readonly string[] = Object.freeze([]);
 
-export function createEstimator(samplingRate: number, resolved: ResolvedRecipe, segmentFilter: SegmentFilter | null = null): Estimator {
+export function createEstimator(samplingRate: number, resolved: ResolvedRecipe<SpectrumRecipe>, segmentFilter: SegmentFilter | null = null): Estimator {
   const { recipe, derived } = resolved;
   switch (recipe.method) {
     case 'welch': {

@@ -82,12 +82,52 @@ export interface Provenance {
   mode: 'embedded' | 'distributed' | 'local';
 }
 
-export interface FeatureRecord {
+/** A binary matrix stored beside the record (GET /v1/jobs/:id/attachments/:name). */
+export interface Attachment {
+  name: string;
+  /** what it holds, e.g. power, trialPower, phaseConsistency, edgeMask */
+  kind: string;
+  channel: string | null;
+  /** row-major; e.g. [times, frequencies] or [trials, times, frequencies] */
+  shape: number[];
+  dtype: 'float64-le' | 'uint8';
+  bytes: number;
+  sha256: string;
+  /** the data, written to the store by the worker and never serialized into the record */
+  data?: Float64Array | Uint8Array;
+}
+
+/** The deterministic part of a time–frequency or connectivity record. */
+export interface TimeFrequencyResult {
+  units: Record<string, string>;
+  frequencies: number[];
+  channels: { name: string; summary?: { name: string; low: number; high: number; start: number; end: number; value: number | null; cells: number }[] }[];
+  timeFrequency?: {
+    method: 'morlet' | 'spectrogram';
+    times: number[];
+    timeOrigin: 'event' | 'epoch-start';
+    trials: number;
+    baseline: { start: number; end: number; mode: string; rows: [number, number] } | null;
+    edgeSigmas?: number;
+    powerFactor?: number;
+    cycles?: number[];
+    phaseConsistencyNull?: { trialCount: number; mean: number; largeSampleMean: number; rootMeanSquare: number; threshold: number; alpha: number };
+    attachments: Omit<Attachment, 'data'>[];
+  };
+  connectivity?: Record<string, unknown>;
+  estimate: { method: Recipe['method']; epochsUsed: number; epochsSkipped: SkippedEpoch[] };
+  epoching?: EpochingSummary;
+  warnings: string[];
+}
+
+export interface FeatureRecord<R extends FeatureResult | TimeFrequencyResult = FeatureResult | TimeFrequencyResult> {
   schema: string;
   engineVersion: string;
   recipe: Recipe & { id: string; hash: string; derived: DerivedSettings };
   input: RecordInput;
-  result: FeatureResult;
+  result: R;
   resultHash: string;
+  /** binary attachments (time–frequency matrices); their hashes are inside `result` */
+  attachments?: Attachment[];
   provenance: Provenance;
 }

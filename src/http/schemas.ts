@@ -189,7 +189,9 @@ export const FeatureRecordSchema = z
     result: z.looseObject({
       units: z.looseObject({}),
       frequencies: z.array(z.number()),
-      channels: z.array(ChannelFeaturesSchema),
+      channels: z.array(z.union([ChannelFeaturesSchema, z.looseObject({ name: z.string() })])),
+      timeFrequency: z.looseObject({ times: z.array(z.number()), attachments: z.array(z.looseObject({ name: z.string(), shape: z.array(z.number().int()), dtype: z.string() })) }).optional(),
+      connectivity: z.looseObject({}).optional(),
       epochs: z.array(z.object({ index: z.number().int(), channels: z.array(ChannelFeaturesSchema) })).optional(),
       estimate: z.looseObject({}),
       warnings: z.array(z.string()),

@@ -2,6 +2,15 @@ import type { Store } from '../stores/store.js';
 import type { JobQueue } from './queue.js';
 import { isFinished } from './spec.js';
 
+/** Removes a record and the attachments it names; false when there was no record. */
+export async function deleteRecord(store: Store, recordKey: string): Promise<boolean> {
+  const text = await store.getDocument('records', recordKey);
+  if (text === null) return false;
+  const { attachments = [] } = JSON.parse(text) as { attachments?: { name: string }[] };
+  for (const a of attachments) await store.deleteAttachment(`${recordKey}.${a.name}`);
+  return store.deleteDocument('records', recordKey);
+}
+
 export interface SweepResult {
   jobs: number;
   records: number;
@@ -22,7 +31,7 @@ export async function sweepExpired(store: Store, queue: JobQueue, maxAgeMs: numb
     const finishedAt = job.finishedAt ? Date.parse(job.finishedAt) : Number.NaN;
     if (isFinished(job.state) && finishedAt < cutoff) {
       if (await queue.remove(job.id)) result.jobs++;
-      if (await store.deleteDocument('records', job.recordKey)) result.records++;
+      if (await deleteRecord(store, job.recordKey)) result.records++;
     } else {
       needed.add(job.signal);
     }

@@ -53,6 +53,12 @@ export async function runJob(
       onProgress,
       ...(checkpoint ? { checkpoint } : {}),
     });
+    // Attachments first: once the record exists, everything it names can be fetched.
+    for (const a of record.attachments ?? []) {
+      const data = a.data!;
+      await store.putAttachment(`${spec.recordKey}.${a.name}`, new Uint8Array(data.buffer, data.byteOffset, data.byteLength));
+      delete a.data;
+    }
     await store.putDocument('records', spec.recordKey, JSON.stringify(record));
     return { recordKey: spec.recordKey, resultHash: record.resultHash, computed: true };
   } catch (error) {

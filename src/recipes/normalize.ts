@@ -2,7 +2,7 @@ import type { z } from 'zod';
 import { deepFreeze } from '../common/freeze.js';
 import { hashCanonical } from '../common/hash.js';
 import { pointerOf, RecipeInputError } from './errors.js';
-import { METHODS, RecipeSchema, type Recipe } from './schema.js';
+import { isSpectrumRecipe, METHODS, RecipeSchema, type Recipe, type SpectrumRecipe } from './schema.js';
 
 export interface PinnedRecipe {
   id: string;
@@ -23,9 +23,16 @@ export function normalizeRecipe(input: unknown): PinnedRecipe {
   const parsed = RecipeSchema.safeParse(input);
   if (!parsed.success) throw fromZod(parsed.error);
   const recipe = parsed.data;
-  checkCrossFields(recipe);
-  if (recipe.method !== 'multitaper' && recipe.window === 'tukey' && recipe.tukeyRatio === undefined) recipe.tukeyRatio = 0.5;
-  recipe.ratios = recipe.ratios.map((r) => ({ ...r, name: r.name ?? `${r.numerator}/${r.denominator}` }));
+  if ('window' in recipe && recipe.tukeyRatio !== undefined && recipe.window !== 'tukey') {
+    throw new RecipeInputError('invalid', `tukeyRatio applies only to window "tukey", not "${recipe.window}"`, '/tukeyRatio');
+  }
+  if ('window' in recipe && recipe.window === 'tukey' && recipe.tukeyRatio === undefined) recipe.tukeyRatio = 0.5;
+  if (isSpectrumRecipe(recipe)) {
+    checkCrossFields(recipe);
+    recipe.ratios = recipe.ratios.map((r) => ({ ...r, name: r.name ?? `${r.numerator}/${r.denominator}` }));
+  } else {
+    checkTimeFrequency(recipe);
+  }
   const hash = hashCanonical(recipe);
   return { id: recipeIdFromHash(hash), hash, recipe: deepFreeze(recipe) };
 }
@@ -42,10 +49,37 @@ export function fromZod(error: z.ZodError): RecipeInputError {
   return new RecipeInputError('invalid', message, pointer || '/');
 }
 
-function checkCrossFields(recipe: Recipe): void {
-  if (recipe.method !== 'multitaper' && recipe.tukeyRatio !== undefined && recipe.window !== 'tukey') {
-    throw new RecipeInputError('invalid', `tukeyRatio applies only to window "tukey", not "${recipe.window}"`, '/tukeyRatio');
+function checkTimeFrequency(recipe: Exclude<Recipe, SpectrumRecipe>): void {
+  if (recipe.frequencyRange && recipe.frequencyRange[0] >= recipe.frequencyRange[1]) {
+    throw new RecipeInputError('invalid', 'frequencyRange must be [low, high] with low < high', '/frequencyRange/1');
   }
+  if (recipe.method === 'connectivity') {
+    const names = new Set<string>();
+    recipe.bands.forEach((band, i) => {
+      if (names.has(band.name)) throw new RecipeInputError('invalid', `band name "${band.name}" is used twice`, `/bands/${i}/name`);
+      names.add(band.name);
+    });
+    recipe.pairs?.forEach(([a, b], i) => {
+      if (a === b) throw new RecipeInputError('invalid', `pair ${i} joins channel "${a}" to itself`, `/pairs/${i}/1`);
+    });
+    return;
+  }
+  if (recipe.method === 'morlet') {
+    const f = recipe.frequencies;
+    if (!Array.isArray(f) && f.low >= f.high && f.count > 1) throw new RecipeInputError('invalid', 'frequencies.low must be below frequencies.high', '/frequencies/high');
+    if (typeof recipe.cycles === 'object' && recipe.cycles.low > recipe.cycles.high) throw new RecipeInputError('invalid', 'cycles.low must not exceed cycles.high', '/cycles/high');
+  }
+  if (recipe.baseline && recipe.baseline.start >= recipe.baseline.end) throw new RecipeInputError('invalid', 'baseline.start must be before baseline.end', '/baseline/end');
+  recipe.summary.forEach((w, i) => {
+    if (w.low >= w.high) throw new RecipeInputError('invalid', `summary "${w.name}": low must be below high`, `/summary/${i}/high`);
+    if (w.start >= w.end) throw new RecipeInputError('invalid', `summary "${w.name}": start must be before end`, `/summary/${i}/end`);
+  });
+  if (recipe.output === 'summary' && recipe.summary.length === 0) {
+    throw new RecipeInputError('invalid', 'output "summary" needs at least one summary window', '/summary');
+  }
+}
+
+function checkCrossFields(recipe: SpectrumRecipe): void {
   const ranges: [string, readonly [number, number] | null | undefined][] = [
     ['/frequencyRange', recipe.frequencyRange],
     ['/features/peakFrequency/range', recipe.features.peakFrequency?.range],

@@ -1,5 +1,5 @@
 import { RecipeInputError } from './errors.js';
-import type { Recipe } from './schema.js';
+import { isSpectrumRecipe, type Recipe, type SpectrumRecipe } from './schema.js';
 
 export interface SignalShape {
   samplingRate: number;
@@ -34,10 +34,12 @@ export interface DerivedSettings {
   taperCount?: number;
   /** multitaper: W = NW·samplingRate/segmentSamples, Hz */
   halfBandwidth?: number;
+  /** time–frequency methods: samples per analysed epoch */
+  epochSamples?: number;
 }
 
-export interface ResolvedRecipe {
-  recipe: Recipe;
+export interface ResolvedRecipe<R extends Recipe = Recipe> {
+  recipe: R;
   hash: string;
   derived: DerivedSettings;
   warnings: string[];
@@ -47,17 +49,82 @@ export interface ResolvedRecipe {
  * Checks a normalized recipe against the signal it will run on and derives the sample counts.
  * Everything that would make the computation meaningless is refused here, before any work starts.
  */
-export function resolveRecipe(recipe: Recipe, hash: string, shape: SignalShape, limits: RecipeLimits = DEFAULT_RECIPE_LIMITS): ResolvedRecipe {
-  const fs = shape.samplingRate;
-  const nyquist = fs / 2;
-  const warnings: string[] = [];
-  shape = { ...shape, samplesPerEpoch: epochLength(recipe, shape) };
+export function resolveRecipe<R extends Recipe>(recipe: R, hash: string, shape: SignalShape, limits: RecipeLimits = DEFAULT_RECIPE_LIMITS): ResolvedRecipe<R> {
+  if (!isSpectrumRecipe(recipe)) return resolveTimeFrequency(recipe as Exclude<Recipe, SpectrumRecipe>, hash, shape, limits) as ResolvedRecipe<R>;
+  return resolveSpectrum(recipe, hash, shape, limits) as ResolvedRecipe<R>;
+}
+
+function checkReference(recipe: Recipe, shape: SignalShape): void {
   if (typeof recipe.reference === 'object' && shape.channels && !shape.channels.includes(recipe.reference.channel)) {
     throw new RecipeInputError('unfit-for-signal', `reference channel "${recipe.reference.channel}" is not in the signal (it has ${shape.channels.join(', ')})`, '/reference/channel');
   }
   if (typeof recipe.reference === 'object' && shape.channels?.length === 1) {
     throw new RecipeInputError('unfit-for-signal', 're-referencing to a channel needs at least one other channel', '/reference/channel');
   }
+}
+
+/** Time–frequency and connectivity recipes: the windows and frequencies must fit the epochs. */
+function resolveTimeFrequency(recipe: Exclude<Recipe, SpectrumRecipe>, hash: string, shape: SignalShape, limits: RecipeLimits): ResolvedRecipe {
+  const fs = shape.samplingRate;
+  const nyquist = fs / 2;
+  const warnings: string[] = [];
+  const epochSamples = epochLength(recipe, shape);
+  checkReference(recipe, shape);
+  const frequencyRange: [number, number] = recipe.frequencyRange ? [recipe.frequencyRange[0], recipe.frequencyRange[1]] : [0, nyquist];
+  if (frequencyRange[1] > nyquist) {
+    throw new RecipeInputError('unfit-for-signal', `frequencyRange ends at ${frequencyRange[1]} Hz, above the Nyquist frequency ${nyquist} Hz`, '/frequencyRange/1');
+  }
+  let segmentSamples = epochSamples;
+  let overlapSamples = 0;
+  if (recipe.method === 'spectrogram' || recipe.method === 'connectivity') {
+    const seconds = recipe.method === 'spectrogram' ? recipe.windowSeconds : recipe.segmentSeconds;
+    const field = recipe.method === 'spectrogram' ? '/windowSeconds' : '/segmentSeconds';
+    segmentSamples = Math.round(seconds * fs);
+    if (segmentSamples < 2) throw new RecipeInputError('unfit-for-signal', `a window of ${seconds} s at ${fs} Hz holds fewer than 2 samples`, field);
+    if (segmentSamples > epochSamples) throw new RecipeInputError('unfit-for-signal', `a window of ${seconds} s (${segmentSamples} samples) is longer than the epoch (${epochSamples} samples)`, field);
+    if (recipe.method === 'spectrogram') {
+      const step = Math.round(recipe.stepSeconds * fs);
+      if (step < 1 || step > segmentSamples) throw new RecipeInputError('unfit-for-signal', `stepSeconds must be between one sample and the window length (${segmentSamples / fs} s)`, '/stepSeconds');
+      overlapSamples = segmentSamples - step;
+    } else {
+      overlapSamples = Math.floor(recipe.overlap * segmentSamples);
+    }
+  }
+  const fftLength = 'fftLength' in recipe && recipe.fftLength !== null ? recipe.fftLength : segmentSamples;
+  if (fftLength < segmentSamples) throw new RecipeInputError('unfit-for-signal', `fftLength ${fftLength} is shorter than the window (${segmentSamples} samples)`, '/fftLength');
+  if (fftLength > limits.maxFftLength) throw new RecipeInputError('limit', `fftLength ${fftLength} is above this server's limit of ${limits.maxFftLength}`, '/fftLength');
+  if (recipe.method === 'morlet') {
+    const list = Array.isArray(recipe.frequencies) ? recipe.frequencies : [recipe.frequencies.low, recipe.frequencies.high];
+    list.forEach((f, i) => {
+      if (f >= nyquist) {
+        const pointer = Array.isArray(recipe.frequencies) ? `/frequencies/${i}` : i === 0 ? '/frequencies/low' : '/frequencies/high';
+        throw new RecipeInputError('unfit-for-signal', `wavelet frequency ${f} Hz is not below the Nyquist frequency ${nyquist} Hz`, pointer);
+      }
+    });
+  }
+  if (recipe.method === 'connectivity') {
+    recipe.pairs?.forEach(([a, b], i) => {
+      [a, b].forEach((name, j) => {
+        if (shape.channels && !shape.channels.includes(name)) throw new RecipeInputError('unfit-for-signal', `pair channel "${name}" is not in the signal`, `/pairs/${i}/${j}`);
+      });
+    });
+  }
+  const step = segmentSamples - overlapSamples;
+  const segmentsPerEpoch = Math.floor((epochSamples - overlapSamples) / Math.max(1, step));
+  return {
+    recipe,
+    hash,
+    derived: { segmentSamples, overlapSamples, fftLength, frequencyResolution: fs / fftLength, segmentsPerEpoch, frequencyRange, nyquist, epochSamples },
+    warnings,
+  } as ResolvedRecipe;
+}
+
+function resolveSpectrum(recipe: SpectrumRecipe, hash: string, shape: SignalShape, limits: RecipeLimits): ResolvedRecipe<SpectrumRecipe> {
+  const fs = shape.samplingRate;
+  const nyquist = fs / 2;
+  const warnings: string[] = [];
+  shape = { ...shape, samplesPerEpoch: epochLength(recipe, shape) };
+  checkReference(recipe, shape);
   if (recipe.method !== 'welch' && recipe.epoching === null && (shape.epochCount ?? 1) === 1 && (recipe.badSpans.labels.length > 0 || recipe.badSpans.peakToPeak !== null)) {
     warnings.push(`bad spans leave out Welch segments or epochs; ${recipe.method} on an unepoched signal can only use or skip whole epochs`);
   }
@@ -145,7 +212,7 @@ export function resolveRecipe(recipe: Recipe, hash: string, shape: SignalShape, 
   };
 }
 
-function checkFeatureRanges(recipe: Recipe, nyquist: number): void {
+function checkFeatureRanges(recipe: SpectrumRecipe, nyquist: number): void {
   const f = recipe.features;
   const ranges: [string, readonly [number, number] | null | undefined][] = [
     ['peakFrequency', f.peakFrequency?.range],

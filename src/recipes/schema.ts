@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { DETREND_KINDS } from '../dsp/detrend.js';
 import { TAPER_WEIGHTINGS } from '../dsp/multitaper.js';
+import { BASELINE_MODES } from '../dsp/baseline.js';
 import { WINDOW_NAMES } from '../dsp/windows.js';
 import { DEFAULT_BANDS } from './bands.js';
 
@@ -171,9 +172,110 @@ export const PeriodogramRecipeSchema = z
   })
   .meta({ id: 'PeriodogramRecipe', description: 'The (modified) periodogram of each whole epoch.' });
 
-export const METHODS = ['welch', 'multitaper', 'periodogram'] as const;
+const TapersSchema = z.strictObject({
+  timeBandwidth: z.number().min(0.5).max(50).default(3),
+  taperCount: z.number().int().min(1).max(200).nullable().default(null).describe('null means ⌊2·NW⌋ − 1'),
+});
 
-export const RecipeSchema = z.discriminatedUnion('method', [WelchRecipeSchema, MultitaperRecipeSchema, PeriodogramRecipeSchema]).meta({ id: 'Recipe' });
+/** Settings shared by the time–frequency and connectivity methods. */
+const timeFrequencyCommon = {
+  schema: common.schema,
+  reference: common.reference,
+  epoching: common.epoching,
+  badSpans: common.badSpans,
+  nonFinite: common.nonFinite,
+  frequencyRange: common.frequencyRange,
+};
+
+const BaselineSchema = z
+  .strictObject({
+    start: z.number().describe('s, relative to the event (events epoching) or to the epoch start'),
+    end: z.number().describe('s, both ends included'),
+    mode: z.enum(BASELINE_MODES).default('decibel').describe('decibel 10·log10(P/B), percent 100·(P−B)/B, ratio P/B, zscore (P − mean_B)/sd_B'),
+  })
+  .meta({ id: 'Baseline', description: 'Normalization of time–frequency power by its mean over a baseline window, per frequency, over trials.' });
+
+const SummarySchema = z
+  .array(
+    z.strictObject({
+      name: z.string().min(1).max(64),
+      low: z.number().min(0).describe('Hz, included'),
+      high: z.number().positive().describe('Hz, excluded'),
+      start: z.number().describe('s, included (same time origin as baseline)'),
+      end: z.number().describe('s, excluded'),
+    }),
+  )
+  .max(256)
+  .default([])
+  .describe('band-and-window averages of the (normalized) power per channel');
+
+const timeFrequencyOutput = {
+  baseline: BaselineSchema.nullable().default(null),
+  output: z.enum(['matrix', 'summary']).default('matrix').describe('matrix: full time × frequency matrices as binary attachments; summary: only the band-and-window averages'),
+  summary: SummarySchema,
+  perTrial: z.boolean().default(false).describe('also keep every trial\'s matrix (attachments grow with the number of epochs)'),
+};
+
+export const SpectrogramRecipeSchema = z
+  .strictObject({
+    method: z.literal('spectrogram'),
+    window: z.enum(WINDOW_NAMES).default('hann'),
+    tukeyRatio: z.number().min(0).max(1).optional(),
+    tapers: TapersSchema.nullable().default(null).describe('DPSS tapers for a multitaper spectrogram, instead of window'),
+    windowSeconds: z.number().positive().max(60).default(0.5).describe('length of the sliding window'),
+    stepSeconds: z.number().positive().max(60).default(0.05).describe('time between window centres'),
+    fftLength: common.fftLength,
+    detrend: common.detrend,
+    ...timeFrequencyCommon,
+    ...timeFrequencyOutput,
+  })
+  .meta({ id: 'SpectrogramRecipe', description: 'Short-time spectrogram: one-sided PSD in a sliding window (or DPSS tapers).' });
+
+export const MorletRecipeSchema = z
+  .strictObject({
+    method: z.literal('morlet'),
+    frequencies: z
+      .union([z.array(z.number().positive()).min(1).max(512), z.strictObject({ low: z.number().positive(), high: z.number().positive(), count: z.number().int().min(1).max(512) })])
+      .default({ low: 2, high: 45, count: 40 })
+      .describe('a list of Hz, or a log-spaced range'),
+    cycles: z
+      .union([z.number().min(1).max(100), z.strictObject({ low: z.number().min(1).max(100), high: z.number().min(1).max(100) })])
+      .default(7)
+      .describe('cycles per wavelet: fixed, or growing linearly from low (lowest frequency) to high (highest)'),
+    decimation: z.number().int().min(1).max(1000).default(1).describe('keep every n-th output time'),
+    phaseConsistency: z.boolean().default(false).describe('also the inter-trial phase consistency |mean e^{iφ}| per time and frequency'),
+    ...timeFrequencyCommon,
+    ...timeFrequencyOutput,
+  })
+  .meta({ id: 'MorletRecipe', description: 'Complex Morlet wavelet power by FFT convolution; a sinusoid of amplitude A gives A²/2.' });
+
+export const ConnectivityRecipeSchema = z
+  .strictObject({
+    method: z.literal('connectivity'),
+    window: z.enum(WINDOW_NAMES).default('hann'),
+    tukeyRatio: z.number().min(0).max(1).optional(),
+    tapers: TapersSchema.nullable().default(null).describe('multitaper cross-spectra instead of Welch segments'),
+    segmentSeconds: z.number().positive().max(3600).default(1),
+    overlap: z.number().min(0).lt(1).default(0.5),
+    fftLength: common.fftLength,
+    detrend: common.detrend,
+    pairs: z
+      .array(z.tuple([z.string().min(1), z.string().min(1)]))
+      .max(10_000)
+      .nullable()
+      .default(null)
+      .describe('channel pairs by name; null means every pair'),
+    bands: common.bands,
+    ...timeFrequencyCommon,
+  })
+  .meta({ id: 'ConnectivityRecipe', description: 'Magnitude-squared coherence, imaginary coherency and phase-locking value between channel pairs.' });
+
+export const METHODS = ['welch', 'multitaper', 'periodogram', 'spectrogram', 'morlet', 'connectivity'] as const;
+export const SPECTRUM_METHODS = ['welch', 'multitaper', 'periodogram'] as const;
+
+export const RecipeSchema = z
+  .discriminatedUnion('method', [WelchRecipeSchema, MultitaperRecipeSchema, PeriodogramRecipeSchema, SpectrogramRecipeSchema, MorletRecipeSchema, ConnectivityRecipeSchema])
+  .meta({ id: 'Recipe' });
 
 export type RecipeInput = z.input<typeof RecipeSchema>;
 export type Recipe = z.output<typeof RecipeSchema>;
@@ -181,5 +283,14 @@ export type WelchRecipe = z.output<typeof WelchRecipeSchema>;
 export type MultitaperRecipe = z.output<typeof MultitaperRecipeSchema>;
 export type PeriodogramRecipe = z.output<typeof PeriodogramRecipeSchema>;
 export type Features = z.output<typeof FeaturesSchema>;
+export type SpectrogramRecipe = z.output<typeof SpectrogramRecipeSchema>;
+export type MorletRecipe = z.output<typeof MorletRecipeSchema>;
+export type ConnectivityRecipe = z.output<typeof ConnectivityRecipeSchema>;
+export type SpectrumRecipe = WelchRecipe | MultitaperRecipe | PeriodogramRecipe;
+export type TimeFrequencyRecipe = SpectrogramRecipe | MorletRecipe;
+
+export function isSpectrumRecipe(recipe: Recipe): recipe is SpectrumRecipe {
+  return recipe.method === 'welch' || recipe.method === 'multitaper' || recipe.method === 'periodogram';
+}
 export type Epoching = z.output<typeof EpochingSchema>;
 export type Band = z.output<typeof BandSchema>;

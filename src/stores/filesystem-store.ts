@@ -17,7 +17,7 @@ export class FilesystemStore implements Store {
 
   private async init(): Promise<void> {
     this.ready ??= (async () => {
-      for (const dir of ['signals', 'recipes', 'records', 'jobs', 'tmp']) await mkdir(join(this.dataDir, dir), { recursive: true });
+      for (const dir of ['signals', 'recipes', 'records', 'jobs', 'attachments', 'tmp']) await mkdir(join(this.dataDir, dir), { recursive: true });
     })();
     return this.ready;
   }
@@ -63,6 +63,26 @@ export class FilesystemStore implements Store {
     await rename(path, join(this.dataDir, 'signals', `${id}.f64`));
     await this.writeAtomic(join(this.dataDir, 'signals', `${id}.json`), JSON.stringify(meta));
     await this.adjustUsage(1, meta.bytes);
+  }
+
+  async putAttachment(key: string, bytes: Uint8Array): Promise<void> {
+    await this.writeAtomic(join(this.dataDir, 'attachments', `${checkKey(key)}.bin`), bytes);
+  }
+
+  async getAttachment(key: string): Promise<Uint8Array | null> {
+    try {
+      return await readFile(join(this.dataDir, 'attachments', `${checkKey(key)}.bin`));
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code === 'ENOENT') return null;
+      throw error;
+    }
+  }
+
+  async deleteAttachment(key: string): Promise<boolean> {
+    const path = join(this.dataDir, 'attachments', `${checkKey(key)}.bin`);
+    const existed = (await this.getAttachment(key)) !== null;
+    await rm(path, { force: true });
+    return existed;
   }
 
   async tempDir(): Promise<string> {

@@ -51,6 +51,18 @@ export class RedisStore implements Store {
     }
   }
 
+  async putAttachment(key: string, bytes: Uint8Array): Promise<void> {
+    await this.redis.set(this.key('attachment', checkKey(key)), Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength));
+  }
+
+  async getAttachment(key: string): Promise<Uint8Array | null> {
+    return this.redis.getBuffer(this.key('attachment', checkKey(key)));
+  }
+
+  async deleteAttachment(key: string): Promise<boolean> {
+    return (await this.redis.del(this.key('attachment', checkKey(key)))) > 0;
+  }
+
   async tempDir(): Promise<string> {
     const dir = join(tmpdir(), 'rhythmetric-ingest');
     await mkdir(dir, { recursive: true });

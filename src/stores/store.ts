@@ -36,6 +36,10 @@ export interface Store {
   /** Removes a signal (samples and meta); false when it was not there. */
   deleteSignal(id: string): Promise<boolean>;
   deleteDocument(collection: Collection, key: string): Promise<boolean>;
+  /** Binary attachments of records (time–frequency matrices), written atomically. */
+  putAttachment(key: string, bytes: Uint8Array): Promise<void>;
+  getAttachment(key: string): Promise<Uint8Array | null>;
+  deleteAttachment(key: string): Promise<boolean>;
   /** stored signals and their sample bytes */
   usage(): Promise<{ signals: number; bytes: number }>;
   ping(): Promise<boolean>;

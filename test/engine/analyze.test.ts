@@ -1,13 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../src/common/random.js';
 import { analyze } from '../../src/engine/analyze.js';
+import type { FeatureRecord, FeatureResult } from '../../src/engine/record.js';
 import { normalizeRecipe } from '../../src/recipes/normalize.js';
 import { resolveRecipe } from '../../src/recipes/resolve.js';
 import type { Signal } from '../../src/signals/signal.js';
 
 function run(signal: Signal, recipe: unknown) {
   const pinned = normalizeRecipe(recipe);
-  return analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_test', sha256: 'x', recipeId: pinned.id, mode: 'local' });
+  return analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_test', sha256: 'x', recipeId: pinned.id, mode: 'local' }) as FeatureRecord<FeatureResult>;
 }
 
 function build(fs: number, epochs: number, channels: string[], samples: number, fill: (e: number, c: number, i: number) => number): Signal {

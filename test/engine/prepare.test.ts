@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../src/common/random.js';
 import { analyze } from '../../src/engine/analyze.js';
+import type { FeatureRecord, FeatureResult } from '../../src/engine/record.js';
 import { viewedShape } from '../../src/jobs/spec.js';
 import { normalizeRecipe } from '../../src/recipes/normalize.js';
 import { resolveRecipe } from '../../src/recipes/resolve.js';
@@ -21,7 +22,7 @@ function continuous(seconds: number, channels: string[], fill: (c: number, t: nu
 function run(signal: Signal, recipe: unknown, view: SignalView | null = null) {
   const pinned = normalizeRecipe(recipe);
   const resolved = resolveRecipe(pinned.recipe, pinned.hash, viewedShape(signal, view));
-  return analyze(signal, resolved, { signalId: 'sig_x', sha256: 'x', recipeId: pinned.id, mode: 'local', view });
+  return analyze(signal, resolved, { signalId: 'sig_x', sha256: 'x', recipeId: pinned.id, mode: 'local', view }) as FeatureRecord<FeatureResult>;
 }
 
 const random = createRandom(77);

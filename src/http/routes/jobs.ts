@@ -161,6 +161,34 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
   );
 
   app.get(
+    '/v1/jobs/:id/attachments/:name',
+    {
+      schema: {
+        summary: "One binary matrix of a time–frequency record (e.g. one channel's power), as listed in result.timeFrequency.attachments",
+        description: 'Little-endian float64 (or uint8 for masks), row-major with the shape in the x-rhythmetric-shape header (e.g. "200,40" for times × frequencies).',
+        tags: ['jobs'],
+        params: z.object({ id: z.string().min(1).max(200), name: z.string().regex(/^[a-z0-9-]{1,64}$/) }),
+        response: { 404: problemResponse('unknown job or attachment'), 409: problemResponse('the job has not succeeded') },
+      },
+    },
+    async (request, reply) => {
+      const job = await requireJob(request.params.id, tenantOf(request));
+      if (job.state !== 'succeeded') throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}; attachments exist once it has succeeded`);
+      const text = await store.getDocument('records', job.recordKey);
+      const listed = text ? ((JSON.parse(text) as { attachments?: { name: string; shape: number[]; dtype: string; sha256: string }[] }).attachments ?? []) : [];
+      const entry = listed.find((a) => a.name === request.params.name);
+      const bytes = entry ? await store.getAttachment(`${job.recordKey}.${entry.name}`) : null;
+      if (!entry || !bytes) throw new ProblemError('attachment-not-found', `job ${job.id} has no attachment "${request.params.name}"; the record lists ${listed.map((a) => a.name).join(', ') || 'none'}`);
+      return reply
+        .type('application/octet-stream')
+        .header('x-rhythmetric-shape', entry.shape.join(','))
+        .header('x-rhythmetric-dtype', entry.dtype)
+        .header('etag', `"${entry.sha256}"`)
+        .send(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) as never);
+    },
+  );
+
+  app.get(
     '/v1/jobs/:id/record',
     {
       schema: {

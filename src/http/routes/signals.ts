@@ -5,6 +5,7 @@ import { ProblemError } from '../problem.js';
 import { receiveToFile } from '../receive.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
 import { importSignal } from '../imports.js';
+import { deleteRecord } from '../../jobs/retention.js';
 import { BinaryUploadQuery, EdfUploadQuery, IdParams, ImportSourceSchema, UploadQueryDoc, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
 import { getSignalMeta, storeSignal } from '../services.js';
 import { validationError, zodValidator } from '../validation.js';
@@ -130,7 +131,7 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
       const jobs = await deps.queue.list({ tenant: meta.tenant, signal: meta.id, limit: 100_000 });
       for (const job of jobs) {
         await deps.queue.remove(job.id);
-        await deps.store.deleteDocument('records', job.recordKey);
+        await deleteRecord(deps.store, job.recordKey);
       }
       await deps.store.deleteSignal(meta.id);
       request.log.info({ signalId: meta.id, jobsDeleted: jobs.length }, 'signal deleted');
