@@ -19,6 +19,9 @@ const BLOCKS: readonly Block[] = [
   { name: 'Welch', file: 'welch.ts', exportName: 'benchWelch' },
   { name: 'multitaper', file: 'multitaper.ts', exportName: 'benchMultitaper' },
   { name: 'API latency', file: 'api-latency.ts', exportName: 'benchApiLatency' },
+  { name: 'Morlet', file: 'morlet.ts', exportName: 'benchMorlet' },
+  { name: '1 GiB upload', file: 'upload.ts', exportName: 'benchUpload' },
+  { name: '2-hour recording', file: 'recording.ts', exportName: 'benchRecording' },
 ];
 
 function machine(): string[] {
