@@ -19,6 +19,7 @@ describe.skipIf(!withRedis)('when a worker process is killed while it computes',
   let api: Awaited<ReturnType<typeof startHttpApi>>;
   let redis: Redis;
   const bytes = noiseFloat32(11, channels, seconds, samplingRate);
+  let redeliveryMs: number | null = null;
 
   beforeAll(async () => {
     redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
@@ -55,7 +56,8 @@ describe.skipIf(!withRedis)('when a worker process is killed while it computes',
     // The survivor saw the stall and finished the job; the dead worker never completed it.
     const stall = survivor.logs('worker stalled').find((l) => l.jobId === id);
     expect(stall).toBeDefined();
-    console.info(`[faults] SIGKILL → redelivery noticed after ${(stall!.time as number) - killedAt} ms (WORKER_LOCK_MS=2000)`);
+    redeliveryMs = (stall!.time as number) - killedAt;
+    console.info(`[faults] SIGKILL → stall noticed after ${redeliveryMs} ms (WORKER_LOCK_MS=2000)`);
     expect(survivor.logs('job completed').map((l) => l.jobId)).toEqual([id]);
     expect(holder.logs('job completed')).toEqual([]);
     // BullMQ counts every start of the job in the job hash ("ats", attemptsStarted): two starts.
@@ -83,4 +85,12 @@ describe.skipIf(!withRedis)('when a worker process is killed while it computes',
       await embedded.stop();
     }
   }, 180_000);
+
+  // Known bug (reported): the worker sets lockDuration from WORKER_LOCK_MS but leaves BullMQ's
+  // stalledInterval at its 30 s default, so a dead worker's job waits 30–60 s for the stall check
+  // whatever WORKER_LOCK_MS says. A lab engineer setting 2 s expects redelivery within a few locks.
+  it.fails('should notice the dead worker within five lock periods (WORKER_LOCK_MS=2000 → 10 s)', () => {
+    if (redeliveryMs === null) throw new Error('the redelivery test above did not measure a delay');
+    expect(redeliveryMs).toBeLessThan(5 * 2000);
+  });
 });
