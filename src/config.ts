@@ -34,7 +34,7 @@ const EnvSchema = z.object({
   API_KEYS: z.string().optional(),
   API_KEYS_FILE: z.string().min(1).optional(),
   ALLOW_OPEN_MODE: z.enum(['true', 'false', '1', '0']).default('false'),
-  RATE_LIMIT_PER_MINUTE: int(600, 0),
+  RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(0).optional(),
   CORS_ORIGINS: z.string().optional(),
   WORKER_LOCK_MS: int(30_000, 1000),
   WORKER_MAX_STALLED: int(2, 0),
@@ -67,7 +67,7 @@ export interface Config {
   /** API keys as `tenant:role:sha256hex[:label]` entries; empty = open mode */
   apiKeys: ApiKeyEntry[];
   allowOpenMode: boolean;
-  /** requests per minute per key (or per address in open mode); 0 = no limit */
+  /** requests per minute per key (or per address in open mode); 0 = no limit; default 6000 with keys, none in open mode */
   rateLimitPerMinute: number;
   corsOrigins: string[];
   workerLockMs: number;
@@ -147,7 +147,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
       ...(e.API_KEYS_FILE ? parseApiKeys(readKeysFile(e.API_KEYS_FILE), `API_KEYS_FILE ${e.API_KEYS_FILE}`) : []),
     ],
     allowOpenMode: e.ALLOW_OPEN_MODE === 'true' || e.ALLOW_OPEN_MODE === '1',
-    rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE,
+    // Per key once keys exist; open mode serves only this machine (or a forced network), so no default limit.
+    rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE ?? (e.API_KEYS || e.API_KEYS_FILE ? 6000 : 0),
     corsOrigins: e.CORS_ORIGINS ? e.CORS_ORIGINS.split(',').map((o) => o.trim()).filter(Boolean) : [],
     workerLockMs: e.WORKER_LOCK_MS,
     workerMaxStalled: e.WORKER_MAX_STALLED,

@@ -86,7 +86,7 @@ describe('when the recipe asks for Morlet power around events', () => {
     expect(burst('Fz')).toBeLessThan(burst('O1') - 10);
 
     // The matrix of one channel is fetched on its own; its peak lies at 10 Hz inside the burst window.
-    const { shape, values } = await matrix(job.id, 'power-0');
+    const { shape, values } = await matrix(job.id as string, 'power-0');
     const [T, F] = shape as [number, number];
     expect(T).toBe(tf.times.length);
     expect(F).toBe(7);
@@ -101,8 +101,8 @@ describe('when the recipe asks for Morlet power around events', () => {
     // (E ≈ √(π/(4n)), common practice), the random-phase burst in O1 does not.
     expect(tf.phaseConsistencyNull.trialCount).toBe(trials);
     expect(tf.phaseConsistencyNull.rootMeanSquare).toBeCloseTo(1 / Math.sqrt(trials), 12);
-    const fz = (await matrix(job.id, 'phase-consistency-2')).values;
-    const o1 = (await matrix(job.id, 'phase-consistency-0')).values;
+    const fz = (await matrix(job.id as string, 'phase-consistency-2')).values;
+    const o1 = (await matrix(job.id as string, 'phase-consistency-0')).values;
     const cell = (t: number, k: number) => t * F + k;
     const t05 = tf.times.findIndex((x: number) => x >= 0.5);
     expect(fz[cell(t05, 1)]!).toBeGreaterThan(0.9);
@@ -126,7 +126,7 @@ describe('when the recipe asks for Morlet power around events', () => {
 describe('when the recipe asks for a spectrogram', () => {
   it('should show the burst at 10 Hz in the windows centred inside 0.3–0.6 s', async () => {
     const { job, record } = await run({ method: 'spectrogram', windowSeconds: 0.2, stepSeconds: 0.05, frequencyRange: [0, 40], epoching: { mode: 'events', beforeSeconds: before, afterSeconds: after } });
-    const { shape, values } = await matrix(job.id, 'power-0');
+    const { shape, values } = await matrix(job.id as string, 'power-0');
     const [T, F] = shape as [number, number];
     const k10 = record.result.frequencies.indexOf(10);
     const times: number[] = record.result.timeFrequency.times;
