@@ -30,6 +30,7 @@ const EnvSchema = z.object({
   MAX_SAMPLES: int(64 * 1024 * 1024),
   MAX_SAMPLING_RATE: int(100_000),
   MAX_FFT_LENGTH: int(1 << 20),
+  MAX_OUTPUT_VALUES: int(64 * 1024 * 1024),
   MAX_STORE_BYTES: int(0, 0),
   API_KEYS: z.string().optional(),
   API_KEYS_FILE: z.string().min(1).optional(),
@@ -140,7 +141,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     jobAttempts: e.JOB_ATTEMPTS,
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
     signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE },
-    recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH },
+    recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH, maxOutputValues: e.MAX_OUTPUT_VALUES },
     maxStoreBytes: e.MAX_STORE_BYTES,
     apiKeys: [
       ...(e.API_KEYS ? parseApiKeys(e.API_KEYS, 'environment variable API_KEYS') : []),

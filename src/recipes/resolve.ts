@@ -11,9 +11,11 @@ export interface SignalShape {
 
 export interface RecipeLimits {
   maxFftLength: number;
+  /** float64 values a time–frequency result may hold in its matrices (channels × times × frequencies, × trials when kept) */
+  maxOutputValues: number;
 }
 
-export const DEFAULT_RECIPE_LIMITS: Readonly<RecipeLimits> = Object.freeze({ maxFftLength: 1 << 20 });
+export const DEFAULT_RECIPE_LIMITS: Readonly<RecipeLimits> = Object.freeze({ maxFftLength: 1 << 20, maxOutputValues: 64 * 1024 * 1024 });
 
 /** Values that follow from a recipe and the signal's sampling rate and epoch length. */
 export interface DerivedSettings {
@@ -111,6 +113,20 @@ function resolveTimeFrequency(recipe: Exclude<Recipe, SpectrumRecipe>, hash: str
   }
   const step = segmentSamples - overlapSamples;
   const segmentsPerEpoch = Math.floor((epochSamples - overlapSamples) / Math.max(1, step));
+  if (recipe.method !== 'connectivity' && recipe.output === 'matrix') {
+    const times = recipe.method === 'morlet' ? Math.ceil(epochSamples / recipe.decimation) : segmentsPerEpoch;
+    const frequencies = recipe.method === 'morlet' ? (Array.isArray(recipe.frequencies) ? recipe.frequencies.length : recipe.frequencies.count) : Math.floor(fftLength / 2) + 1;
+    const channels = shape.channels?.length ?? 1;
+    const trials = recipe.perTrial && !recipe.epoching ? (shape.epochCount ?? 1) : 1;
+    const values = channels * times * frequencies * (1 + (recipe.perTrial ? trials : 0) + (recipe.method === 'morlet' && recipe.phaseConsistency ? 1 : 0));
+    if (values > limits.maxOutputValues) {
+      throw new RecipeInputError(
+        'limit',
+        `the matrices would hold ${values} values (${channels} channels × ${times} times × ${frequencies} frequencies${recipe.perTrial ? ' with every trial' : ''}), above this server's limit of ${limits.maxOutputValues}; use decimation, fewer frequencies, output "summary", or fewer channels`,
+        '/output',
+      );
+    }
+  }
   return {
     recipe,
     hash,

@@ -58,11 +58,22 @@ describe('resolveRecipe', () => {
 
   it('should refuse an fftLength above the configured limit', () => {
     const big = normalizeRecipe({ method: 'welch', fftLength: 4096 });
-    expect(() => resolveRecipe(big.recipe, big.hash, { samplingRate: 500, samplesPerEpoch: 5000 }, { maxFftLength: 2048 })).toThrow(/limit of 2048/);
+    expect(() => resolveRecipe(big.recipe, big.hash, { samplingRate: 500, samplesPerEpoch: 5000 }, { maxFftLength: 2048, maxOutputValues: 1e9 })).toThrow(/limit of 2048/);
   });
 
   it('should accept an fftLength that is not a power of two and use it as given', () => {
     const r = normalizeRecipe({ method: 'welch', fftLength: 1001 });
     expect(resolveRecipe(r.recipe, r.hash, { samplingRate: 500, samplesPerEpoch: 5000 }).derived.fftLength).toBe(1001);
+  });
+});
+
+describe('when a time–frequency recipe would produce too much', () => {
+  it('should refuse it before any work starts, saying how to shrink it', () => {
+    const tf = normalizeRecipe({ method: 'morlet', frequencies: { low: 2, high: 100, count: 100 } });
+    const shape = { samplingRate: 500, samplesPerEpoch: 500 * 60, channels: Array.from({ length: 64 }, (_, i) => `E${i}`) };
+    // 64 channels × 30 000 times × 100 frequencies = 192 M values.
+    expect(() => resolveRecipe(tf.recipe, tf.hash, shape)).toThrow(/192000000 values .* use decimation/);
+    const small = normalizeRecipe({ method: 'morlet', frequencies: { low: 2, high: 100, count: 100 }, decimation: 10 });
+    expect(() => resolveRecipe(small.recipe, small.hash, shape)).not.toThrow();
   });
 });
