@@ -167,10 +167,22 @@ function cut(input: ContinuousData, candidates: Candidate[], window: Window, scr
   const checked = screening.rejectionChannels ?? Array.from({ length: channelCount }, (_, c) => c);
   const kept: EpochDescriptor[] = [];
   const dropped: DroppedEpoch[] = [];
-  const out = new Float64Array(candidates.length * channelCount * spe);
-  let epochs = 0;
   const p2p = new Float64Array(channelCount);
+  const scratch = new Float64Array(spe);
 
+  // The same copy and baseline arithmetic as the output, on one channel at a time.
+  const extract = (target: Float64Array, c: number, a: number): void => {
+    target.set(input.data.subarray(c * sampleCount + a, c * sampleCount + a + spe));
+    if (baseline !== null) {
+      let sum = 0;
+      for (let k = baseline[0]; k < baseline[1]; k++) sum += target[k]!;
+      const mean = sum / (baseline[1] - baseline[0]);
+      for (let k = 0; k < spe; k++) target[k]! -= mean;
+    }
+  };
+
+  // First pass decides which epochs stay, so the output is allocated once at its final size:
+  // a long recording is then held twice (input and epochs), never three times.
   for (const { descriptor } of candidates) {
     const a = descriptor.startSample;
     if (a < 0 || a + spe > sampleCount) {
@@ -182,26 +194,18 @@ function cut(input: ContinuousData, candidates: Candidate[], window: Window, scr
       dropped.push({ ...descriptor, reason: 'bad-span', span });
       continue;
     }
-    const base = epochs * channelCount * spe;
-    for (let c = 0; c < channelCount; c++) {
-      const target = out.subarray(base + c * spe, base + (c + 1) * spe);
-      target.set(input.data.subarray(c * sampleCount + a, c * sampleCount + a + spe));
-      if (baseline !== null) {
-        let sum = 0;
-        for (let k = baseline[0]; k < baseline[1]; k++) sum += target[k]!;
-        const mean = sum / (baseline[1] - baseline[0]);
-        for (let k = 0; k < spe; k++) target[k]! -= mean;
-      }
-      let low = Infinity;
-      let high = -Infinity;
-      for (let k = 0; k < spe; k++) {
-        const x = target[k]!;
-        if (x < low) low = x;
-        if (x > high) high = x;
-      }
-      p2p[c] = high - low;
-    }
     if (threshold !== undefined) {
+      for (const c of checked) {
+        extract(scratch, c, a);
+        let low = Infinity;
+        let high = -Infinity;
+        for (let k = 0; k < spe; k++) {
+          const x = scratch[k]!;
+          if (x < low) low = x;
+          if (x > high) high = x;
+        }
+        p2p[c] = high - low;
+      }
       let worst = -1;
       for (const c of checked) if (p2p[c]! > threshold && (worst < 0 || p2p[c]! > p2p[worst]!)) worst = c;
       if (worst >= 0) {
@@ -210,11 +214,15 @@ function cut(input: ContinuousData, candidates: Candidate[], window: Window, scr
       }
     }
     kept.push(descriptor);
-    epochs++;
   }
+  const out = new Float64Array(kept.length * channelCount * spe);
+  kept.forEach((descriptor, e) => {
+    const base = e * channelCount * spe;
+    for (let c = 0; c < channelCount; c++) extract(out.subarray(base + c * spe, base + (c + 1) * spe), c, descriptor.startSample);
+  });
   return {
-    data: out.slice(0, epochs * channelCount * spe),
-    epochCount: epochs,
+    data: out,
+    epochCount: kept.length,
     channelCount,
     samplesPerEpoch: spe,
     kept,
