@@ -1,9 +1,11 @@
-import { Redis } from 'ioredis';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Worker } from 'bullmq';
+import { Redis } from 'ioredis';
+import { BullQueue } from '../../src/jobs/bullmq-queue.js';
 import { RedisStore } from '../../src/stores/redis-store.js';
 import type { Store } from '../../src/stores/store.js';
 import { redisForTests, TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
-import { FINISHED, http, smallInlineSignal, startHttpApi, startWorkerProcess, until, type HttpAnswer, type ServiceProcess } from './helpers.js';
+import { FINISHED, http, smallInlineSignal, startDistributed, startHttpApi, until, type Distributed, type HttpAnswer } from './helpers.js';
 
 const withRedis = await redisForTests();
 const SUBMISSIONS = 500;
@@ -36,17 +38,24 @@ async function checkAccounting(base: string, answers: HttpAnswer[], store: Store
     timeoutMs,
     500,
   );
-  expect(finished.map((j) => j.id).sort()).toEqual([...ids].sort());
-  for (const job of finished) {
+  // Read once more: a view taken while a job was finishing can say succeeded without its
+  // resultHash (the race pinned down in the test below), so the accounting uses settled views.
+  const settled = (await http(base, 'GET', '/v1/jobs?limit=1000')).body.jobs as typeof finished;
+  expect(settled.map((j) => j.id).sort()).toEqual([...ids].sort());
+  expect(finished.length).toBe(settled.length);
+  for (const job of settled) {
     if (job.state === 'failed') expect(job.problem?.detail).toMatch(/\S/);
     else expect(job.state).toBe('succeeded');
   }
-  const succeeded = finished.filter((j) => j.state === 'succeeded');
+  const succeeded = settled.filter((j) => j.state === 'succeeded');
   // One record per succeeded job, no more: a job computed twice would still write one key, so the
   // distinct result hashes show that no two jobs shared a record either.
   expect((await store.listDocuments('records')).length).toBe(succeeded.length);
-  expect(new Set(succeeded.map((j) => j.resultHash)).size).toBe(succeeded.length);
-  return { succeeded: succeeded.length, failed: finished.length - succeeded.length };
+  const byHash = new Map<string, string[]>();
+  for (const j of succeeded) byHash.set(String(j.resultHash), [...(byHash.get(String(j.resultHash)) ?? []), j.id]);
+  const shared = [...byHash].filter(([, jobIds]) => jobIds.length > 1).map(([hash, jobIds]) => `${hash}: ${jobIds.join(' ')}`);
+  expect(shared, 'succeeded jobs sharing a resultHash').toEqual([]);
+  return { succeeded: succeeded.length, failed: settled.length - succeeded.length };
 }
 
 describe(`when ${SUBMISSIONS} submissions arrive at once`, () => {
@@ -64,37 +73,62 @@ describe(`when ${SUBMISSIONS} submissions arrive at once`, () => {
   });
 
   describe.skipIf(!withRedis)('when the API queues on Redis for two worker processes', () => {
-    const prefix = uniqueName('rm-faults-burst');
-    const env = { REDIS_URL: TEST_REDIS_URL, REDIS_PREFIX: prefix, QUEUE_NAME: 'analyses' };
-    let api: Awaited<ReturnType<typeof startHttpApi>>;
-    const workers: ServiceProcess[] = [];
+    let d: Distributed;
     let store: RedisStore;
-
     beforeAll(async () => {
-      api = await startHttpApi(env);
-      store = new RedisStore(TEST_REDIS_URL, prefix);
-      workers.push(startWorkerProcess(env), startWorkerProcess(env));
-      await Promise.all(workers.map((w) => w.waitForLog('rhythmetric worker started', 20_000)));
+      d = await startDistributed('rm-faults-burst', {}, 2);
+      store = new RedisStore(TEST_REDIS_URL, d.prefix);
     });
-
     afterAll(async () => {
-      await Promise.all(workers.map((w) => w.stop()));
-      await api?.stop();
-      const redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
-      const keys = await redis.keys(`${prefix}:*`);
-      if (keys.length > 0) await redis.del(...keys);
-      redis.disconnect();
       await store?.close();
+      await d?.destroy();
     });
 
     it('should finish every accepted job once across both workers', async () => {
-      const answers = await burst(api.base, 5000);
-      const result = await checkAccounting(api.base, answers, store, 120_000);
+      const answers = await burst(d.api.base, 5000);
+      const result = await checkAccounting(d.api.base, answers, store, 120_000);
       expect(result.succeeded).toBe(SUBMISSIONS);
-      const completed = workers.flatMap((w) => w.logs('job completed').map((l) => l.jobId as string));
+      const completed = d.workers.flatMap((w) => w.logs('job completed').map((l) => l.jobId as string));
       // Each job completed by exactly one worker, once.
       expect(completed.length).toBe(SUBMISSIONS);
       expect(new Set(completed).size).toBe(SUBMISSIONS);
     }, 150_000);
+  });
+
+  describe.skipIf(!withRedis)('when a job finishes between the two reads of a BullMQ job view', () => {
+    const prefix = uniqueName('rm-faults-view');
+    let queue: BullQueue;
+    let worker: Worker | null = null;
+    beforeAll(async () => {
+      queue = new BullQueue({ url: TEST_REDIS_URL, prefix, queueName: 'analyses' });
+      expect(await queue.connected()).toBe(true);
+    });
+    afterAll(async () => {
+      await worker?.close();
+      await queue.close();
+      const redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
+      const keys = await redis.keys(`${prefix}:*`);
+      if (keys.length > 0) await redis.del(...keys);
+      redis.disconnect();
+    });
+
+    // Known bug (reported): BullQueue.get() reads the job hash (getJob) and then its state
+    // (getState) in two round trips; a job that completes in between is shown "succeeded" with
+    // resultHash null and finishedAt null. Seen above under load (2 of 500 jobs in one run); here
+    // the interleaving is made deterministic by finishing the job between the two reads.
+    it.fails('should never show a succeeded job without its resultHash', async () => {
+      const spec = { tenant: 'public', signalId: 'sig_0', sha256: '0', recipeId: 'rcp_0', recipeHash: '0', recipe: {}, recordKey: 'k' };
+      await queue.queue.add('analyze', spec, { jobId: 'job_race' });
+      const stale = (await queue.queue.getJob('job_race'))!;
+      const done = new Promise<void>((ok) => {
+        worker = new Worker('analyses', async () => ({ recordKey: 'k', resultHash: 'f'.repeat(64), computed: true }), { connection: { url: TEST_REDIS_URL, maxRetriesPerRequest: null }, prefix });
+        worker.on('completed', () => ok());
+      });
+      await done;
+      // What get() does, with the job finishing after getJob and before getState.
+      const view = await (queue as unknown as { view(job: unknown): Promise<{ state: string; resultHash: string | null }> }).view(stale);
+      expect(view.state).toBe('succeeded');
+      expect(view.resultHash).toBe('f'.repeat(64));
+    });
   });
 });

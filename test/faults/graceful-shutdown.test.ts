@@ -2,10 +2,9 @@ import { existsSync } from 'node:fs';
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Redis } from 'ioredis';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { redisForTests, TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
-import { freePort, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, OwnRedis, pollJobHttp, ServiceProcess, startHttpApi, startWorkerProcess, until, uploadFloat32 } from './helpers.js';
+import { redisForTests } from '../helpers/redis.js';
+import { freePort, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, OwnRedis, pollJobHttp, ServiceProcess, startDistributed, until, uploadFloat32, type Distributed } from './helpers.js';
 
 const withRedis = await redisForTests();
 const { channels, seconds, samplingRate } = LONG_SIGNAL;
@@ -70,28 +69,15 @@ describe('when the embedded server gets SIGTERM while a job runs', () => {
 });
 
 describe.skipIf(!withRedis)('when a worker process gets SIGTERM while it computes', () => {
-  const prefix = uniqueName('rm-faults-term');
-  const env = { REDIS_URL: TEST_REDIS_URL, REDIS_PREFIX: prefix, QUEUE_NAME: 'analyses', WORKER_LOCK_MS: '2000' };
-  let api: Awaited<ReturnType<typeof startHttpApi>>;
-  const workers: ServiceProcess[] = [];
-
+  let d: Distributed;
   beforeAll(async () => {
-    api = await startHttpApi(env);
+    d = await startDistributed('rm-faults-term', { WORKER_LOCK_MS: '2000' }, 0);
   });
-
-  afterAll(async () => {
-    await Promise.all(workers.map((w) => w.stop()));
-    await api?.stop();
-    const redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
-    const keys = await redis.keys(`${prefix}:*`);
-    if (keys.length > 0) await redis.del(...keys);
-    redis.disconnect();
-  });
+  afterAll(async () => d?.destroy());
 
   it('should not lose the job: the worker finishes it (or hands it back) and exits 0', async () => {
-    const worker = startWorkerProcess(env);
-    workers.push(worker);
-    await worker.waitForLog('rhythmetric worker started', 20_000);
+    const { api, workers } = d;
+    const worker = await d.start();
     const id = await runningJob(api.base, 37);
     worker.kill('SIGTERM');
     const { result } = await exitWithin(worker, 60_000);
@@ -101,8 +87,7 @@ describe.skipIf(!withRedis)('when a worker process gets SIGTERM while it compute
     let job = (await http(api.base, 'GET', `/v1/jobs/${id}`)).body;
     if (job.state !== 'succeeded') {
       // Handed back instead of finished: another worker must pick it up.
-      const next = startWorkerProcess(env);
-      workers.push(next);
+      await d.start();
       job = await pollJobHttp(api.base, id, 100_000);
     }
     expect(job.state).toBe('succeeded');

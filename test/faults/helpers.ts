@@ -8,7 +8,9 @@ import { fileURLToPath } from 'node:url';
 import { createLogger, startApi } from '../../src/cli/runtime.js';
 import { createRandom } from '../../src/common/random.js';
 import { loadConfig } from '../../src/config.js';
+import { Redis } from 'ioredis';
 import { sink } from '../helpers/app.js';
+import { TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
 
 export const REPO_ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
 export const FINISHED = new Set(['succeeded', 'failed', 'canceled']);
@@ -273,3 +275,42 @@ export function smallInlineSignal(seed: number, channels = 4, seconds = 2, sampl
  */
 export const LONG_RECIPE = { method: 'welch', fftLength: 1009, overlap: 0.98 } as const;
 export const LONG_SIGNAL = { channels: 16, seconds: 300, samplingRate: 500 } as const;
+
+/**
+ * Distributed mode on TEST_REDIS_URL under a fresh key prefix: the API in this process and
+ * `workerCount` worker children. `start()` adds another worker; `destroy()` kills every child,
+ * closes the API and deletes the prefix's keys (call it from afterAll).
+ */
+export async function startDistributed(stem: string, extraEnv: Record<string, string>, workerCount: number) {
+  const prefix = uniqueName(stem);
+  const env = { REDIS_URL: TEST_REDIS_URL, REDIS_PREFIX: prefix, QUEUE_NAME: 'analyses', ...extraEnv };
+  const redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
+  redis.on('error', () => {});
+  const api = await startHttpApi(env);
+  const workers: ServiceProcess[] = [];
+  const start = async () => {
+    const worker = startWorkerProcess(env);
+    workers.push(worker);
+    await worker.waitForLog('rhythmetric worker started', 20_000);
+    return worker;
+  };
+  await Promise.all(Array.from({ length: workerCount }, start));
+  return {
+    prefix,
+    env,
+    api,
+    redis,
+    workers,
+    start,
+    /** A field of BullMQ's job hash, e.g. "ats" (attempts started). */
+    jobField: (jobId: string, field: string) => redis.hget(`${prefix}:analyses:${jobId}`, field),
+    async destroy() {
+      await Promise.all(workers.map((w) => w.stop()));
+      await api.stop();
+      const keys = await redis.keys(`${prefix}:*`);
+      for (let i = 0; i < keys.length; i += 500) await redis.del(...keys.slice(i, i + 500));
+      redis.disconnect();
+    },
+  };
+}
+export type Distributed = Awaited<ReturnType<typeof startDistributed>>;

@@ -1,8 +1,7 @@
-import { Redis } from 'ioredis';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { RedisStore } from '../../src/stores/redis-store.js';
-import { redisForTests, TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
-import { busiest, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, startHttpApi, startWorkerProcess, until, uploadFloat32, type ServiceProcess } from './helpers.js';
+import { redisForTests, TEST_REDIS_URL } from '../helpers/redis.js';
+import { busiest, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, startDistributed, until, uploadFloat32, type Distributed } from './helpers.js';
 
 const withRedis = await redisForTests();
 const { channels, seconds, samplingRate } = LONG_SIGNAL;
@@ -14,28 +13,14 @@ const MAX_STALLED = 1;
  * with the reason "job stalled more than allowable limit" (BullMQ's wording, from memory).
  */
 describe.skipIf(!withRedis)('when a job kills every worker that picks it up', () => {
-  const prefix = uniqueName('rm-faults-poison');
-  const env = { REDIS_URL: TEST_REDIS_URL, REDIS_PREFIX: prefix, QUEUE_NAME: 'analyses', WORKER_LOCK_MS: '2000', WORKER_MAX_STALLED: String(MAX_STALLED) };
-  const workers: ServiceProcess[] = [];
-  let api: Awaited<ReturnType<typeof startHttpApi>>;
-  let redis: Redis;
-
+  let d: Distributed;
   beforeAll(async () => {
-    redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
-    api = await startHttpApi(env);
-    workers.push(startWorkerProcess(env), startWorkerProcess(env));
-    await Promise.all(workers.map((w) => w.waitForLog('rhythmetric worker started', 20_000)));
+    d = await startDistributed('rm-faults-poison', { WORKER_LOCK_MS: '2000', WORKER_MAX_STALLED: String(MAX_STALLED) }, 2);
   });
-
-  afterAll(async () => {
-    await Promise.all(workers.map((w) => w.stop()));
-    await api?.stop();
-    const keys = await redis.keys(`${prefix}:*`);
-    if (keys.length > 0) await redis.del(...keys);
-    redis.disconnect();
-  });
+  afterAll(async () => d?.destroy());
 
   it('should fail the job after maxStalledCount + 1 runs and say that it stalled', async () => {
+    const { api, workers, prefix } = d;
     const signal = await uploadFloat32(api.base, noiseFloat32(23, channels, seconds, samplingRate), channels, samplingRate);
     const submitted = await http(api.base, 'POST', '/v1/jobs', { signal, recipe: LONG_RECIPE });
     expect(submitted.status).toBe(202);
@@ -52,7 +37,7 @@ describe.skipIf(!withRedis)('when a job kills every worker that picks it up', ()
           if (res.body.state !== 'running') return res.body.state === 'queued' ? undefined : res.body;
           // A killed worker's job stays "running" until the stall is noticed: wait for a fresh start
           // (BullMQ's attemptsStarted, "ats" in the job hash).
-          return Number(await redis.hget(`${prefix}:analyses:${id}`, 'ats')) > kills ? res.body : undefined;
+          return Number(await d.jobField(id, 'ats')) > kills ? res.body : undefined;
         },
         100_000,
         100,
@@ -62,9 +47,7 @@ describe.skipIf(!withRedis)('when a job kills every worker that picks it up', ()
       holder.kill('SIGKILL');
       await holder.exited;
       kills++;
-      const replacement = startWorkerProcess(env);
-      workers.push(replacement);
-      await replacement.waitForLog('rhythmetric worker started', 20_000);
+      await d.start();
     }
 
     expect(job.state).toBe('failed');

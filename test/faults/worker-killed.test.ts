@@ -1,8 +1,7 @@
-import { Redis } from 'ioredis';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { RedisStore } from '../../src/stores/redis-store.js';
-import { redisForTests, TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
-import { busiest, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, pollJobHttp, startHttpApi, startWorkerProcess, until, uploadFloat32, type ServiceProcess } from './helpers.js';
+import { redisForTests, TEST_REDIS_URL } from '../helpers/redis.js';
+import { busiest, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, pollJobHttp, startDistributed, startHttpApi, until, uploadFloat32, type Distributed } from './helpers.js';
 
 const withRedis = await redisForTests();
 const { channels, seconds, samplingRate } = LONG_SIGNAL;
@@ -13,30 +12,17 @@ const { channels, seconds, samplingRate } = LONG_SIGNAL;
  * must then hand the job to another worker, or fail it after maxStalledCount redeliveries.
  */
 describe.skipIf(!withRedis)('when a worker process is killed while it computes', () => {
-  const prefix = uniqueName('rm-faults-kill');
-  const env = { REDIS_URL: TEST_REDIS_URL, REDIS_PREFIX: prefix, QUEUE_NAME: 'analyses', WORKER_LOCK_MS: '2000', WORKER_MAX_STALLED: '2' };
-  const workers: ServiceProcess[] = [];
-  let api: Awaited<ReturnType<typeof startHttpApi>>;
-  let redis: Redis;
+  let d: Distributed;
   const bytes = noiseFloat32(11, channels, seconds, samplingRate);
   let redeliveryMs: number | null = null;
 
   beforeAll(async () => {
-    redis = new Redis(TEST_REDIS_URL, { maxRetriesPerRequest: 1 });
-    api = await startHttpApi(env);
-    workers.push(startWorkerProcess(env), startWorkerProcess(env));
-    await Promise.all(workers.map((w) => w.waitForLog('rhythmetric worker started', 20_000)));
+    d = await startDistributed('rm-faults-kill', { WORKER_LOCK_MS: '2000', WORKER_MAX_STALLED: '2' }, 2);
   });
-
-  afterAll(async () => {
-    await Promise.all(workers.map((w) => w.stop()));
-    await api?.stop();
-    const keys = await redis.keys(`${prefix}:*`);
-    if (keys.length > 0) await redis.del(...keys);
-    redis.disconnect();
-  });
+  afterAll(async () => d?.destroy());
 
   it('should redeliver the job to the other worker and succeed exactly once with the embedded-mode hash', async () => {
+    const { api, workers, prefix } = d;
     const signal = await uploadFloat32(api.base, bytes, channels, samplingRate);
     const submitted = await http(api.base, 'POST', '/v1/jobs', { signal, recipe: LONG_RECIPE });
     expect(submitted.status).toBe(202);
@@ -61,7 +47,7 @@ describe.skipIf(!withRedis)('when a worker process is killed while it computes',
     expect(survivor.logs('job completed').map((l) => l.jobId)).toEqual([id]);
     expect(holder.logs('job completed')).toEqual([]);
     // BullMQ counts every start of the job in the job hash ("ats", attemptsStarted): two starts.
-    expect(Number(await redis.hget(`${prefix}:analyses:${id}`, 'ats'))).toBe(2);
+    expect(Number(await d.jobField(id, 'ats'))).toBe(2);
 
     const store = new RedisStore(TEST_REDIS_URL, prefix);
     try {
