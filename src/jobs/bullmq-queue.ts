@@ -175,11 +175,15 @@ export class BullQueue implements JobQueue {
     }
   }
 
+  /** Bounded: with Redis down, QUIT and BullMQ's close would wait for a reconnection that may never come. */
   async close(): Promise<void> {
-    await this.events?.close().catch(() => undefined);
+    const bounded = (p: Promise<unknown>) => Promise.race([p.catch(() => undefined), new Promise((r) => setTimeout(r, 2000).unref())]);
+    const up = this.connection.status === 'ready';
+    await bounded(this.events?.close() ?? Promise.resolve());
     this.eventsConnection?.disconnect();
-    await this.queue.close().catch(() => undefined);
-    await this.connection.quit().catch(() => this.connection.disconnect());
+    await bounded(this.queue.close());
+    if (up) await bounded(this.connection.quit());
+    this.connection.disconnect();
   }
 
   private tombstoneKey(jobId: string): string {

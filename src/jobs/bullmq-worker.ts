@@ -64,6 +64,8 @@ export function startBullWorker(options: BullWorkerOptions): { worker: Worker; c
     prefix: options.prefix,
     concurrency: options.concurrency ?? options.pool.threads,
     lockDuration: options.lockDurationMs ?? 30_000,
+    // Stalled jobs are looked for at this interval; without it a shorter lock would not redeliver sooner.
+    stalledInterval: options.lockDurationMs ?? 30_000,
     maxStalledCount: options.maxStalledCount ?? 2,
   });
   worker.on('completed', (job) => options.onEvent?.('completed', { jobId: job.id, resultHash: job.returnvalue?.resultHash }));
@@ -74,7 +76,8 @@ export function startBullWorker(options: BullWorkerOptions): { worker: Worker; c
     worker,
     close: async () => {
       await worker.close();
-      await connection.quit().catch(() => connection.disconnect());
+      if (connection.status === 'ready') await Promise.race([connection.quit().catch(() => undefined), new Promise((r) => setTimeout(r, 2000).unref())]);
+      connection.disconnect();
     },
   };
 }

@@ -144,6 +144,7 @@ export class RedisStore implements Store {
   }
 
   async close(): Promise<void> {
-    await this.redis.quit().catch(() => this.redis.disconnect());
+    if (this.redis.status === 'ready') await Promise.race([this.redis.quit().catch(() => undefined), new Promise((r) => setTimeout(r, 2000).unref())]);
+    this.redis.disconnect();
   }
 }
