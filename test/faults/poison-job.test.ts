@@ -39,7 +39,7 @@ describe.skipIf(!withRedis)('when a job kills every worker that picks it up', ()
           // (BullMQ's attemptsStarted, "ats" in the job hash).
           return Number(await d.jobField(id, 'ats')) > kills ? res.body : undefined;
         },
-        100_000,
+        30_000,
         100,
       );
       if (job.state !== 'running') break;
@@ -65,5 +65,5 @@ describe.skipIf(!withRedis)('when a job kills every worker that picks it up', ()
     }
     const record = await http(api.base, 'GET', `/v1/jobs/${id}/record`);
     expect(record.status).toBe(409);
-  }, 240_000);
+  }, 90_000);
 });

@@ -37,7 +37,7 @@ async function outage(store: 'redis' | 'filesystem') {
     env,
     async destroy() {
       await Promise.all(workers.map((w) => w.stop()));
-      // The API is closed with Redis up: closing it during an outage does not finish (see the report).
+      // Close with Redis up, so that the close does not wait on reconnection bounds.
       await redis.up().catch(() => undefined);
       await Promise.race([api.stop(), sleep(10_000)]);
       await redis.destroy();
