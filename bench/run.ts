@@ -22,6 +22,7 @@ const BLOCKS: readonly Block[] = [
   { name: 'Morlet', file: 'morlet.ts', exportName: 'benchMorlet' },
   { name: '1 GiB upload', file: 'upload.ts', exportName: 'benchUpload' },
   { name: '2-hour recording', file: 'recording.ts', exportName: 'benchRecording' },
+  { name: 'load (autocannon)', file: 'load.ts', exportName: 'benchLoad' },
 ];
 
 function machine(): string[] {

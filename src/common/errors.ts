@@ -30,7 +30,7 @@ export const PROBLEMS = {
   'not-found': { status: 404, title: 'Not found', about: 'No route matches.' },
   'method-not-allowed': { status: 405, title: 'Method not allowed', about: 'The route exists but not with this method.' },
   'rate-limited': { status: 429, title: 'Too many requests', about: 'Slow down; Retry-After says when.' },
-  'queue-unavailable': { status: 503, title: 'The job queue is unavailable', about: 'Redis cannot be reached; Retry-After says when to try again.' },
+  'queue-unavailable': { status: 503, title: 'The job queue is unavailable', about: 'Redis (the queue, and the store in distributed mode) cannot be reached; nothing was changed; Retry-After says when to try again.' },
   'worker-crashed': { status: 500, title: 'The computation failed', about: 'A worker failed for a reason outside the input after every retry.' },
   'internal': { status: 500, title: 'Internal error', about: 'An unexpected fault; the request id in the body helps the operator find it in the logs.' },
 } as const satisfies Record<string, { status: number; title: string; about: string }>;

@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import { createServer } from 'node:http';
 import swagger from '@fastify/swagger';
 import Fastify, { type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { jsonSchemaTransform, jsonSchemaTransformObject, serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
@@ -47,8 +48,16 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   const app = Fastify({
     loggerInstance: deps.logger as unknown as FastifyBaseLogger,
     bodyLimit: deps.config.bodyLimitBytes,
-    // A client that trickles its body is cut off instead of holding a connection for ever.
-    requestTimeout: deps.config.requestTimeoutMs,
+    // A client that trickles its body is cut off instead of holding a connection for ever. Node
+    // checks request deadlines only on connectionsCheckingInterval, which exists only at creation.
+    serverFactory: (handler) =>
+      createServer(
+        {
+          requestTimeout: deps.config.requestTimeoutMs,
+          ...(deps.config.requestTimeoutMs > 0 ? { connectionsCheckingInterval: Math.max(100, Math.min(30_000, Math.floor(deps.config.requestTimeoutMs / 4))) } : {}),
+        },
+        handler,
+      ),
     genReqId: (request) => {
       const given = request.headers['x-request-id'];
       return typeof given === 'string' && REQUEST_ID.test(given) ? given : randomUUID();

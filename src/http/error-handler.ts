@@ -32,6 +32,18 @@ function describeIssue(issue: { keyword: string; message?: string | undefined; p
   return issue.message ?? issue.keyword;
 }
 
+/** ioredis faults while Redis is down: a transient outage, answered 503 rather than 500. */
+function isConnectionFault(error: Error): boolean {
+  const code = (error as NodeJS.ErrnoException).code;
+  return (
+    error.name === 'MaxRetriesPerRequestError' ||
+    /Connection is closed|Stream isn't writeable|Reached the max retries/.test(error.message) ||
+    code === 'ECONNREFUSED' ||
+    code === 'ECONNRESET' ||
+    code === 'ETIMEDOUT'
+  );
+}
+
 /** Maps every error to a problem code; unknown errors become `internal` with no internals exposed. */
 export function mapError(error: FastifyError | Error, request: FastifyRequest): Mapped {
   if (error instanceof ProblemError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extra };
@@ -63,6 +75,9 @@ export function mapError(error: FastifyError | Error, request: FastifyRequest): 
       return { code: 'invalid-request', detail: `the body is not valid JSON: ${error.message}`, pointer: '/' };
     default:
       break;
+  }
+  if (isConnectionFault(error)) {
+    return { code: 'queue-unavailable', detail: `Redis cannot be reached (${error.message}); nothing was changed, try again shortly`, pointer: null, headers: { 'retry-after': '5' } };
   }
   if (error instanceof SyntaxError) return { code: 'invalid-request', detail: `the body is not valid JSON: ${error.message}`, pointer: '/' };
   const status = (error as FastifyError).statusCode;

@@ -6,7 +6,7 @@ import { findNonFinite, type Signal } from '../signals/signal.js';
 import { jobIdOf, recordKeyOf, viewedShape, type JobSpec } from '../jobs/spec.js';
 import { SignalInputError } from '../signals/errors.js';
 import type { SignalView } from '../signals/view.js';
-import type { SignalMeta, Store } from '../stores/store.js';
+import { StorageFullError, withStorageReservation, type SignalMeta, type Store } from '../stores/store.js';
 import { ProblemError } from './problem.js';
 
 /** Stores a decoded signal under its content hash; storing the same content again is a no-op. */
@@ -15,12 +15,6 @@ export async function storeSignal(store: Store, signal: Signal, tenant: string, 
   const id = signalIdFromHash(sha256, tenant);
   const existing = await store.getSignalMeta(id);
   if (existing) return existing;
-  if (maxStoreBytes > 0) {
-    const { bytes } = await store.usage();
-    if (bytes + signal.data.byteLength > maxStoreBytes) {
-      throw new ProblemError('storage-full', `storing ${signal.data.byteLength} bytes would exceed this server's limit of ${maxStoreBytes} bytes (${bytes} in use); nothing was stored`);
-    }
-  }
   const meta: SignalMeta = {
     id,
     sha256,
@@ -35,7 +29,12 @@ export async function storeSignal(store: Store, signal: Signal, tenant: string, 
     bytes: signal.data.byteLength,
     storedAt: new Date().toISOString(),
   };
-  await store.putSignal(meta, sampleBytes(signal.data));
+  try {
+    await withStorageReservation(store, meta.bytes, maxStoreBytes, () => store.putSignal(meta, sampleBytes(signal.data)));
+  } catch (error) {
+    if (error instanceof StorageFullError) throw new ProblemError('storage-full', error.message);
+    throw error;
+  }
   return meta;
 }
 

@@ -199,9 +199,11 @@ export class BullQueue implements JobQueue {
     };
   }
 
-  private async view(job: Job): Promise<JobView> {
+  private async view(stale: Job): Promise<JobView> {
+    const raw = await stale.getState();
+    // getJob and getState are two round trips: a job that finished in between must be read again.
+    const job = (raw === 'completed' || raw === 'failed') && !stale.finishedOn ? ((await this.queue.getJob(stale.id!)) ?? stale) : stale;
     const spec = job.data as JobSpec;
-    const raw = await job.getState();
     let state: JobState;
     let problem: JobProblem | null = null;
     switch (raw) {

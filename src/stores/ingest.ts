@@ -8,7 +8,7 @@ import { SignalInputError } from '../signals/errors.js';
 import type { SignalLimits } from '../signals/limits.js';
 import type { SignalEvent } from '../signals/signal.js';
 import { checkSignalShape } from '../signals/validate.js';
-import type { SignalMeta, Store } from './store.js';
+import { withStorageReservation, type SignalMeta, type Store } from './store.js';
 
 export type IngestDescription =
   | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; nonFinite?: 'reject' | 'keep' | undefined }
@@ -39,10 +39,6 @@ export async function ingestFile(store: Store, rawPath: string, description: Ing
     const existing = await store.getSignalMeta(id);
     if (existing) return existing;
     const bytes = decoded.description.epochCount * decoded.description.channels.length * decoded.description.samplesPerEpoch * 8;
-    if (options.maxStoreBytes > 0) {
-      const usage = await store.usage();
-      if (usage.bytes + bytes > options.maxStoreBytes) throw new StorageFullError(bytes, usage.bytes, options.maxStoreBytes);
-    }
     const meta: SignalMeta = {
       id,
       sha256,
@@ -53,23 +49,14 @@ export async function ingestFile(store: Store, rawPath: string, description: Ing
       bytes,
       storedAt: new Date().toISOString(),
     };
-    await store.putSignalFile(meta, out);
+    await withStorageReservation(store, bytes, options.maxStoreBytes, () => store.putSignalFile(meta, out));
     return meta;
   } finally {
     await rm(out, { force: true });
   }
 }
 
-export class StorageFullError extends Error {
-  override readonly name = 'StorageFullError';
-  constructor(
-    readonly needed: number,
-    readonly used: number,
-    readonly limit: number,
-  ) {
-    super(`storing ${needed} bytes would exceed this server's limit of ${limit} bytes (${used} in use); nothing was stored`);
-  }
-}
+export { StorageFullError } from './store.js';
 
 interface Decoded {
   description: { samplingRate: number; channels: string[]; unit: string; epochCount: number; samplesPerEpoch: number; events?: SignalEvent[] };

@@ -68,6 +68,39 @@ export function signalFromParts(meta: SignalMeta, samples: Uint8Array): Signal {
   return signal;
 }
 
+/** Too little room under the configured store limit; nothing was stored. */
+export class StorageFullError extends Error {
+  override readonly name = 'StorageFullError';
+  constructor(
+    readonly needed: number,
+    readonly used: number,
+    readonly limit: number,
+  ) {
+    super(`storing ${needed} bytes would exceed this server's limit of ${limit} bytes (${used} in use or reserved); nothing was stored`);
+  }
+}
+
+const reserved = new WeakMap<Store, number>();
+
+/**
+ * Runs `write` with `bytes` reserved against `limit` (0 = none). The check and the reservation
+ * happen together after the usage is read, so concurrent uploads in one process cannot overshoot
+ * the limit together; a reservation is released only after the write, so the count errs on the
+ * safe side while a write lands.
+ */
+export async function withStorageReservation<T>(store: Store, bytes: number, limit: number, write: () => Promise<T>): Promise<T> {
+  if (limit <= 0) return write();
+  const { bytes: used } = await store.usage();
+  const pending = reserved.get(store) ?? 0;
+  if (used + pending + bytes > limit) throw new StorageFullError(bytes, used + pending, limit);
+  reserved.set(store, pending + bytes);
+  try {
+    return await write();
+  } finally {
+    reserved.set(store, (reserved.get(store) ?? bytes) - bytes);
+  }
+}
+
 const SAFE_KEY = /^[A-Za-z0-9_.-]{1,240}$/;
 
 /** Keys reach file names and Redis keys: only a safe alphabet is accepted. */

@@ -112,11 +112,10 @@ describe(`when ${SUBMISSIONS} submissions arrive at once`, () => {
       redis.disconnect();
     });
 
-    // Known bug (reported): BullQueue.get() reads the job hash (getJob) and then its state
-    // (getState) in two round trips; a job that completes in between is shown "succeeded" with
-    // resultHash null and finishedAt null. Seen above under load (2 of 500 jobs in one run); here
-    // the interleaving is made deterministic by finishing the job between the two reads.
-    it.fails('should never show a succeeded job without its resultHash', async () => {
+    // BullQueue.get() reads the job hash (getJob) and then its state (getState) in two round trips;
+    // a job that completes in between must not be shown "succeeded" without its resultHash (this
+    // was seen under load, 2 of 500 jobs). The interleaving is made deterministic here.
+    it('should never show a succeeded job without its resultHash', async () => {
       const spec = { tenant: 'public', signalId: 'sig_0', sha256: '0', recipeId: 'rcp_0', recipeHash: '0', recipe: {}, recordKey: 'k' };
       await queue.queue.add('analyze', spec, { jobId: 'job_race' });
       const stale = (await queue.queue.getJob('job_race'))!;
