@@ -1,5 +1,6 @@
 import { hostname } from 'node:os';
-import { hashCanonical } from '../common/hash.js';
+import { canonicalJsonOnce } from '../common/canonical-json.js';
+import { sha256Hex } from '../common/hash.js';
 import { confidenceInterval } from '../dsp/dof.js';
 import { bandPowers, bandRatios } from '../features/bands.js';
 import { qualityFlags } from '../features/quality.js';
@@ -318,7 +319,7 @@ export function analyze(original: Signal, resolved: ResolvedRecipe, context: Ana
     recipe: { ...resolved.recipe, id: context.recipeId, hash: resolved.hash, derived: resolved.derived },
     input: { ...recordInput(original, context.signalId, context.sha256), ...(context.view ? { view: context.view } : {}) },
     result,
-    resultHash: hashCanonical(result),
+    resultHash: sha256Hex(canonicalJsonOnce(result)),
     ...(attachments.length > 0 ? { attachments } : {}),
     provenance: {
       engine: ENGINE_NAME,

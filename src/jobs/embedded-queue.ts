@@ -201,7 +201,12 @@ export class EmbeddedQueue implements JobQueue {
     await this.persist(entry);
   }
 
+  /**
+   * Acceptance (queued) and attempt counts are flushed to disk; the finished state need not be: if a
+   * power loss drops it, the job runs again on restart and finds its durable record at once.
+   */
   private persist(entry: Entry): Promise<void> {
-    return this.options.store.putDocument('jobs', entry.view.id, JSON.stringify({ view: entry.view, spec: entry.spec }));
+    const durable = entry.view.state === 'queued' || entry.view.state === 'running';
+    return this.options.store.putDocument('jobs', entry.view.id, JSON.stringify({ view: entry.view, spec: entry.spec }), { durable });
   }
 }

@@ -1,11 +1,23 @@
 import { PROBLEMS, problemType, type ProblemCode } from '../common/errors.js';
+import { canonicalJsonOnce } from '../common/canonical-json.js';
 import { analyze, type ProgressListener } from '../engine/analyze.js';
+import type { FeatureRecord } from '../engine/record.js';
 import { EngineInputError } from '../engine/errors.js';
 import { RecipeInputError } from '../recipes/errors.js';
 import { resolveRecipe } from '../recipes/resolve.js';
 import type { Store } from '../stores/store.js';
 import { viewedShape, type JobProblem, type JobSpec } from './spec.js';
 import { SignalInputError } from '../signals/errors.js';
+
+/**
+ * The record as stored: `result` as its canonical JSON (the text its hash was taken over), the rest
+ * as ordinary JSON. Writing the numbers once instead of twice matters for small, frequent jobs.
+ */
+export function serializeRecord(record: FeatureRecord): string {
+  const { result, ...rest } = record;
+  const head = JSON.stringify(rest);
+  return `${head.slice(0, -1)},"result":${canonicalJsonOnce(result)}}`;
+}
 
 /** A failure that will fail again on every retry: bad input, not a transient fault. */
 export class PermanentJobError extends Error {
@@ -59,7 +71,7 @@ export async function runJob(
       await store.putAttachment(`${spec.recordKey}.${a.name}`, new Uint8Array(data.buffer, data.byteOffset, data.byteLength));
       delete a.data;
     }
-    await store.putDocument('records', spec.recordKey, JSON.stringify(record));
+    await store.putDocument('records', spec.recordKey, serializeRecord(record));
     return { recordKey: spec.recordKey, resultHash: record.resultHash, computed: true };
   } catch (error) {
     if (error instanceof SignalInputError) {

@@ -22,13 +22,13 @@ export class FilesystemStore implements Store {
     return this.ready;
   }
 
-  private async writeAtomic(path: string, data: string | Uint8Array): Promise<void> {
+  private async writeAtomic(path: string, data: string | Uint8Array, durable = true): Promise<void> {
     await this.init();
     const temp = join(this.dataDir, 'tmp', `${randomBytes(8).toString('hex')}.part`);
     const handle = await open(temp, 'w');
     try {
       await handle.writeFile(data);
-      await handle.sync();
+      if (durable) await handle.sync();
     } finally {
       await handle.close();
     }
@@ -154,8 +154,8 @@ export class FilesystemStore implements Store {
     return { meta, signal: signalFromParts(meta, bytes) };
   }
 
-  async putDocument(collection: Collection, key: string, text: string): Promise<void> {
-    await this.writeAtomic(join(this.dataDir, collection, `${checkKey(key)}.json`), text);
+  async putDocument(collection: Collection, key: string, text: string, options: { durable?: boolean } = {}): Promise<void> {
+    await this.writeAtomic(join(this.dataDir, collection, `${checkKey(key)}.json`), text, options.durable ?? true);
   }
 
   async getDocument(collection: Collection, key: string): Promise<string | null> {

@@ -29,7 +29,11 @@ export interface Store {
   tempDir(): Promise<string>;
   getSignalMeta(id: string): Promise<SignalMeta | null>;
   getSignal(id: string): Promise<{ meta: SignalMeta; signal: Signal } | null>;
-  putDocument(collection: Collection, key: string, text: string): Promise<void>;
+  /**
+   * `durable: false` skips the flush to disk: the write is still atomic (a crash leaves the old or
+   * the new text), but a power loss may lose it. Used for job states that can be recovered.
+   */
+  putDocument(collection: Collection, key: string, text: string, options?: { durable?: boolean }): Promise<void>;
   getDocument(collection: Collection, key: string): Promise<string | null>;
   listDocuments(collection: Collection): Promise<string[]>;
   listSignals(): Promise<string[]>;
