@@ -96,6 +96,22 @@ describe.skipIf(!haveRedisServer)('when Redis is stopped and started again under
     it('should answer 503 queue-unavailable while Redis is down, recover by itself, and keep the job queued before', async () => {
       await outageAndRecovery(h, (base) => expectQueueUnavailable(base, 2));
     }, 90_000);
+
+    it('should keep serving stored records while Redis is down', async () => {
+      const job = await http(h.api.base, 'POST', '/v1/jobs', { signal: smallInlineSignal(11), recipe: RECIPE });
+      expect(job.status).toBe(202);
+      const done = await pollJobHttp(h.api.base, job.body.id as string, 30_000);
+      expect(done.state).toBe('succeeded');
+      await h.redis.down();
+      try {
+        const record = await http(h.api.base, 'GET', `/v1/jobs/${job.body.id as string}/record`);
+        expect(record.status).toBe(200);
+        expect(record.body.resultHash).toBe(done.resultHash);
+        expect((await http(h.api.base, 'GET', `/v1/jobs/${job.body.id as string}`)).status).toBe(503);
+      } finally {
+        await h.redis.up();
+      }
+    }, 90_000);
   });
 
   describe('when signals live in Redis too (STORE=redis, the default with REDIS_URL)', () => {

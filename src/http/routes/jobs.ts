@@ -38,6 +38,15 @@ function present(job: JobView) {
 export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
   const { store, queue, config } = deps;
 
+  async function indexedRecord(id: string, tenant: string): Promise<string | null> {
+    if (!/^job_[0-9a-f]{32}$/.test(id)) return null;
+    const text = await store.getDocument('job-index', id).catch(() => null);
+    if (!text) return null;
+    const entry = JSON.parse(text) as { tenant: string; recordKey: string };
+    if (entry.tenant !== tenant) return null;
+    return (await store.getDocument('records', entry.recordKey).catch(() => null)) !== null ? entry.recordKey : null;
+  }
+
   async function requireJob(id: string, tenant: string): Promise<JobView> {
     let job: JobView | null = null;
     if (/^job_[0-9a-f]{32}$/.test(id)) {
@@ -100,6 +109,11 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
         throw unavailable(error, 'nothing was queued');
       }
       deps.metrics?.jobSubmitted(spec.recipe.method, submitted.created);
+      // Distributed mode: remember where the job's record will be, so that stored records can still
+      // be served while Redis is down (with STORE=filesystem on a shared disk).
+      if (queue.mode === 'distributed' && submitted.created && store.kind === 'filesystem') {
+        await store.putDocument('job-index', jobId, JSON.stringify({ tenant: spec.tenant, recordKey: spec.recordKey }), { durable: false });
+      }
       request.log.info({ jobId, created: submitted.created, signalId: meta.id, recipeId: pinned.id }, 'job submitted');
       const status = !submitted.created && submitted.job.state === 'succeeded' ? 200 : 202;
       return reply.code(status).header('location', `/v1/jobs/${jobId}`).send(present(submitted.job));
@@ -201,12 +215,23 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
     },
     async (request, reply) => {
-      const job = await requireJob(request.params.id, tenantOf(request));
-      if (job.state !== 'succeeded') {
-        throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}${job.problem ? `: ${job.problem.detail}` : ''}; the record exists once it has succeeded`);
+      const tenant = tenantOf(request);
+      let recordKey: string;
+      try {
+        const job = await requireJob(request.params.id, tenant);
+        if (job.state !== 'succeeded') {
+          throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}${job.problem ? `: ${job.problem.detail}` : ''}; the record exists once it has succeeded`);
+        }
+        recordKey = job.recordKey;
+      } catch (error) {
+        // The queue is down: a record that is already stored is still served from the store.
+        const fallback = error instanceof ProblemError && error.code === 'queue-unavailable' ? await indexedRecord(request.params.id, tenant) : null;
+        if (!fallback) throw error;
+        request.log.info({ jobId: request.params.id }, 'record served from the store while the queue is unavailable');
+        recordKey = fallback;
       }
-      const text = await store.getDocument('records', job.recordKey);
-      if (text === null) throw new ProblemError('internal', `the record of job ${job.id} is missing from the store`);
+      const text = await store.getDocument('records', recordKey);
+      if (text === null) throw new ProblemError('internal', `the record of job ${request.params.id} is missing from the store`);
       return reply.type('application/json').send(text as never);
     },
   );
