@@ -85,9 +85,37 @@ export async function benchMultitaper(): Promise<string[]> {
     }
     lines.push(`  reference: ${reference.versions} via /usr/bin/python3, vectorised over channels`);
   }
+  lines.push(...memoryInChild());
   return lines;
 }
 
+/**
+ * Peak memory of the whole service path (engine analyze() on one 200 × 32 × 1000 signal, adaptive
+ * multitaper), measured in a fresh child process so earlier blocks do not count: the growth of the
+ * peak resident set over the baseline taken before the input exists, against the input's size.
+ */
+function memoryInChild(): string[] {
+  const child = spawnSync(process.execPath, ['--import', 'tsx', fileURLToPath(import.meta.url), '--memory'], { encoding: 'utf8', timeout: 120_000 });
+  const line = child.stdout.trim().split('\n').at(-1) ?? '';
+  return child.status === 0 && line.startsWith('memory') ? [`  ${line}`] : [`  memory: not measured (${child.stderr.trim().split('\n').at(-1) ?? `exit ${child.status}`})`];
+}
+
+async function measureMemory(): Promise<void> {
+  const { analyze } = await import('../src/engine/analyze.js');
+  const { normalizeRecipe } = await import('../src/recipes/normalize.js');
+  const { resolveRecipe } = await import('../src/recipes/resolve.js');
+  const pinned = normalizeRecipe({ method: 'multitaper', timeBandwidth: TIME_BANDWIDTH, taperCount: TAPERS, fftLength: FFT_LENGTH });
+  const baseline = process.memoryUsage().rss;
+  const data = new Float64Array(EPOCHS * CHANNELS * SAMPLES);
+  makeData().forEach((x, i) => data.set(x, i * SAMPLES));
+  const signal = { samplingRate: SAMPLING_RATE, channels: Array.from({ length: CHANNELS }, (_, c) => `E${c}`), unit: 'uV', epochCount: EPOCHS, samplesPerEpoch: SAMPLES, data };
+  analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local' });
+  const peak = process.resourceUsage().maxRSS * 1024;
+  const input = data.byteLength;
+  console.log(`memory: analyze() peak resident growth ${((peak - baseline) / 2 ** 20).toFixed(1)} MiB for a ${(input / 2 ** 20).toFixed(1)} MiB input (${((peak - baseline) / input).toFixed(2)}× the input, counting the generator's temporary copy; target < 3×)`);
+}
+
 if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
-  for (const line of await benchMultitaper()) console.log(line);
+  if (process.argv.includes('--memory')) await measureMemory();
+  else for (const line of await benchMultitaper()) console.log(line);
 }
