@@ -23,15 +23,28 @@ export class FilesystemStore implements Store {
   }
 
   private async writeAtomic(path: string, data: string | Uint8Array, durable = true): Promise<void> {
+    const temp = await this.writeTemp(data, durable);
+    await this.commitTemp(temp, path);
+  }
+
+  /** Writes (and optionally flushes) a temp file under tmp/; commitTemp renames it into place. */
+  private async writeTemp(data: string | Uint8Array, durable: boolean): Promise<string> {
     await this.init();
     const temp = join(this.dataDir, 'tmp', `${randomBytes(8).toString('hex')}.part`);
     const handle = await open(temp, 'w');
     try {
       await handle.writeFile(data);
       if (durable) await handle.sync();
-    } finally {
+    } catch (error) {
       await handle.close();
+      await rm(temp, { force: true });
+      throw error;
     }
+    await handle.close();
+    return temp;
+  }
+
+  private async commitTemp(temp: string, path: string): Promise<void> {
     try {
       await rename(temp, path);
     } catch (error) {
@@ -43,8 +56,11 @@ export class FilesystemStore implements Store {
   async putSignal(meta: SignalMeta, samples: Uint8Array): Promise<void> {
     const id = checkKey(meta.id);
     if (await this.getSignalMeta(id)) return;
-    await this.writeAtomic(join(this.dataDir, 'signals', `${id}.f64`), samples);
-    await this.writeAtomic(join(this.dataDir, 'signals', `${id}.json`), JSON.stringify(meta));
+    // Both files are written and flushed at once; the samples are renamed into place before the
+    // meta, so a signal exists for readers only once both are complete.
+    const [samplesTemp, metaTemp] = await Promise.all([this.writeTemp(samples, true), this.writeTemp(JSON.stringify(meta), true)]);
+    await this.commitTemp(samplesTemp, join(this.dataDir, 'signals', `${id}.f64`));
+    await this.commitTemp(metaTemp, join(this.dataDir, 'signals', `${id}.json`));
     await this.adjustUsage(1, meta.bytes);
   }
 

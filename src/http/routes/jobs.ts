@@ -86,6 +86,9 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     async (request, reply) => {
       const body = request.body as { signal: unknown; recipe: unknown };
       const tenant = tenantOf(request);
+      // The recipe is read or pinned while the signal is stored.
+      const pinnedPromise = typeof body.recipe === 'string' ? getRecipe(store, body.recipe, '/recipe') : pinRecipe(store, body.recipe);
+      pinnedPromise.catch(() => undefined);
       let view: SignalView | null = null;
       let meta;
       if (typeof body.signal === 'string') {
@@ -99,7 +102,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       } else {
         meta = await storeSignal(store, decodeInline(body.signal, config.signalLimits), tenant, config.maxStoreBytes);
       }
-      const pinned = typeof body.recipe === 'string' ? await getRecipe(store, body.recipe, '/recipe') : await pinRecipe(store, body.recipe);
+      const pinned = await pinnedPromise;
       const { jobId, spec } = planJob(config, meta, pinned, view);
       let submitted;
       try {
