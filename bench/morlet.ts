@@ -7,6 +7,7 @@
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createMorletPlan } from '../src/dsp/morlet.js';
+import { sineHashSignals } from './sine-hash.js';
 
 const EPOCHS = 100;
 const CHANNELS = 32;
@@ -17,16 +18,8 @@ const F_HIGH = 45;
 const COUNT = 40;
 const CYCLES = 7;
 
-/** Deterministic noise-like data (a sine-hash, uniform on [−½, ½)), the same in bench/scipy-morlet.py. */
 function makeData(): Float64Array[] {
-  return Array.from({ length: EPOCHS * CHANNELS }, (_, signal) => {
-    const x = new Float64Array(SAMPLES);
-    for (let i = 0; i < SAMPLES; i++) {
-      const h = Math.sin((signal * SAMPLES + i + 1) * 12.9898) * 43758.5453;
-      x[i] = h - Math.floor(h) - 0.5;
-    }
-    return x;
-  });
+  return sineHashSignals(EPOCHS * CHANNELS, SAMPLES);
 }
 
 function timeOurs(data: Float64Array[]): { seconds: number; totals: Float64Array } {

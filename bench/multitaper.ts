@@ -7,6 +7,7 @@
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createMultitaperPlan, type TaperWeighting } from '../src/dsp/multitaper.js';
+import { sineHashSignals } from './sine-hash.js';
 
 const EPOCHS = 200;
 const CHANNELS = 32;
@@ -16,19 +17,8 @@ const TAPERS = 7;
 const FFT_LENGTH = 1024;
 const SAMPLING_RATE = 1000;
 
-/**
- * Deterministic noise-like test data (a sine-hash, uniform on [−½, ½)); the content only matters
- * for the adaptive iteration counts.
- */
 function makeData(): Float64Array[] {
-  return Array.from({ length: EPOCHS * CHANNELS }, (_, signal) => {
-    const x = new Float64Array(SAMPLES);
-    for (let i = 0; i < SAMPLES; i++) {
-      const h = Math.sin((signal * SAMPLES + i + 1) * 12.9898) * 43758.5453;
-      x[i] = h - Math.floor(h) - 0.5;
-    }
-    return x;
-  });
+  return sineHashSignals(EPOCHS * CHANNELS, SAMPLES);
 }
 
 function timeOurs(data: Float64Array[], weighting: TaperWeighting): { seconds: number; iterations: number } {
