@@ -23,6 +23,7 @@ VOLUME ["/data"]
 EXPOSE 8080
 HEALTHCHECK --interval=15s --timeout=3s --start-period=10s \
   CMD node -e "fetch('http://127.0.0.1:'+(process.env.PORT||8080)+'/healthz').then(r=>process.exit(r.ok?0:1),()=>process.exit(1))"
-# `serve` by default; the compose file runs `worker` from the same image.
+# `serve` by default; the compose file runs `worker` from the same image. Bound to 0.0.0.0, the API
+# refuses to start without API_KEYS (or an explicit ALLOW_OPEN_MODE=true).
 ENTRYPOINT ["node", "dist/cli/main.js"]
 CMD ["serve"]
