@@ -151,6 +151,8 @@ export class OwnRedis {
 
   /** Starts (or restarts) the server on the same port and directory; resolves when it answers PING. */
   async up(): Promise<void> {
+    // Already running: a second server would fail to bind and orphan the first on destroy().
+    if (this.child && this.child.exitCode === null && this.child.signalCode === null) return;
     const args = ['--port', String(this.port), '--bind', '127.0.0.1', '--save', '', '--appendonly', 'yes', '--appendfsync', 'always', '--dir', this.dir, '--protected-mode', 'yes'];
     const child = spawn('/usr/bin/redis-server', args, { stdio: 'ignore' });
     this.child = child;
