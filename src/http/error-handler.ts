@@ -3,6 +3,7 @@ import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
 import type { ProblemCode } from '../common/errors.js';
 import { RecipeInputError } from '../recipes/errors.js';
 import { SignalInputError } from '../signals/errors.js';
+import { StorageFullError } from '../stores/store.js';
 import { problemBody, ProblemError } from './problem.js';
 
 declare module 'fastify' {
@@ -11,6 +12,8 @@ declare module 'fastify' {
     bodyProblem?: ProblemCode;
     /** JSON pointer prefix of the recipe inside this route's body */
     recipePointer?: string;
+    /** JSON pointer prefix of the signal inside this route's body */
+    signalPointer?: string;
   }
 }
 
@@ -48,8 +51,10 @@ function isConnectionFault(error: Error): boolean {
 export function mapError(error: FastifyError | Error, request: FastifyRequest): Mapped {
   if (error instanceof ProblemError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extra };
   if (error instanceof SignalInputError) {
-    return { code: error.code === 'limit' ? 'limit-exceeded' : 'invalid-signal', detail: error.message, pointer: error.pointer };
+    const prefix = error.pointer === null ? '' : (request.routeOptions.config.signalPointer ?? '');
+    return { code: error.code === 'limit' ? 'limit-exceeded' : 'invalid-signal', detail: error.message, pointer: error.pointer === null ? null : prefix + error.pointer };
   }
+  if (error instanceof StorageFullError) return { code: 'storage-full', detail: error.message, pointer: null };
   if (error instanceof RecipeInputError) {
     const code: ProblemCode = error.code === 'limit' ? 'limit-exceeded' : error.code === 'unfit-for-signal' ? 'recipe-unfit' : 'invalid-recipe';
     const prefix = request.routeOptions.config.recipePointer ?? '';

@@ -1,13 +1,23 @@
 import type { Config } from '../config.js';
 import { createDataRoot, SourceError, type DataRoot } from '../signals/data-root.js';
-import { ingestFile, StorageFullError, type IngestDescription } from '../stores/ingest.js';
+import { ingestFile, type IngestDescription } from '../stores/ingest.js';
 import type { SignalMeta, Store } from '../stores/store.js';
 import { ProblemError } from './problem.js';
 import { receiveToFile } from './receive.js';
 import { openRemote } from './remote-source.js';
 
 /** A recording the server fetches itself: a file under DATA_ROOT or an allow-listed URL. */
-export type ImportSource = ({ file: string; url?: undefined } | { url: string; file?: undefined }) & { format: 'edf' | 'float32'; samplingRate?: number | undefined; channels?: string[] | undefined; epochCount?: number | undefined; unit?: string | undefined };
+/** How a raw file is to be read, as clients describe it for imports and resumable uploads. */
+export interface FileDescription {
+  format: 'edf' | 'float32';
+  samplingRate?: number | undefined;
+  channels?: string[] | undefined;
+  epochCount?: number | undefined;
+  unit?: string | undefined;
+  nonFinite?: 'reject' | 'keep' | undefined;
+}
+
+export type ImportSource = ({ file: string; url?: undefined } | { url: string; file?: undefined }) & FileDescription;
 
 const roots = new Map<string, Promise<DataRoot>>();
 
@@ -17,7 +27,7 @@ const roots = new Map<string, Promise<DataRoot>>();
  * with private addresses refused unless explicitly allowed.
  */
 export async function importSignal(config: Readonly<Config>, store: Store, source: ImportSource, tenant: string, pointer: string): Promise<SignalMeta> {
-  const description = describe(source, pointer);
+  const description = describeIngest(source, pointer);
   const options = { tenant, limits: config.signalLimits, maxStoreBytes: config.maxStoreBytes };
   try {
     if (source.file !== undefined) {
@@ -51,15 +61,15 @@ export async function importSignal(config: Readonly<Config>, store: Store, sourc
       const code = error.code === 'too-large' ? 'payload-too-large' : error.code === 'not-found' ? 'source-not-found' : error.code === 'timeout' || error.code === 'fetch-failed' ? 'source-failed' : 'source-refused';
       throw new ProblemError(code, error.message, `${pointer}${error.pointer}`);
     }
-    if (error instanceof StorageFullError) throw new ProblemError('storage-full', error.message);
     throw error;
   }
 }
 
-function describe(source: ImportSource, pointer: string): IngestDescription {
-  if (source.format === 'edf') return { format: 'edf', channels: source.channels, samplingRate: source.samplingRate };
-  if (source.samplingRate === undefined || source.channels === undefined) {
-    throw new ProblemError('invalid-signal', 'a float32 import needs samplingRate and channels', `${pointer}/${source.samplingRate === undefined ? 'samplingRate' : 'channels'}`);
+/** The ingest description of a file; a float32 file needs its sampling rate and channel names. */
+export function describeIngest(d: FileDescription, pointer: string): IngestDescription {
+  if (d.format === 'edf') return { format: 'edf', channels: d.channels, samplingRate: d.samplingRate };
+  if (d.samplingRate === undefined || d.channels === undefined) {
+    throw new ProblemError('invalid-signal', 'a float32 file needs samplingRate and channels', `${pointer}/${d.samplingRate === undefined ? 'samplingRate' : 'channels'}`);
   }
-  return { format: 'float32', samplingRate: source.samplingRate, channels: source.channels, epochCount: source.epochCount ?? 1, unit: source.unit };
+  return { format: 'float32', samplingRate: d.samplingRate, channels: d.channels, epochCount: d.epochCount ?? 1, unit: d.unit, nonFinite: d.nonFinite };
 }

@@ -1,12 +1,16 @@
-import { randomBytes } from 'node:crypto';
 import { createWriteStream } from 'node:fs';
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { Transform } from 'node:stream';
-import { createHash } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { ProblemError } from './problem.js';
+
+/** Binary routes pass the request stream through as the body (see their content-type parser). */
+export function isStream(body: unknown): body is Readable {
+  return typeof body === 'object' && body !== null && typeof (body as Readable).pipe === 'function';
+}
 
 export interface ReceivedFile {
   path: string;

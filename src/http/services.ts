@@ -4,9 +4,8 @@ import { resolveRecipe } from '../recipes/resolve.js';
 import { sampleBytes, signalIdFromHash, signalSha256 } from '../signals/content-hash.js';
 import { findNonFinite, type Signal } from '../signals/signal.js';
 import { jobIdOf, recordKeyOf, viewedShape, type JobSpec } from '../jobs/spec.js';
-import { SignalInputError } from '../signals/errors.js';
 import type { SignalView } from '../signals/view.js';
-import { StorageFullError, withStorageReservation, type SignalMeta, type Store } from '../stores/store.js';
+import { withStorageReservation, type SignalMeta, type Store } from '../stores/store.js';
 import { ProblemError } from './problem.js';
 
 /** Stores a decoded signal under its content hash; storing the same content again is a no-op. */
@@ -29,19 +28,14 @@ export async function storeSignal(store: Store, signal: Signal, tenant: string, 
     bytes: signal.data.byteLength,
     storedAt: new Date().toISOString(),
   };
-  try {
-    await withStorageReservation(store, meta.bytes, maxStoreBytes, () => store.putSignal(meta, sampleBytes(signal.data)));
-  } catch (error) {
-    if (error instanceof StorageFullError) throw new ProblemError('storage-full', error.message);
-    throw error;
-  }
+  await withStorageReservation(store, meta.bytes, maxStoreBytes, () => store.putSignal(meta, sampleBytes(signal.data)));
   return meta;
 }
 
 export async function getSignalMeta(store: Store, id: string, tenant: string, pointer: string | null = null): Promise<SignalMeta> {
   const meta = /^sig_[0-9a-f]{32}$/.test(id) ? await store.getSignalMeta(id) : null;
   // Another tenant's signal answers exactly like a missing one.
-  if (!meta || (meta.tenant ?? 'public') !== tenant) throw new ProblemError('signal-not-found', `no signal with id "${id}" is stored`, pointer);
+  if (!meta || meta.tenant !== tenant) throw new ProblemError('signal-not-found', `no signal with id "${id}" is stored`, pointer);
   return meta;
 }
 
@@ -63,13 +57,7 @@ export async function getRecipe(store: Store, id: string, pointer: string | null
  * recipe fits the signal; a misfit answers 422 now instead of a failed job later.
  */
 export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe, view: SignalView | null = null): { jobId: string; spec: JobSpec } {
-  let shape;
-  try {
-    shape = viewedShape(meta, view);
-  } catch (error) {
-    if (error instanceof SignalInputError) throw new SignalInputError(error.code, error.message, `/signal${error.pointer ?? ''}`);
-    throw error;
-  }
+  const shape = viewedShape(meta, view);
   const reference = pinned.recipe.reference;
   if (view?.channels && typeof reference === 'object' && view.channels.includes(reference.channel)) {
     throw new ProblemError('recipe-unfit', `channel "${reference.channel}" is the recipe's reference and is left out of the output; do not select it`, '/signal/channels');

@@ -1,5 +1,6 @@
 import type { FastifySchemaCompiler } from 'fastify';
 import type { z } from 'zod';
+import { isStream } from './receive.js';
 
 /**
  * Mirrors fastify-type-provider-zod's error shape (it does not export its builder), marked with the
@@ -27,7 +28,7 @@ export function zodValidator(parts: Partial<Record<'body' | 'querystring' | 'par
   return ({ httpPart }) => {
     const schema = parts[httpPart as keyof typeof parts];
     return (data: unknown) => {
-      if (!schema || Buffer.isBuffer(data) || (typeof data === 'object' && data !== null && typeof (data as { pipe?: unknown }).pipe === 'function')) return { value: data };
+      if (!schema || isStream(data)) return { value: data };
       const parsed = schema.safeParse(data);
       if (parsed.success) return { value: httpPart === 'body' ? data : parsed.data };
       const issues = createValidationError(parsed.error);

@@ -1,9 +1,6 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { JobView } from '../../jobs/spec.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
-import { SignalInputError } from '../../signals/errors.js';
-import type { SignalLimits } from '../../signals/limits.js';
-import type { Signal } from '../../signals/signal.js';
 import type { SignalView } from '../../signals/view.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
@@ -13,16 +10,6 @@ import { getRecipe, getSignalMeta, pinRecipe, planJob, storeSignal } from '../se
 import { zodValidator } from '../validation.js';
 import { tenantOf } from '../auth.js';
 import { z } from 'zod';
-
-/** Decodes an inline signal, with pointers relative to the whole job body. */
-function decodeInline(signal: unknown, limits: SignalLimits): Signal {
-  try {
-    return decodeJsonSignal(signal as Parameters<typeof decodeJsonSignal>[0], limits);
-  } catch (error) {
-    if (error instanceof SignalInputError) throw new SignalInputError(error.code, error.message, `/signal${error.pointer ?? ''}`);
-    throw error;
-  }
-}
 
 /** A queue fault becomes 503 with Retry-After, never a 500 that hides a transient outage. */
 function unavailable(error: unknown, what = 'try again shortly'): ProblemError {
@@ -64,7 +51,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
   app.post(
     '/v1/jobs',
     {
-      config: { recipePointer: '/recipe', access: 'submit' },
+      config: { recipePointer: '/recipe', signalPointer: '/signal', access: 'submit' },
       schema: {
         summary: 'Submit an analysis',
         description:
@@ -86,9 +73,6 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     async (request, reply) => {
       const body = request.body as { signal: unknown; recipe: unknown };
       const tenant = tenantOf(request);
-      // The recipe is read or pinned while the signal is stored.
-      const pinnedPromise = typeof body.recipe === 'string' ? getRecipe(store, body.recipe, '/recipe') : pinRecipe(store, body.recipe);
-      pinnedPromise.catch(() => undefined);
       let view: SignalView | null = null;
       let meta;
       if (typeof body.signal === 'string') {
@@ -100,9 +84,9 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
         meta = await getSignalMeta(store, id, tenant, '/signal/signal');
         view = rest;
       } else {
-        meta = await storeSignal(store, decodeInline(body.signal, config.signalLimits), tenant, config.maxStoreBytes);
+        meta = await storeSignal(store, decodeJsonSignal(body.signal as Parameters<typeof decodeJsonSignal>[0], config.signalLimits), tenant, config.maxStoreBytes);
       }
-      const pinned = await pinnedPromise;
+      const pinned = typeof body.recipe === 'string' ? await getRecipe(store, body.recipe, '/recipe') : await pinRecipe(store, body.recipe);
       const { jobId, spec } = planJob(config, meta, pinned, view);
       let submitted;
       try {

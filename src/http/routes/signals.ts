@@ -1,8 +1,6 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import type { Readable } from 'node:stream';
-import { ingestFile, StorageFullError, type IngestDescription } from '../../stores/ingest.js';
-import { ProblemError } from '../problem.js';
-import { receiveToFile } from '../receive.js';
+import { ingestFile, type IngestDescription } from '../../stores/ingest.js';
+import { isStream, receiveToFile } from '../receive.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
 import { importSignal } from '../imports.js';
 import { deleteRecord } from '../../jobs/retention.js';
@@ -23,10 +21,6 @@ export function binaryDescription(query: unknown): IngestDescription {
   const parsed = BinaryUploadQuery.safeParse(query);
   if (!parsed.success) throw validationError(parsed.error, 'querystring');
   return { ...parsed.data, format: 'float32' };
-}
-
-function isStream(body: unknown): body is Readable {
-  return !!body && typeof (body as Readable).pipe === 'function';
 }
 
 export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
@@ -63,9 +57,6 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
         const raw = await receiveToFile(request.body, await deps.store.tempDir(), deps.config.bodyLimitBytes, request.headers['content-length']);
         try {
           meta = await ingestFile(deps.store, raw.path, description, { tenant: tenantOf(request), limits, maxStoreBytes: deps.config.maxStoreBytes });
-        } catch (error) {
-          if (error instanceof StorageFullError) throw new ProblemError('storage-full', error.message);
-          throw error;
         } finally {
           await raw.remove();
         }

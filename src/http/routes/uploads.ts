@@ -1,15 +1,16 @@
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream, createWriteStream } from 'node:fs';
 import { mkdir, readdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import type { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import { ingestFile, StorageFullError, type IngestDescription } from '../../stores/ingest.js';
+import { ingestFile } from '../../stores/ingest.js';
 import type { AppDeps } from '../app.js';
 import { tenantOf } from '../auth.js';
+import { describeIngest } from '../imports.js';
 import { ProblemError } from '../problem.js';
-import { receiveToFile } from '../receive.js';
+import { isStream, receiveToFile } from '../receive.js';
 import { problemResponse, SignalInfoSchema } from '../schemas.js';
 import { zodValidator } from '../validation.js';
 
@@ -87,9 +88,7 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     },
     async (request, reply) => {
       const start = request.body;
-      if (start.format === 'float32' && (start.samplingRate === undefined || start.channels === undefined)) {
-        throw new ProblemError('invalid-signal', 'a float32 upload needs samplingRate and channels', start.samplingRate === undefined ? '/samplingRate' : '/channels');
-      }
+      describeIngest(start, ''); // refuses a float32 upload without samplingRate or channels now, not at completion
       const id = `upl_${randomBytes(16).toString('hex')}`;
       const dir = join(await root(), id);
       await mkdir(dir, { recursive: true });
@@ -114,8 +113,8 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     async (request) => {
       const { id, part } = request.params as z.infer<typeof PartParams>;
       const { dir } = await load(id, tenantOf(request));
-      if (!request.body || typeof (request.body as Readable).pipe !== 'function') throw new ProblemError('unsupported-media-type', 'send the part as application/octet-stream');
-      const received = await receiveToFile(request.body as Readable, dir, deps.config.bodyLimitBytes, request.headers['content-length']);
+      if (!isStream(request.body)) throw new ProblemError('unsupported-media-type', 'send the part as application/octet-stream');
+      const received = await receiveToFile(request.body, dir, deps.config.bodyLimitBytes, request.headers['content-length']);
       await writeFile(join(dir, `${part}.part.sha256`), received.sha256);
       await rename(received.path, join(dir, `${part}.part`));
       return { part, bytes: received.bytes, sha256: received.sha256 };
@@ -163,37 +162,33 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
         throw new ProblemError('invalid-signal', `parts must be numbered 1…${expectedCount} without gaps; missing ${missing.slice(0, 10).join(', ') || 'none'}, received ${list.map((p) => p.part).slice(0, 10).join(', ')}`, '/parts');
       }
       const joined = join(dir, 'joined.raw');
-      const hash = (await import('node:crypto')).createHash('sha256');
-      const out = createWriteStream(joined);
-      for (const p of list) {
-        await new Promise<void>((resolve, reject) => {
-          const input = createReadStream(join(dir, `${p.part}.part`));
-          input.on('data', (chunk) => hash.update(chunk));
-          input.on('error', reject);
-          input.on('end', resolve);
-          input.pipe(out, { end: false });
-        });
-      }
-      await new Promise<void>((resolve, reject) => out.end((error?: Error | null) => (error ? reject(error) : resolve())));
+      const hash = createHash('sha256');
+      const names = list.map((p) => join(dir, `${p.part}.part`));
+      // One pass over the parts, in order: hashed and written as they are read.
+      await pipeline(
+        async function* () {
+          for (const name of names) {
+            for await (const chunk of createReadStream(name)) {
+              hash.update(chunk as Buffer);
+              yield chunk;
+            }
+          }
+        },
+        createWriteStream(joined),
+      );
       const actual = hash.digest('hex');
       const expected = request.body?.sha256 ?? stored.start.sha256;
       if (expected && expected !== actual) {
         await rm(joined, { force: true });
         throw new ProblemError('hash-mismatch', `the joined parts have SHA-256 ${actual}, not the ${expected} announced; resend the parts that differ (GET the upload lists each part's hash)`, '/sha256');
       }
-      const s = stored.start;
-      const description: IngestDescription =
-        s.format === 'edf'
-          ? { format: 'edf', channels: s.channels, samplingRate: s.samplingRate }
-          : { format: 'float32', samplingRate: s.samplingRate!, channels: s.channels!, epochCount: s.epochCount, unit: s.unit, nonFinite: s.nonFinite };
       try {
-        const meta = await ingestFile(deps.store, joined, description, { tenant: stored.tenant, limits: deps.config.signalLimits, maxStoreBytes: deps.config.maxStoreBytes });
+        const meta = await ingestFile(deps.store, joined, describeIngest(stored.start, ''), { tenant: stored.tenant, limits: deps.config.signalLimits, maxStoreBytes: deps.config.maxStoreBytes });
         await rm(dir, { recursive: true, force: true });
         request.log.info({ uploadId: stored.id, signalId: meta.id, bytes: meta.bytes, parts: list.length }, 'upload completed');
         return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
       } catch (error) {
         await rm(joined, { force: true });
-        if (error instanceof StorageFullError) throw new ProblemError('storage-full', error.message);
         throw error;
       }
     },
