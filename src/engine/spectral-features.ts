@@ -1,7 +1,7 @@
 import { spectralCentroid } from '../features/centroid.js';
 import { spectralEdge } from '../features/edge.js';
 import { spectralEntropy } from '../features/entropy.js';
-import { fitAperiodic } from '../features/aperiodic.js';
+import { fitPowerLaw } from '../features/power-law.js';
 import { lineNoiseRatio } from '../features/line-noise.js';
 import { peakFrequency } from '../features/peak.js';
 import type { Features } from '../recipes/schema.js';
@@ -65,14 +65,14 @@ export function computeFeatures(frequencies: Float64Array, psd: Float64Array, fe
   }
   if (features.powerLaw) {
     const range: [number, number] = [...features.powerLaw.range];
-    const r = fitAperiodic(frequencies, psd, { range, robust: features.powerLaw.robust });
+    const r = fitPowerLaw(frequencies, psd, { range, robust: features.powerLaw.robust });
     values.powerLaw = {
       range,
       robust: features.powerLaw.robust,
-      intercept: orNull(r.offset),
-      slope: r.exponent === null ? null : orNull(-r.exponent),
+      intercept: orNull(r.intercept),
+      slope: orNull(r.slope),
       rSquared: orNull(r.rSquared),
-      residualRms: orNull(r.rmsError),
+      residualRms: orNull(r.residualRms),
       inlierFraction: orNull(r.inlierFraction),
       bins: r.binCount,
     };

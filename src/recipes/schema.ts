@@ -34,7 +34,7 @@ export const FeaturesSchema = z
     peakFrequency: z
       .strictObject({
         range: Range.default([7, 14]).describe('search range, Hz; default 7–14 Hz, around the adult alpha rhythm (common practice)'),
-        minHeightDb: z.number().min(0).max(60).default(3).describe('how far a peak must stand above the aperiodic background, dB'),
+        minHeightDb: z.number().min(0).max(60).default(3).describe('how far a peak must stand above the power-law background, dB'),
       })
       .optional()
       .describe('frequency of the highest local maximum above the 1/f background, refined by a parabola through the log spectrum'),

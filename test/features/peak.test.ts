@@ -1,14 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import type { AperiodicFit } from '../../src/features/aperiodic.js';
+import type { PowerLawFit } from '../../src/features/power-law.js';
 import { peakFrequency } from '../../src/features/peak.js';
 import { multitaper } from '../../src/dsp/multitaper.js';
 import { periodogram } from '../../src/dsp/periodogram.js';
 
 const f = Float64Array.from({ length: 241 }, (_, k) => k * 0.25);
-const flatBackground = (log10Level: number): AperiodicFit => ({
-  offset: log10Level, exponent: 0, rSquared: 1, rmsError: 0, binCount: 10, inlierFraction: 1, warnings: [],
+const flatBackground = (log10Level: number): PowerLawFit => ({
+  intercept: log10Level, slope: 0, rSquared: 1, residualRms: 0, binCount: 10, inlierFraction: 1, warnings: [],
 });
-const powerLaw = (offset: number, beta: number): Float64Array => f.map((v) => (v > 0 ? 10 ** (offset - beta * Math.log10(v)) : 0));
+const powerLaw = (intercept: number, beta: number): Float64Array => f.map((v) => (v > 0 ? 10 ** (intercept - beta * Math.log10(v)) : 0));
 
 describe('peakFrequency', () => {
   describe('when the peak is Gaussian in frequency (a parabola in ln P)', () => {
@@ -41,7 +41,7 @@ describe('peakFrequency', () => {
       expect(Math.abs(r.frequency! - 10.2)).toBeLessThan(0.1);
       // At 10 Hz the peak is 5× the background: ≈ 7 dB.
       expect(Math.abs(r.heightDb! - 10 * Math.log10(1 + 4 * Math.exp(-(0.2 ** 2) / 2)))).toBeLessThan(0.2);
-      expect(Math.abs(r.background.exponent! - 1.5)).toBeLessThan(1e-6);
+      expect(Math.abs(-r.background.slope! - 1.5)).toBeLessThan(1e-6);
     });
     it('should pick the local maximum standing highest above the background when there are two', () => {
       const q = p.map((v, k) => v + 8 * background[48]! * Math.exp(-((f[k]! - 12) ** 2) / 0.5));
@@ -61,7 +61,7 @@ describe('peakFrequency', () => {
       const p = background.map((v, k) => v * (1 + 0.8 * Math.exp(-((f[k]! - 10) ** 2) / (2 * 0.5 ** 2))));
       const r = peakFrequency(f, p, { range: [8, 13] });
       expect(r.frequency).toBeNull();
-      expect(r.warnings.at(-1)).toMatch(/^no peak in \[8, 13\] Hz stands 3 dB above the aperiodic background/);
+      expect(r.warnings.at(-1)).toMatch(/^no peak in \[8, 13\] Hz stands 3 dB above the power-law background/);
       // With a 2 dB threshold it counts; the 1/f slope pulls the maximum below 10 Hz by < 0.1 Hz.
       expect(Math.abs(peakFrequency(f, p, { range: [8, 13], minHeightDb: 2 }).frequency! - 10)).toBeLessThan(0.1);
     });

@@ -1,9 +1,9 @@
 /**
- * Aperiodic (1/f^β) component of a spectrum: a straight line in log10 power against log10 frequency.
+ * The power-law (1/f^β) background of a spectrum: a straight line in log10 power against log10 frequency.
  */
 import { binsInRange, type FrequencyRange } from './centroid.js';
 
-export interface AperiodicOptions {
+export interface PowerLawOptions {
   /** [low, high] in Hz; bins at f ≤ 0 are never used */
   range: FrequencyRange;
   /** down-weight peaks with Tukey's bisquare (IRLS); false gives ordinary least squares. @defaultValue true */
@@ -12,15 +12,15 @@ export interface AperiodicOptions {
   maxIterations?: number;
 }
 
-export interface AperiodicFit {
+export interface PowerLawFit {
   /** log10 PSD (log10 unit²/Hz) of the line at 1 Hz; null when the fit failed */
-  offset: number | null;
-  /** β in PSD ∝ f^−β; null when the fit failed */
-  exponent: number | null;
+  intercept: number | null;
+  /** d log10 PSD / d log10 f, i.e. −β for PSD ∝ f^−β; null when the fit failed */
+  slope: number | null;
   /** 1 − SS_res/SS_tot of log10 PSD over every used bin (unweighted, so peaks lower it) */
   rSquared: number | null;
   /** root-mean-square residual over every used bin, in log10 units (decades) */
-  rmsError: number | null;
+  residualRms: number | null;
   /** bins used: inside the range with f > 0 and PSD > 0 */
   binCount: number;
   /** fraction of used bins with a non-zero final robust weight (1 for ordinary least squares) */
@@ -55,12 +55,12 @@ function weightedLine(x: Float64Array, y: Float64Array, w: Float64Array): { inte
   return { intercept: my - slope * mx, slope };
 }
 
-const failed = (binCount: number, warnings: string[]): AperiodicFit => ({
-  offset: null, exponent: null, rSquared: null, rmsError: null, binCount, inlierFraction: null, warnings,
+const failed = (binCount: number, warnings: string[]): PowerLawFit => ({
+  intercept: null, slope: null, rSquared: null, residualRms: null, binCount, inlierFraction: null, warnings,
 });
 
 /**
- * Fits log10 P(f) = offset − exponent·log10 f over a frequency range.
+ * Fits log10 P(f) = intercept + slope·log10 f over a frequency range.
  *
  * With `robust` (the default) the line is found by iteratively reweighted least squares with
  * Tukey's bisquare weights on residuals scaled by 1.4826·MAD, so that oscillatory peaks (alpha,
@@ -69,13 +69,13 @@ const failed = (binCount: number, warnings: string[]): AperiodicFit => ({
  * @param frequencies - bin frequencies, Hz
  * @param psd - one-sided PSD, unit²/Hz
  * @param options - range (Hz), robust, maxIterations
- * @returns offset (log10 unit²/Hz at 1 Hz), exponent β, rSquared, rmsError (decades), binCount,
+ * @returns intercept (log10 unit²/Hz at 1 Hz), slope (−β), rSquared, residualRms (decades), binCount,
  *   inlierFraction and warnings; nulls with a warning when fewer than 3 usable bins remain
  * @throws RangeError / TypeError for malformed input or options
  * @see P. W. Holland & R. E. Welsch (1977), "Robust regression using iteratively reweighted least-squares",
  *   Commun. Statist. A6:813–827 (citation from memory); 1/f fitting of log–log spectra is common practice.
  */
-export function fitAperiodic(frequencies: Float64Array, psd: Float64Array, options: AperiodicOptions): AperiodicFit {
+export function fitPowerLaw(frequencies: Float64Array, psd: Float64Array, options: PowerLawOptions): PowerLawFit {
   const { start, end } = binsInRange(frequencies, psd, options.range);
   const robust = options.robust ?? true;
   const maxIterations = options.maxIterations ?? 50;
@@ -88,9 +88,9 @@ export function fitAperiodic(frequencies: Float64Array, psd: Float64Array, optio
     const f = frequencies[k]!, p = psd[k]!;
     if (f > 0 && p > 0 && Number.isFinite(p)) { xs.push(Math.log10(f)); ys.push(Math.log10(p)); } else skipped++;
   }
-  if (skipped > 0) warnings.push(`aperiodic fit skipped ${skipped} bin(s) with f ≤ 0 or non-positive power`);
+  if (skipped > 0) warnings.push(`power-law fit skipped ${skipped} bin(s) with f ≤ 0 or non-positive power`);
   const n = xs.length;
-  if (n < 3) return failed(n, [...warnings, `aperiodic fit needs at least 3 usable bins in [${options.range[0]}, ${options.range[1]}] Hz, got ${n}`]);
+  if (n < 3) return failed(n, [...warnings, `power-law fit needs at least 3 usable bins in [${options.range[0]}, ${options.range[1]}] Hz, got ${n}`]);
   const x = Float64Array.from(xs), y = Float64Array.from(ys);
   const w = new Float64Array(n).fill(1);
   let line = weightedLine(x, y, w)!;
@@ -125,10 +125,10 @@ export function fitAperiodic(frequencies: Float64Array, psd: Float64Array, optio
     if (w[i]! > 0) inliers++;
   }
   return {
-    offset: line.intercept,
-    exponent: -line.slope,
+    intercept: line.intercept,
+    slope: line.slope,
     rSquared: ssTot > 0 ? 1 - ssRes / ssTot : ssRes === 0 ? 1 : 0,
-    rmsError: Math.sqrt(ssRes / n),
+    residualRms: Math.sqrt(ssRes / n),
     binCount: n,
     inlierFraction: robust ? inliers / n : 1,
     warnings,
@@ -136,13 +136,13 @@ export function fitAperiodic(frequencies: Float64Array, psd: Float64Array, optio
 }
 
 /**
- * The fitted aperiodic line at frequency f: offset − exponent·log10 f (log10 unit²/Hz).
+ * The fitted line at frequency f: intercept + slope·log10 f (log10 unit²/Hz).
  *
- * @param fit - a successful {@link fitAperiodic} result
+ * @param fit - a successful {@link fitPowerLaw} result
  * @param frequency - Hz, > 0
  * @returns log10 PSD of the background, or null when the fit failed
  */
-export function aperiodicLog10Power(fit: AperiodicFit, frequency: number): number | null {
-  if (fit.offset === null || fit.exponent === null || !(frequency > 0)) return null;
-  return fit.offset - fit.exponent * Math.log10(frequency);
+export function powerLawLog10(fit: PowerLawFit, frequency: number): number | null {
+  if (fit.intercept === null || fit.slope === null || !(frequency > 0)) return null;
+  return fit.intercept + fit.slope * Math.log10(frequency);
 }
