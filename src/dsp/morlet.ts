@@ -92,6 +92,8 @@ export interface MorletPlan {
   power(x: Float64Array, out?: Float64Array): Float64Array;
   /** unit-gain coefficients w (no factor 2), [time][frequency]; A·cos(2πft+φ) gives ≈ (A/2)e^{i(2πft+φ)} */
   coefficients(x: Float64Array): { re: Float64Array; im: Float64Array };
+  /** power(x) and coefficients(x) from one set of convolutions (the same numbers as the two calls). */
+  powerAndCoefficients(x: Float64Array): { power: Float64Array; re: Float64Array; im: Float64Array };
 }
 
 export interface MorletResult {
@@ -376,6 +378,24 @@ class MorletPlanImpl implements MorletPlan {
       }
     });
     return { re: outRe, im: outIm };
+  }
+
+  powerAndCoefficients(x: Float64Array): { power: Float64Array; re: Float64Array; im: Float64Array } {
+    this.checkSignal(x);
+    const F = this.frequencyCount, d = this.decimation, T = this.timeCount;
+    const power = new Float64Array(T * F);
+    const outRe = new Float64Array(T * F);
+    const outIm = new Float64Array(T * F);
+    this.convolve(x, (j, re, im, offset, scale) => {
+      const factor = POWER_FACTOR * scale * scale;
+      for (let i = 0; i < T; i++) {
+        const n = i * d + offset;
+        power[i * F + j] = factor * (re[n]! * re[n]! + im[n]! * im[n]!);
+        outRe[i * F + j] = re[n]! * scale;
+        outIm[i * F + j] = im[n]! * scale;
+      }
+    });
+    return { power, re: outRe, im: outIm };
   }
 }
 

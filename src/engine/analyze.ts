@@ -10,6 +10,7 @@ import { analyzeTimeFrequency } from './time-frequency.js';
 import type { Attachment } from './record.js';
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
+import { screenGaps } from './gaps.js';
 import { createEstimator, type SegmentFilter } from './estimators.js';
 import { prepareInput, type PreparedInput } from './prepare.js';
 import type { SignalView } from '../signals/view.js';
@@ -128,17 +129,7 @@ function segmentFilterFor(signal: Signal, resolved: ResolvedRecipe<SpectrumRecip
     const first = start / fs;
     const last = (end - 1) / fs;
     for (const [a, b] of badSpans) if (first <= b && last >= a) return false;
-    if (limit !== null) {
-      let lo = Infinity;
-      let hi = -Infinity;
-      for (let i = start; i < end; i++) {
-        const v = x[i]!;
-        if (v < lo) lo = v;
-        if (v > hi) hi = v;
-      }
-      if (hi - lo > limit) return false;
-    }
-    return true;
+    return limit === null || peakToPeak(x.subarray(start, end)) <= limit;
   };
 }
 
@@ -149,16 +140,10 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) 
   const skipped: SkippedEpoch[] = [];
   const qualityOptions = recipe.features.quality;
   const quality: { index: number; channels: ChannelQuality[] }[] | null = qualityOptions ? [] : null;
-  const perEpoch = signal.channels.length * signal.samplesPerEpoch;
   for (let e = 0; e < signal.epochCount; e++) {
-    const bad = firstNonFinite(signal.data, e * perEpoch, (e + 1) * perEpoch);
-    if (bad >= 0) {
-      const offset = bad - e * perEpoch;
-      const where = `channel "${signal.channels[Math.floor(offset / signal.samplesPerEpoch)]}", sample ${offset % signal.samplesPerEpoch}`;
-      if (recipe.nonFinite === 'reject') {
-        throw new EngineInputError('non-finite', `epoch ${e} holds a non-finite sample (${where}); set the recipe's "nonFinite": "skip-epoch" to leave such epochs out`, '/recipe/nonFinite');
-      }
-      skipped.push({ index: e, reason: 'non-finite', detail: `first non-finite sample at ${where}` });
+    const gap = screenGaps(signal, e, recipe.nonFinite);
+    if (gap) {
+      skipped.push(gap);
       continue;
     }
     // Without recipe epoching, Welch drops segments (see segmentFilterFor); the other methods drop epochs.
@@ -205,11 +190,6 @@ function peakToPeak(x: Float64Array): number {
   return hi - lo;
 }
 
-function firstNonFinite(data: Float64Array, from: number, to: number): number {
-  for (let i = from; i < to; i++) if (!Number.isFinite(data[i]!)) return i;
-  return -1;
-}
-
 /** Turns spectra into the deterministic result: range-limited PSDs, band powers, ratios and features. */
 export function summarize(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>, spectra: Spectra): FeatureResult {
   const { recipe, derived } = resolved;
@@ -220,9 +200,10 @@ export function summarize(signal: Signal, resolved: ResolvedRecipe<SpectrumRecip
   const pick = (values: Float64Array) => inRange.map((k) => values[k]!);
   const ratios = recipe.ratios.map((r) => ({ ...r, name: r.name ?? `${r.numerator}/${r.denominator}` }));
   const warnings = [...resolved.warnings, ...spectra.warnings];
-  const describe = (where: string, psd: Float64Array, dof: Float64Array | null): ChannelFeatures => {
+  /** Features of one spectrum; their warnings go to the record, prefixed with where they came from. */
+  const describe = (where: string, name: string, psd: Float64Array, dof: Float64Array | null): ChannelFeatures => {
     const bands = bandPowers(frequencies, psd, recipe.bands, derived.frequencyRange, derived.frequencyResolution);
-    const out: ChannelFeatures = { name: where, psd: pick(psd), bands, ratios: bandRatios(bands, ratios) };
+    const out: ChannelFeatures = { name, psd: pick(psd), bands, ratios: bandRatios(bands, ratios) };
     if (recipe.confidence !== null && dof) {
       const ci = confidenceInterval(psd, dof, recipe.confidence);
       out.psdLower = pick(ci.lower);
@@ -232,23 +213,14 @@ export function summarize(signal: Signal, resolved: ResolvedRecipe<SpectrumRecip
     if (Object.keys(recipe.features).some((k) => k !== 'quality')) {
       const { values, warnings: featureWarnings } = computeFeatures(frequencies, psd, recipe.features, derived.frequencyRange);
       out.features = values;
-      return Object.assign(out, { _warnings: featureWarnings });
+      for (const w of featureWarnings) warnings.push(`${where}: ${w}`);
     }
     return out;
-  };
-  const collect = (prefix: string, features: ChannelFeatures): ChannelFeatures => {
-    const extra = (features as ChannelFeatures & { _warnings?: string[] })._warnings;
-    if (extra) {
-      for (const w of extra) warnings.push(`${prefix}: ${w}`);
-      delete (features as ChannelFeatures & { _warnings?: string[] })._warnings;
-    }
-    return features;
   };
   const count = spectra.usedEpochs.length;
   const channels = signal.channels.map((name, c) => {
     const mean = spectra.psdSums[c]!.map((v) => v / count);
-    const features = describe(name, mean, spectra.dofSums[c]!);
-    return collect(`channel "${name}"`, { ...features, name });
+    return describe(`channel "${name}"`, name, mean, spectra.dofSums[c]!);
   });
   const result: FeatureResult = {
     units: { psd: `${signal.unit}^2/Hz`, power: `${signal.unit}^2`, frequency: 'Hz' },
@@ -267,7 +239,7 @@ export function summarize(signal: Signal, resolved: ResolvedRecipe<SpectrumRecip
   if (spectra.perEpoch) {
     result.epochs = spectra.usedEpochs.map((index, i) => ({
       index,
-      channels: signal.channels.map((name, c) => collect(`epoch ${index}, channel "${name}"`, describe(name, spectra.perEpoch![i]![c]!, null))),
+      channels: signal.channels.map((name, c) => describe(`epoch ${index}, channel "${name}"`, name, spectra.perEpoch![i]![c]!, null)),
     }));
   }
   if (spectra.quality) result.quality = spectra.quality;
@@ -275,7 +247,7 @@ export function summarize(signal: Signal, resolved: ResolvedRecipe<SpectrumRecip
     result.groups = [...spectra.groups.entries()].map(([label, g]) => ({
       label,
       epochs: g.count,
-      channels: signal.channels.map((name, c) => collect(`group "${label}", channel "${name}"`, describe(name, g.psdSums[c]!.map((v) => v / g.count), null))),
+      channels: signal.channels.map((name, c) => describe(`group "${label}", channel "${name}"`, name, g.psdSums[c]!.map((v) => v / g.count), null)),
     }));
   }
   result.warnings = [...new Set(result.warnings)];

@@ -1,13 +1,14 @@
-import { createHash } from 'node:crypto';
+import { sha256Hex } from '../common/hash.js';
 import { baselineNormalize } from '../dsp/baseline.js';
 import { crossSpectralConnectivity } from '../dsp/coherence.js';
-import { createMorletPlan } from '../dsp/morlet.js';
-import { phaseConsistency, phaseConsistencyThreshold } from '../dsp/phase-consistency.js';
+import { createMorletPlan, POWER_FACTOR } from '../dsp/morlet.js';
+import { phaseConsistency } from '../dsp/phase-consistency.js';
 import { createSpectrogramPlan } from '../dsp/spectrogram.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
-import type { ConnectivityRecipe, TimeFrequencyRecipe } from '../recipes/schema.js';
+import type { ConnectivityRecipe, SpectrogramRecipe, TimeFrequencyRecipe } from '../recipes/schema.js';
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
+import { screenGaps } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
 import type { Attachment, SkippedEpoch, TimeFrequencyResult } from './record.js';
 
@@ -20,7 +21,13 @@ const ALPHA = 0.05;
 
 function attachment(name: string, kind: string, channel: string | null, shape: number[], data: Float64Array | Uint8Array): Attachment {
   const bytes = new Uint8Array(data.buffer, data.byteOffset, data.byteLength);
-  return { name, kind, channel, shape, dtype: data instanceof Uint8Array ? 'uint8' : 'float64-le', bytes: bytes.byteLength, sha256: createHash('sha256').update(bytes).digest('hex'), data };
+  return { name, kind, channel, shape, dtype: data instanceof Uint8Array ? 'uint8' : 'float64-le', bytes: bytes.byteLength, sha256: sha256Hex(bytes), data };
+}
+
+/** DPSS tapers when the recipe names them, else its window (spectrogram and connectivity alike). */
+function taperOptions(recipe: SpectrogramRecipe | ConnectivityRecipe) {
+  if (recipe.tapers) return { tapers: { timeBandwidth: recipe.tapers.timeBandwidth, ...(recipe.tapers.taperCount !== null ? { taperCount: recipe.tapers.taperCount } : {}) } };
+  return { window: recipe.window, ...(recipe.tukeyRatio !== undefined ? { tukeyRatio: recipe.tukeyRatio } : {}) };
 }
 
 /** Epochs with gaps are left out (or refuse the job), as for spectra. */
@@ -28,14 +35,9 @@ function usableEpochs(signal: Signal, policy: 'reject' | 'skip-epoch'): { used: 
   const used: number[] = [];
   const skipped: SkippedEpoch[] = [];
   for (let e = 0; e < signal.epochCount; e++) {
-    let bad = -1;
-    for (let c = 0; c < signal.channels.length && bad < 0; c++) {
-      const x = channelView(signal, e, c);
-      for (let i = 0; i < x.length; i++) if (!Number.isFinite(x[i]!)) { bad = c; break; }
-    }
-    if (bad < 0) used.push(e);
-    else if (policy === 'reject') throw new EngineInputError('non-finite', `epoch ${e} holds a non-finite sample (channel "${signal.channels[bad]}"); set "nonFinite": "skip-epoch" to leave such epochs out`, '/recipe/nonFinite');
-    else skipped.push({ index: e, reason: 'non-finite', detail: `channel "${signal.channels[bad]}"` });
+    const gap = screenGaps(signal, e, policy);
+    if (gap) skipped.push(gap);
+    else used.push(e);
   }
   if (used.length === 0) throw new EngineInputError('no-usable-epochs', `all ${signal.epochCount} epoch(s) hold non-finite samples`);
   return { used, skipped };
@@ -63,20 +65,19 @@ export function analyzeTimeFrequency(
   const origin = recipe.epoching?.mode === 'events' ? recipe.epoching.beforeSeconds : 0;
   let times: Float64Array;
   let frequencies: Float64Array;
-  let columns: number[];
-  let computePower: (x: Float64Array) => Float64Array;
-  let coefficients: ((x: Float64Array) => { re: Float64Array; im: Float64Array }) | null = null;
+  // Power of one trial, and its complex coefficients when phase consistency goes into the matrices.
+  let transform: (x: Float64Array) => { power: Float64Array; re?: Float64Array; im?: Float64Array };
   let edgeMask: Uint8Array | null = null;
   const extra: Partial<NonNullable<TimeFrequencyResult['timeFrequency']>> = {};
   if (recipe.method === 'morlet') {
     const plan = createMorletPlan(n, { samplingRate: fs, frequencies: recipe.frequencies, cycles: recipe.cycles, decimation: recipe.decimation });
     times = plan.times;
     frequencies = plan.frequencies;
-    columns = Array.from(frequencies.keys());
-    computePower = (x) => plan.power(x);
-    if (recipe.phaseConsistency) coefficients = (x) => plan.coefficients(x);
+    // One set of convolutions gives both; summaries never use the coefficients.
+    const withPhase = recipe.phaseConsistency && recipe.output === 'matrix';
+    transform = withPhase ? (x) => plan.powerAndCoefficients(x) : (x) => ({ power: plan.power(x) });
     edgeMask = plan.edgeMask;
-    Object.assign(extra, { edgeSigmas: plan.edgeSigmas, powerFactor: 2, cycles: Array.from(plan.cycles) });
+    Object.assign(extra, { edgeSigmas: plan.edgeSigmas, powerFactor: POWER_FACTOR, cycles: Array.from(plan.cycles) });
   } else {
     const d = resolved.derived;
     const plan = createSpectrogramPlan(n, {
@@ -85,19 +86,19 @@ export function analyzeTimeFrequency(
       overlapSamples: d.overlapSamples,
       fftLength: d.fftLength,
       detrend: recipe.detrend,
-      ...(recipe.tapers ? { tapers: { timeBandwidth: recipe.tapers.timeBandwidth, ...(recipe.tapers.taperCount !== null ? { taperCount: recipe.tapers.taperCount } : {}) } } : { window: recipe.window, ...(recipe.tukeyRatio !== undefined ? { tukeyRatio: recipe.tukeyRatio } : {}) }),
+      ...taperOptions(recipe),
     });
     times = plan.times;
     const [lo, hi] = d.frequencyRange;
-    columns = Array.from(plan.frequencies.keys()).filter((k) => plan.frequencies[k]! >= lo && plan.frequencies[k]! <= hi);
+    const columns = Array.from(plan.frequencies.keys()).filter((k) => plan.frequencies[k]! >= lo && plan.frequencies[k]! <= hi);
     frequencies = Float64Array.from(columns, (k) => plan.frequencies[k]!);
     const full = plan.frequencyCount;
-    computePower = (x) => {
+    transform = (x) => {
       const p = plan.compute(x).power;
-      if (columns.length === full) return p;
+      if (columns.length === full) return { power: p };
       const out = new Float64Array(plan.timeCount * columns.length);
       for (let t = 0; t < plan.timeCount; t++) columns.forEach((k, j) => (out[t * columns.length + j] = p[t * full + k]!));
-      return out;
+      return { power: out };
     };
   }
   const T = times.length;
@@ -116,10 +117,9 @@ export function analyzeTimeFrequency(
     const im: Float64Array[] = [];
     for (const e of used) {
       context.checkpoint?.();
-      const x = channelView(signal, e, c);
-      trials.push(computePower(x));
-      if (coefficients) {
-        const w = coefficients(x);
+      const w = transform(channelView(signal, e, c));
+      trials.push(w.power);
+      if (w.re && w.im) {
         re.push(w.re);
         im.push(w.im);
       }
@@ -155,14 +155,13 @@ export function analyzeTimeFrequency(
         perTrial.forEach((t, i) => stacked.set(t, i * T * F));
         attachments.push(attachment(`trials-${c}`, 'trialPower', name, [perTrial.length, T, F], stacked));
       }
-      if (coefficients) {
+      if (re.length > 0) {
         const pc = phaseConsistency(re, im, { alpha: ALPHA, ...(edgeMask ? { exclude: edgeMask } : {}) });
         attachments.push(attachment(`phase-consistency-${c}`, 'phaseConsistency', name, [T, F], pc.values));
         pcNull = { ...pc.null, threshold: pc.threshold, alpha: pc.alpha };
       }
     }
   });
-  if (coefficients && !pcNull) pcNull = { trialCount: used.length, mean: Number.NaN, largeSampleMean: Number.NaN, rootMeanSquare: 1 / Math.sqrt(used.length), threshold: phaseConsistencyThreshold(used.length, ALPHA), alpha: ALPHA };
   const result: TimeFrequencyResult = {
     units: { power: recipe.method === 'morlet' ? `${signal.unit}^2` : `${signal.unit}^2/Hz`, normalized: recipe.baseline ? recipe.baseline.mode : 'none', frequency: 'Hz', time: 's' },
     frequencies: Array.from(frequencies),
@@ -174,7 +173,7 @@ export function analyzeTimeFrequency(
       trials: used.length,
       baseline: baselineInfo,
       ...extra,
-      ...(pcNull && Number.isFinite(pcNull.mean) ? { phaseConsistencyNull: pcNull } : {}),
+      ...(pcNull ? { phaseConsistencyNull: pcNull } : {}),
       attachments: attachments.map(({ data: _data, ...rest }) => rest),
     },
     ...base,
@@ -214,7 +213,7 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
     overlapSamples: derived.overlapSamples,
     fftLength: derived.fftLength,
     detrend: recipe.detrend,
-    ...(recipe.tapers ? { tapers: { timeBandwidth: recipe.tapers.timeBandwidth, ...(recipe.tapers.taperCount !== null ? { taperCount: recipe.tapers.taperCount } : {}) } } : { window: recipe.window, ...(recipe.tukeyRatio !== undefined ? { tukeyRatio: recipe.tukeyRatio } : {}) }),
+    ...taperOptions(recipe),
     ...(pairs ? { pairs } : {}),
     bands: recipe.bands,
     alpha: ALPHA,

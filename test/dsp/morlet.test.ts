@@ -240,6 +240,16 @@ describe('morletPower', () => {
       plan.power(a);
       expect(Array.from(plan.power(b))).toEqual(Array.from(morletPower(b, options).power));
     });
+
+    it('should give the same bits from one combined pass as from power() and coefficients()', () => {
+      const plan = createMorletPlan(500, { samplingRate: 250, frequencies: [4, 10, 30], cycles: 6 });
+      const x = noise(500, 3);
+      const both = plan.powerAndCoefficients(x);
+      const w = plan.coefficients(x);
+      expect(Array.from(both.power)).toEqual(Array.from(plan.power(x)));
+      expect(Array.from(both.re)).toEqual(Array.from(w.re));
+      expect(Array.from(both.im)).toEqual(Array.from(w.im));
+    });
   });
 
   describe('when the options are wrong', () => {
