@@ -1,4 +1,4 @@
-import { ANNOTATION_LABEL, EdfFormatError, decodeEdfRecords, parseEdf, type EdfFile, type EdfHeader, type EdfSignalHeader } from './edf/index.js';
+import { ANNOTATION_LABEL, EdfFormatError, decodeEdfRecords, parseEdf, type EdfFile, type EdfGap, type EdfHeader, type EdfSignalHeader } from './edf/index.js';
 import { SignalInputError } from './errors.js';
 import type { SignalLimits } from './limits.js';
 import type { Signal, SignalEvent } from './signal.js';
@@ -126,6 +126,18 @@ function checkLabels(chosen: readonly OrdinarySignal[], pointer: string): void {
   }
 }
 
+/** The refusal of an EDF+D file whose records leave gaps (the same for whole and piecewise reads). */
+export function discontinuityError(gaps: readonly EdfGap[]): SignalInputError {
+  const shown = gaps.slice(0, 5).map((g) => `after record ${g.afterRecord + 1}, ${g.start} s to ${g.end} s`);
+  const more = gaps.length > shown.length ? `, and ${gaps.length - shown.length} more` : '';
+  return new SignalInputError(
+    'format',
+    `this EDF+D file is discontinuous: ${gaps.length} gap${gaps.length === 1 ? '' : 's'} between data records (${shown.join('; ')}${more}); ` +
+      'discontinuous recordings are not supported yet, so upload each continuous part as its own file',
+    BODY,
+  );
+}
+
 /**
  * Turns an uploaded EDF or EDF+ file into one continuous {@link Signal} (epochCount 1).
  *
@@ -161,16 +173,7 @@ export function edfToSignal(bytes: Uint8Array, options: EdfUploadOptions, limits
     throw error instanceof EdfFormatError ? formatError(error) : error;
   }
   const { header } = file;
-  if (file.gaps.length > 0) {
-    const shown = file.gaps.slice(0, 5).map((g) => `after record ${g.afterRecord + 1}, ${g.start} s to ${g.end} s`);
-    const more = file.gaps.length > shown.length ? `, and ${file.gaps.length - shown.length} more` : '';
-    throw new SignalInputError(
-      'format',
-      `this EDF+D file is discontinuous: ${file.gaps.length} gap${file.gaps.length === 1 ? '' : 's'} between data records (${shown.join('; ')}${more}); ` +
-        'discontinuous recordings are not supported yet, so upload each continuous part as its own file',
-      BODY,
-    );
-  }
+  if (file.gaps.length > 0) throw discontinuityError(file.gaps);
   const plan = planEdfSignal(header, options, limits);
   let decoded;
   try {

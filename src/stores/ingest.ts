@@ -2,8 +2,8 @@ import { createHash, randomBytes } from 'node:crypto';
 import { open, rm, stat, type FileHandle } from 'node:fs/promises';
 import { join } from 'node:path';
 import { signalIdFromHash, signalSha256FromParts } from '../signals/content-hash.js';
-import { EdfFormatError, decodeEdfRecords, readEdfHeader, type EdfHeader } from '../signals/edf/index.js';
-import { formatError, planEdfSignal } from '../signals/edf-to-signal.js';
+import { EdfFormatError, decodeEdfRecords, readEdfHeader, type EdfGap, type EdfHeader } from '../signals/edf/index.js';
+import { discontinuityError, formatError, planEdfSignal } from '../signals/edf-to-signal.js';
 import { SignalInputError } from '../signals/errors.js';
 import type { SignalLimits } from '../signals/limits.js';
 import type { SignalEvent } from '../signals/signal.js';
@@ -131,8 +131,8 @@ async function decodeEdfFile(rawPath: string, out: string, d: Extract<IngestDesc
     const batch = Math.max(1, Math.floor(CHUNK / header.recordBytes));
     const events: SignalEvent[] = [];
     let firstStart: number | null = null;
-    let expectedStart = 0;
-    const gaps: string[] = [];
+    let previousStart: number | undefined;
+    const gaps: EdfGap[] = [];
     const buffer = Buffer.alloc(batch * header.recordBytes);
     for (let r0 = 0; r0 < header.recordCount; r0 += batch) {
       const r1 = Math.min(header.recordCount, r0 + batch);
@@ -141,30 +141,28 @@ async function decodeEdfFile(rawPath: string, out: string, d: Extract<IngestDesc
       await readAll(input, buffer, length, origin);
       let records;
       try {
-        records = decodeEdfRecords(plan.header, buffer.subarray(0, length), { channels: plan.channelIndices, startRecord: r0, endRecord: r1, bytesOrigin: origin, annotations: true });
+        records = decodeEdfRecords(plan.header, buffer.subarray(0, length), {
+          channels: plan.channelIndices,
+          startRecord: r0,
+          endRecord: r1,
+          bytesOrigin: origin,
+          annotations: true,
+          // The decoder checks each record against the one before, across batches too.
+          ...(previousStart === undefined ? {} : { previousRecordStart: previousStart }),
+        });
       } catch (error) {
         throw error instanceof EdfFormatError ? formatError(error) : error;
       }
-      // Record start times: continuity across batches (within a batch the decoder checks EDF+C).
-      for (let k = 0; k < records.recordStarts.length; k++) {
-        const start = records.recordStarts[k]!;
-        if (firstStart === null) firstStart = start;
-        else if (Math.abs(start - expectedStart) > 1e-6 * Math.max(1, header.recordDuration)) gaps.push(`after record ${r0 + k}, ${expectedStart} s to ${start} s`);
-        expectedStart = start + header.recordDuration;
-      }
+      firstStart ??= records.recordStarts[0] ?? null;
+      previousStart = records.recordStarts.at(-1);
+      for (const gap of records.gaps) gaps.push(gap);
       for (const a of records.annotations) events.push({ onset: a.onset, duration: a.duration, label: a.label });
       for (let c = 0; c < records.signals.length; c++) {
         const samples = records.signals[c]!.samples;
         await writeAll(output, new Uint8Array(samples.buffer, samples.byteOffset, samples.byteLength), (c * plan.samplesPerEpoch + r0 * perRecord) * 8);
       }
     }
-    if (gaps.length > 0) {
-      throw new SignalInputError(
-        'format',
-        `this EDF+D file is discontinuous: ${gaps.length} gap(s) between data records (${gaps.slice(0, 5).join('; ')}); discontinuous recordings are not supported yet, so upload each continuous part as its own file`,
-        '/body',
-      );
-    }
+    if (gaps.length > 0) throw discontinuityError(gaps);
     const offset = firstStart ?? 0;
     const shifted = events.map((ev) => ({ ...ev, onset: ev.onset - offset }));
     return {

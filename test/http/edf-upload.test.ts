@@ -69,3 +69,17 @@ describe('when an EDF+ file is uploaded', () => {
     expect(res.json().detail).toMatch(/184/);
   });
 });
+
+describe('when an EDF+C file rounds its record onsets', () => {
+  it('should accept a record onset off by less than half a sample, as the whole-file reader does', async () => {
+    const bytes = file('uV');
+    // EDF+ §2.2.4: each record's time-keeping TAL holds its onset. Record 2 of these 1 s records says
+    // "+1"; "+1.001" is 1 ms late, under half a sample (1/512 s ≈ 1.95 ms) at 256 Hz, so not a gap.
+    const tal = Buffer.from('+1\x14\x14\x00', 'latin1');
+    const at = bytes.indexOf(tal);
+    expect(at).toBeGreaterThan(0);
+    bytes.set(Buffer.from('+1.001\x14\x14\x00', 'latin1'), at);
+    const res = await upload(bytes);
+    expect(res.statusCode, res.body).toBe(201);
+  });
+});

@@ -72,7 +72,9 @@ describe('when the time-keeping TALs contradict the header', () => {
     const bytes = motorNerveFile();
     bytes.set(ascii('EDF+C'), 192);
     const e = parseError(bytes);
-    expect(e.message).toContain('time-keeping TAL of data record 2 at offset 2888');
+    // Record 2 starts at 768 + 2120 = 2888; its TAL follows R APB's 1000 two-byte samples: 2888 + 2000
+    // (header size and record layout of the EDF+ §3.7 example, REFERENCES.md §6).
+    expect(e.message).toContain('time-keeping TAL of data record 2 at offset 4888');
     expect(e.message).toContain('EDF+C record must start at 0.05 s');
   });
 

@@ -20,6 +20,12 @@ export interface DecodeEdfRecordsOptions {
   bytesOrigin?: number;
   /** Decode the annotation signals' TALs. @defaultValue true */
   annotations?: boolean;
+  /**
+   * Start (s) of the record before `startRecord`, when a caller decodes a file in batches: the first
+   * record of this batch is then checked against it as every later record is against its predecessor.
+   * @defaultValue none (the batch's first record is checked only when it is the file's first)
+   */
+  previousRecordStart?: number;
 }
 
 export interface EdfSignalData extends EdfSignalHeader {
@@ -150,14 +156,16 @@ export function decodeEdfRecords(header: EdfHeader, bytes: Uint8Array, options: 
       });
     }
   }
-  return { startRecord, endRecord, signals, annotations, recordStarts, gaps: checkTimekeeping(header, startRecord, recordStarts) };
+  return { startRecord, endRecord, signals, annotations, recordStarts, gaps: checkTimekeeping(header, startRecord, recordStarts, options.previousRecordStart) };
 }
 
-function checkTimekeeping(header: EdfHeader, startRecord: number, recordStarts: Float64Array): EdfGap[] {
+function checkTimekeeping(header: EdfHeader, startRecord: number, recordStarts: Float64Array, previousRecordStart?: number): EdfGap[] {
   const gaps: EdfGap[] = [];
   if (header.variant === 'EDF') return gaps;
+  // The time-keeping TAL is the first TAL of the first annotation signal in each record.
+  const talOffset = header.signals[header.annotationSignals[0]!]!.recordByteOffset;
   const fail = (r: number, detail: string): never => {
-    const at = header.headerBytes + (startRecord + r) * header.recordBytes;
+    const at = header.headerBytes + (startRecord + r) * header.recordBytes + talOffset;
     throw new EdfFormatError('annotation TAL', at, `time-keeping TAL of data record ${startRecord + r + 1} at offset ${at} ${detail}`);
   };
   if (startRecord === 0 && recordStarts.length > 0 && !(recordStarts[0]! >= 0 && recordStarts[0]! < 1)) {
@@ -169,8 +177,8 @@ function checkTimekeeping(header: EdfHeader, startRecord: number, recordStarts: 
   // A gap shorter than half a sample is not a gap: it is rounding in the written onsets.
   const maxSamples = Math.max(...header.signals.filter((s) => !s.isAnnotation).map((s) => s.samplesPerRecord), 1);
   const tolerance = duration / maxSamples / 2;
-  for (let r = 1; r < recordStarts.length; r++) {
-    const expected = recordStarts[r - 1]! + duration;
+  for (let r = previousRecordStart === undefined ? 1 : 0; r < recordStarts.length; r++) {
+    const expected = (r === 0 ? previousRecordStart! : recordStarts[r - 1]!) + duration;
     const actual = recordStarts[r]!;
     if (actual < expected - tolerance) {
       fail(r, `says ${actual} s, before the previous record ends at ${expected} s`);
