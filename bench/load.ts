@@ -13,33 +13,16 @@
  * drain per scenario. Prints figures, never fails on them. Run: npx tsx bench/load.ts
  */
 import { mkdtemp, rm } from 'node:fs/promises';
-import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { fileURLToPath } from 'node:url';
+import autocannon from 'autocannon';
 import { Redis } from 'ioredis';
 import { createRandom } from '../src/common/random.js';
 import { freePort, ServiceProcess } from '../test/faults/helpers.js';
 import { redisAnswers } from '../test/helpers/redis.js';
-
-/** The part of autocannon 9 used here (it ships no types; see its README for the fields). */
-interface LoadRequest {
-  method: string;
-  path: string;
-  headers: Record<string, string>;
-  body?: string;
-  setupRequest: (request: LoadRequest) => LoadRequest;
-}
-interface LoadResult {
-  requests: { average: number; total: number };
-  latency: { p50: number; p99: number };
-  statusCodeStats?: Record<string, { count: number }>;
-  errors: number;
-  timeouts: number;
-}
-const autocannon = createRequire(import.meta.url)('autocannon') as (options: { url: string; connections: number; duration: number; requests: LoadRequest[] }) => Promise<LoadResult>;
 
 const CHANNELS = 32;
 const SECONDS = 2;
@@ -99,7 +82,7 @@ async function runScenario(scenario: Scenario, template: { head: string; tail: s
           method: 'POST',
           path: '/v1/jobs',
           headers: { 'content-type': 'application/json' },
-          setupRequest: (request: LoadRequest) => ({ ...request, body: `${template.head}${n++}${template.tail}` }),
+          setupRequest: (request) => ({ ...request, body: `${template.head}${n++}${template.tail}` }),
         },
       ],
     });

@@ -37,7 +37,8 @@ function* walk(dir: string): Generator<string> {
   }
 }
 
-const IMPORT = /(?:^|\n)\s*(?:import|export)\s[^'"]*?from\s+['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)/g;
+// `import … from '…'`, `export … from '…'`, `import('…')`, and side-effect `import '…'`.
+const IMPORT = /(?:^|\n)\s*(?:import|export)\s[^'"]*?from\s+['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)|(?:^|\n)\s*import\s+['"]([^'"]+)['"]/g;
 const problems: string[] = [];
 for (const file of walk(SRC)) {
   const layer = layerOf(file);
@@ -48,7 +49,7 @@ for (const file of walk(SRC)) {
   }
   const text = readFileSync(file, 'utf8');
   for (const match of text.matchAll(IMPORT)) {
-    const spec = match[1] ?? match[2]!;
+    const spec = match[1] ?? match[2] ?? match[3]!;
     if (!spec.startsWith('.')) {
       if (layer === 'dsp' && !DSP_PACKAGES.has(spec)) problems.push(`${relative(SRC, file)}: the numerical core imports "${spec}"`);
       continue;

@@ -74,8 +74,9 @@ describe('when a Welch recipe asks for confidence intervals', () => {
 describe('when features are named in the recipe', () => {
   const fs = 256;
   const random = createRandom(11);
-  // 1/f-ish background (a random walk leaks as 1/f²; a light mix is enough here), a 10 Hz rhythm
-  // and 50 Hz mains on one channel.
+  // White background (σ = 0.5), a 10.25 Hz rhythm of amplitude 4 on a bin (Δf = 0.25 Hz for 4 s
+  // segments) and 50 Hz mains of amplitude 3 on Cz. Hand figures used below (REFERENCES.md §4):
+  // tone peak density (A²/2)/(1.5·Δf) = 8/0.375 ≈ 21 µV²/Hz; noise density 2σ²/fs ≈ 0.00195 µV²/Hz.
   const signal = build(fs, 8, ['O1', 'Cz'], 1024, (_e, c, i) => {
     const t = i / fs;
     return 0.5 * random.normal() + 4 * Math.sin(2 * Math.PI * 10.25 * t) + (c === 1 ? 3 * Math.sin(2 * Math.PI * 50 * t) : 0);
@@ -87,13 +88,17 @@ describe('when features are named in the recipe', () => {
   });
   const [o1, cz] = record.result.channels;
 
-  it('should find the alpha peak within a quarter bin of its frequency', () => {
-    // Parabolic interpolation of an on-grid-offset tone: within 0.25 Δf (Δf = 0.25 Hz) is common practice.
+  it('should find the alpha peak within 0.05 Hz (a fifth of a bin) of its frequency', () => {
+    // Parabolic interpolation around an on-bin tone lands within a fraction of a bin (common practice).
     expect(o1!.features!.peakFrequency!.frequency!).toBeCloseTo(10.25, 1);
+    // 21 over 0.00195 is about 40 dB above the background; 10 dB is a wide margin below that.
     expect(o1!.features!.peakFrequency!.heightDb!).toBeGreaterThan(10);
   });
 
   it('should place the spectral edge and centroid where the tone holds the power', () => {
+    // The tone holds 8 µV² against ≈ 0.086 µV² of noise in 1–45 Hz, so half the power is reached within
+    // its three Hann bins (10–10.5 Hz) and the spectrum is concentrated in about 3 of 177 bins
+    // (entropy near ln 3 / ln 177 ≈ 0.2); the bounds below are margins around those hand figures.
     const sef50 = o1!.features!.spectralEdge!.edges.find((e) => e.percentile === 50)!.frequency!;
     expect(sef50).toBeGreaterThan(9.5);
     expect(sef50).toBeLessThan(11);
@@ -103,12 +108,16 @@ describe('when features are named in the recipe', () => {
   });
 
   it('should flag mains contamination only on the channel that carries it', () => {
+    // Mains puts 4.5 µV² into the ±1 Hz line band (9 bins, 2.25 Hz): mean ≈ 2 µV²/Hz over a noise
+    // neighbourhood of ≈ 0.00195 µV²/Hz, a ratio near 1000; without mains the ratio is noise over
+    // noise, near 1 (3 is a margin for the spread of the estimates).
     expect(cz!.features!.lineNoise!.ratio!).toBeGreaterThan(100);
     expect(o1!.features!.lineNoise!.ratio!).toBeLessThan(3);
   });
 
   it('should report a power-law slope near 0 for a white background', () => {
-    // White noise has PSD ∝ f⁰ (common practice); the robust fit down-weights the 10 Hz line.
+    // White noise has PSD ∝ f⁰ (common practice); the robust fit down-weights the 10 Hz line. 0.2 is
+    // a margin for the spread of a 4 s Welch estimate over 2–40 Hz.
     expect(Math.abs(o1!.features!.powerLaw!.slope!)).toBeLessThan(0.2);
     expect(o1!.features!.powerLaw!.inlierFraction!).toBeLessThan(1);
   });

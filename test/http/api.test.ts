@@ -81,7 +81,7 @@ describe('when a pipeline uploads, submits and fetches', () => {
     expect(record.result.channels[0].bands[0].absolute).toBeCloseTo((0.5 + 2 + 4.5) / 3, 10);
   });
 
-  it('should let a queued or running job be canceled and refuse to cancel a finished one', async () => {
+  it('should refuse to cancel a finished job (canceling queued and running jobs: test/jobs/queue-conformance.test.ts)', async () => {
     const submitted = await post('/v1/jobs', { signal: { samplingRate: fs, channels: ['Cz'], data: [tone(1, 10, 4)] }, recipe: { method: 'welch', segmentSeconds: 1 } });
     const job = await pollJob(api.app, submitted.json().id);
     const cancel = await api.app.inject({ method: 'DELETE', url: `/v1/jobs/${job.id}` });

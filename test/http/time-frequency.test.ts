@@ -78,7 +78,9 @@ describe('when the recipe asks for Morlet power around events', () => {
     expect(tf.trials).toBe(trials);
     const burst = (name: string) => record.result.channels.find((c: { name: string }) => c.name === name).summary[0].value;
     const late = (name: string) => record.result.channels.find((c: { name: string }) => c.name === name).summary[1].value;
-    // Burst amplitude 3 over noise σ 0.5: well over 10 dB against the baseline (hand estimate ~ 20 dB).
+    // Burst power A²/2 = 4.5 µV² against the white noise a unit-gain 7-cycle wavelet passes,
+    // 2σ²·Σψ̃² = σ²/(√π·σ_t·fs) = 0.25/(√π·0.1114·250) ≈ 0.005 µV²: about 29 dB at the burst centre
+    // (σ_t = n/(2πf), REFERENCES.md §7); 10 dB is a wide margin below it.
     expect(burst('O1')).toBeGreaterThan(10);
     expect(burst('O2')).toBeGreaterThan(10);
     expect(Math.abs(late('O1'))).toBeLessThan(3);

@@ -71,7 +71,7 @@ describe('when a large file is uploaded in parts', () => {
     expect(parts.json().events).toEqual([{ onset: 3, duration: 1.5, label: 'arousal' }]);
   });
 
-  it('should answer 404 for another tenant or an unknown upload, and 413 for a part over the limit', async () => {
+  it('should answer 404 for an unknown upload, and 413 for a part over the limit', async () => {
     expect((await api.app.inject({ method: 'GET', url: `/v1/uploads/upl_${'0'.repeat(32)}` })).statusCode).toBe(404);
     const small = await startTestApi({ BODY_LIMIT_BYTES: '1000' });
     try {
