@@ -37,7 +37,7 @@ export async function importSignal(config: Readonly<Config>, store: Store, sourc
       const opened = await (await root).open(source.file);
       try {
         if (opened.size > config.bodyLimitBytes) throw new ProblemError('payload-too-large', `the file has ${opened.size} bytes, over this server's limit of ${config.bodyLimitBytes}`, `${pointer}/file`);
-        return await ingestFile(store, opened.realPath, description, options);
+        return await ingestFile(store, { handle: opened.handle, size: opened.size }, description, options);
       } finally {
         await opened.handle.close();
       }

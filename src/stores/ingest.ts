@@ -1,5 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { open, rm, stat, type FileHandle } from 'node:fs/promises';
+import { open, rm, type FileHandle } from 'node:fs/promises';
 import { join } from 'node:path';
 import { signalIdFromHash, signalSha256FromParts } from '../signals/content-hash.js';
 import { EdfFormatError, decodeEdfRecords, readEdfHeader, type EdfGap, type EdfHeader } from '../signals/edf/index.js';
@@ -29,10 +29,14 @@ const CHUNK = 8 * 1024 * 1024;
  * recording in memory: samples are converted chunk by chunk into a float64 file under the store's
  * temp directory, hashed, then moved into place. Nothing is stored when any check fails.
  */
-export async function ingestFile(store: Store, rawPath: string, description: IngestDescription, options: IngestOptions): Promise<SignalMeta> {
+export async function ingestFile(store: Store, raw: string | RawFile, description: IngestDescription, options: IngestOptions): Promise<SignalMeta> {
   const out = join(await store.tempDir(), `${randomBytes(8).toString('hex')}.f64.part`);
+  // A caller that checked what it opened (a data-root file) passes that handle, so the bytes read
+  // are those of the file it checked, not of whatever the path names by now.
+  const input = typeof raw === 'string' ? await open(raw, 'r') : raw.handle;
   try {
-    const decoded = description.format === 'float32' ? await decodeFloat32File(rawPath, out, description, options.limits) : await decodeEdfFile(rawPath, out, description, options.limits);
+    const size = typeof raw === 'string' ? (await input.stat()).size : raw.size;
+    const decoded = description.format === 'float32' ? await decodeFloat32File(input, size, out, description, options.limits) : await decodeEdfFile(input, size, out, description, options.limits);
     const samplesSha256 = await hashFile(out);
     const sha256 = signalSha256FromParts(decoded.description, samplesSha256);
     const id = signalIdFromHash(sha256, options.tenant);
@@ -52,19 +56,23 @@ export async function ingestFile(store: Store, rawPath: string, description: Ing
     await withStorageReservation(store, bytes, options.maxStoreBytes, () => store.putSignalFile(meta, out));
     return meta;
   } finally {
+    if (typeof raw === 'string') await input.close();
     await rm(out, { force: true });
   }
 }
 
-export { StorageFullError } from './store.js';
+/** An open file and its size; the caller keeps and closes the handle. */
+export interface RawFile {
+  handle: FileHandle;
+  size: number;
+}
 
 interface Decoded {
   description: { samplingRate: number; channels: string[]; unit: string; epochCount: number; samplesPerEpoch: number; events?: SignalEvent[] };
   nonFinite: number;
 }
 
-async function decodeFloat32File(rawPath: string, out: string, d: Extract<IngestDescription, { format: 'float32' }>, limits: SignalLimits): Promise<Decoded> {
-  const size = (await stat(rawPath)).size;
+async function decodeFloat32File(input: FileHandle, size: number, out: string, d: Extract<IngestDescription, { format: 'float32' }>, limits: SignalLimits): Promise<Decoded> {
   if (size % 4 !== 0) throw new SignalInputError('shape', `the body has ${size} bytes, not a whole number of float32 samples`, '/body');
   const values = size / 4;
   const rows = d.epochCount * d.channels.length;
@@ -77,7 +85,6 @@ async function decodeFloat32File(rawPath: string, out: string, d: Extract<Ingest
   });
   const keep = d.nonFinite === 'keep';
   let nonFinite = 0;
-  const input = await open(rawPath, 'r');
   const output = await open(out, 'w');
   try {
     const raw = Buffer.alloc(CHUNK);
@@ -106,15 +113,12 @@ async function decodeFloat32File(rawPath: string, out: string, d: Extract<Ingest
       position += bytesRead;
     }
   } finally {
-    await input.close();
     await output.close();
   }
   return { description: { samplingRate: d.samplingRate, channels: [...d.channels], unit: d.unit ?? 'uV', epochCount: d.epochCount, samplesPerEpoch }, nonFinite };
 }
 
-async function decodeEdfFile(rawPath: string, out: string, d: Extract<IngestDescription, { format: 'edf' }>, limits: SignalLimits): Promise<Decoded> {
-  const size = (await stat(rawPath)).size;
-  const input = await open(rawPath, 'r');
+async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Extract<IngestDescription, { format: 'edf' }>, limits: SignalLimits): Promise<Decoded> {
   const output = await open(out, 'w');
   try {
     const header = await readHeader(input, size);
@@ -170,7 +174,6 @@ async function decodeEdfFile(rawPath: string, out: string, d: Extract<IngestDesc
       nonFinite: 0,
     };
   } finally {
-    await input.close();
     await output.close();
   }
 }
