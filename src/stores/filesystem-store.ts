@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { mkdir, open, readdir, readFile, rename, rm, stat } from 'node:fs/promises';
+import { link, mkdir, open, readFile, readdir, rename, rm, stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import { checkKey, signalFromParts, type Collection, type SignalMeta, type Store } from './store.js';
 
@@ -60,8 +60,22 @@ export class FilesystemStore implements Store {
     // meta, so a signal exists for readers only once both are complete.
     const [samplesTemp, metaTemp] = await Promise.all([this.writeTemp(samples, true), this.writeTemp(JSON.stringify(meta), true)]);
     await this.commitTemp(samplesTemp, join(this.dataDir, 'signals', `${id}.f64`));
-    await this.commitTemp(metaTemp, join(this.dataDir, 'signals', `${id}.json`));
-    await this.adjustUsage(1, meta.bytes);
+    await this.publishMeta(metaTemp, meta);
+  }
+
+  /**
+   * Makes a signal visible by linking its meta into place, which fails when another writer of the
+   * same content got there first: only the writer that created the signal counts its bytes.
+   */
+  private async publishMeta(metaTemp: string, meta: SignalMeta): Promise<void> {
+    try {
+      await link(metaTemp, join(this.dataDir, 'signals', `${meta.id}.json`));
+      await this.adjustUsage(1, meta.bytes);
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
+    } finally {
+      await rm(metaTemp, { force: true });
+    }
   }
 
   async putSignalFile(meta: SignalMeta, path: string): Promise<void> {
@@ -77,8 +91,7 @@ export class FilesystemStore implements Store {
       await handle.close();
     }
     await rename(path, join(this.dataDir, 'signals', `${id}.f64`));
-    await this.writeAtomic(join(this.dataDir, 'signals', `${id}.json`), JSON.stringify(meta));
-    await this.adjustUsage(1, meta.bytes);
+    await this.publishMeta(await this.writeTemp(JSON.stringify(meta), true), meta);
   }
 
   async putAttachment(key: string, bytes: Uint8Array): Promise<void> {

@@ -5,6 +5,14 @@ import { Redis } from 'ioredis';
 
 /** Redis strings hold at most 512 MiB. */
 const REDIS_VALUE_LIMIT = 512 * 1024 * 1024;
+
+/** Stores a signal unless its meta exists, so that storing the same content twice counts it once. */
+const PUT_SIGNAL = `
+if redis.call('SETNX', KEYS[1], ARGV[1]) == 0 then return 0 end
+redis.call('SET', KEYS[2], ARGV[2])
+redis.call('INCRBY', KEYS[3], ARGV[3])
+redis.call('INCR', KEYS[4])
+return 1`;
 import { checkKey, signalFromParts, type Collection, type SignalMeta, type Store } from './store.js';
 
 /**
@@ -29,15 +37,20 @@ export class RedisStore implements Store {
     return [this.prefix, ...parts].join(':');
   }
 
+  /** One atomic script: the meta is set only when absent, and only then are samples and usage written. */
   async putSignal(meta: SignalMeta, samples: Uint8Array): Promise<void> {
     const id = checkKey(meta.id);
-    await this.redis
-      .multi()
-      .set(this.key('signal', id, 'samples'), Buffer.from(samples.buffer, samples.byteOffset, samples.byteLength))
-      .set(this.key('signal', id, 'meta'), JSON.stringify(meta))
-      .incrby(this.key('usage', 'bytes'), meta.bytes)
-      .incr(this.key('usage', 'signals'))
-      .exec();
+    await this.redis.eval(
+      PUT_SIGNAL,
+      4,
+      this.key('signal', id, 'meta'),
+      this.key('signal', id, 'samples'),
+      this.key('usage', 'bytes'),
+      this.key('usage', 'signals'),
+      JSON.stringify(meta),
+      Buffer.from(samples.buffer, samples.byteOffset, samples.byteLength),
+      meta.bytes,
+    );
   }
 
   async putSignalFile(meta: SignalMeta, path: string): Promise<void> {
