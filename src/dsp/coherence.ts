@@ -15,7 +15,8 @@
 import { welchDegreesOfFreedom } from './dof.js';
 import { complexFftPlan } from './fft.js';
 import { phaseConsistencyNull, type PhaseConsistencyNull } from './phase-consistency.js';
-import { requireDetrend, requireRate, resolveTapers, splitRealPair, taperSegment, type SpectrogramOptions } from './spectrogram.js';
+import { requireDetrend, requireRate } from './checks.js';
+import { resolveTapers, splitRealPair, taperSegment, type SpectrogramOptions } from './spectrogram.js';
 import { segmentCount, welchFrequencies } from './welch.js';
 
 /** A frequency band, half-open: low ≤ f < high (Hz), as DESIGN.md's band power. */

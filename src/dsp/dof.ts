@@ -3,6 +3,7 @@
  */
 import { chiSquareQuantile } from './special.js';
 import type { AverageKind } from './welch.js';
+import { windowEnergy } from './windows.js';
 
 /** Exact mean and variance of the median of n i.i.d. unit exponentials (order-statistic sums). */
 function exponentialMedianMoments(n: number): { mean: number; variance: number } {
@@ -57,8 +58,7 @@ export function welchDegreesOfFreedom(window: Float64Array, overlapSamples: numb
     throw new RangeError(`segmentCount must be an integer ≥ 1, got ${segmentCount}`);
   }
   if (average !== 'mean' && average !== 'median') throw new RangeError(`average must be 'mean' or 'median', got ${String(average)}`);
-  let energy = 0;
-  for (let t = 0; t < length; t++) energy += window[t]! * window[t]!;
+  const energy = windowEnergy(window);
   if (!(energy > 0)) throw new RangeError('window must have positive energy');
   const shift = length - overlapSamples;
   let denominator = 1;

@@ -17,7 +17,7 @@
  * 199:81–86 (parameterisation by FWHM = 2√(2 ln 2)·σ).
  */
 import { complexFftPlan, type ComplexFftPlan } from './fft.js';
-import { requireRate } from './spectrogram.js';
+import { requireRate } from './checks.js';
 
 /** The wavelet is sampled over ±SUPPORT_SIGMAS·σ_t; the envelope there is exp(−18) ≈ 1.5e−8 of its peak. */
 export const SUPPORT_SIGMAS = 6;

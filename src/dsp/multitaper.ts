@@ -6,6 +6,8 @@ import { weightedDegreesOfFreedom } from './dof.js';
 import { cachedDpss } from './dpss.js';
 import { complexFftPlan, type ComplexFftPlan } from './fft.js';
 import { oneSidedDensityScale, welchFrequencies } from './welch.js';
+import { requireRate } from './checks.js';
+import { defaultTaperCount } from './dpss.js';
 
 export const TAPER_WEIGHTINGS = ['equal', 'eigenvalue', 'adaptive'] as const;
 export type TaperWeighting = typeof TAPER_WEIGHTINGS[number];
@@ -63,9 +65,9 @@ export interface MultitaperPlan {
 function checkOptions(length: number, options: MultitaperOptions): Required<MultitaperOptions> {
   if (!Number.isInteger(length) || length < 2) throw new RangeError(`length must be an integer ≥ 2, got ${length}`);
   const { samplingRate, timeBandwidth } = options;
-  if (!(samplingRate > 0) || !Number.isFinite(samplingRate)) throw new RangeError(`samplingRate must be a finite number > 0, got ${samplingRate}`);
+  requireRate(samplingRate);
   if (!(timeBandwidth > 0) || !Number.isFinite(timeBandwidth)) throw new RangeError(`timeBandwidth must be a finite number > 0, got ${timeBandwidth}`);
-  const taperCount = options.taperCount ?? Math.max(1, Math.floor(2 * timeBandwidth) - 1);
+  const taperCount = options.taperCount ?? defaultTaperCount(timeBandwidth);
   const weighting = options.weighting ?? 'adaptive';
   if (!TAPER_WEIGHTINGS.includes(weighting)) throw new TypeError(`weighting must be one of ${TAPER_WEIGHTINGS.join(', ')}, got ${String(weighting)}`);
   const fftLength = options.fftLength ?? length;

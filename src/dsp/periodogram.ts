@@ -6,6 +6,7 @@ import { perBinDegreesOfFreedom } from './dof.js';
 import { realFftPlan, type RealFftPlan } from './fft.js';
 import { oneSidedDensityScale, welchFrequencies } from './welch.js';
 import { makeWindow, type WindowName } from './windows.js';
+import { windowEnergy } from './windows.js';
 
 export interface PeriodogramOptions {
   /** Hz, finite and > 0 */
@@ -57,8 +58,7 @@ class PeriodogramPlanImpl implements PeriodogramPlan {
     }
     const windowOptions = options.tukeyRatio === undefined ? undefined : { tukeyRatio: options.tukeyRatio };
     this.window = makeWindow(options.window ?? 'rectangular', length, windowOptions);
-    let energy = 0;
-    for (let t = 0; t < length; t++) energy += this.window[t]! * this.window[t]!;
+    const energy = windowEnergy(this.window);
     this.length = length;
     this.fftLength = fftLength;
     this.frequencies = welchFrequencies(fftLength, options.samplingRate);

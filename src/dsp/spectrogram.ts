@@ -6,11 +6,14 @@
  * scipy.signal.spectrogram(x, fs, window, nperseg, noverlap, nfft, detrend, scaling='density',
  * mode='psd'), so results can be checked against it.
  */
-import { detrendInto, DETREND_KINDS, type DetrendKind } from './detrend.js';
+import { detrendInto, type DetrendKind } from './detrend.js';
 import { cachedDpss } from './dpss.js';
 import { complexFftPlan, type ComplexFftPlan } from './fft.js';
 import { oneSidedDensityScale, segmentCount, welchFrequencies } from './welch.js';
 import { makeWindow, WINDOW_NAMES, type WindowName } from './windows.js';
+import { requireDetrend, requireRate } from './checks.js';
+import { defaultTaperCount } from './dpss.js';
+import { windowEnergy } from './windows.js';
 
 /** DPSS tapers for a multitaper spectrogram. */
 export interface SpectrogramTapers {
@@ -121,7 +124,7 @@ export function resolveTapers(segmentSamples: number, window: WindowName | Float
     if (window !== undefined) throw new TypeError('give either window or tapers, not both');
     if (tapers === null || typeof tapers !== 'object') throw new TypeError('tapers must be an object { timeBandwidth, taperCount? }');
     const { timeBandwidth } = tapers;
-    const count = tapers.taperCount ?? Math.max(1, Math.floor(2 * timeBandwidth) - 1);
+    const count = tapers.taperCount ?? defaultTaperCount(timeBandwidth);
     const set = cachedDpss(segmentSamples, timeBandwidth, count);
     return { tapers: set.tapers, energy: 1, concentrations: set.concentrations.slice() };
   }
@@ -134,24 +137,9 @@ export function resolveTapers(segmentSamples: number, window: WindowName | Float
     if (!(WINDOW_NAMES as readonly string[]).includes(name)) throw new TypeError(`window must be one of ${WINDOW_NAMES.join(', ')} or a Float64Array, got ${String(name)}`);
     w = makeWindow(name, segmentSamples, tukeyRatio === undefined ? undefined : { tukeyRatio });
   }
-  let energy = 0;
-  for (const v of w) energy += v * v;
+  const energy = windowEnergy(w);
   if (!Number.isFinite(energy) || energy <= 0) throw new RangeError(`window must have finite, non-zero energy Σw², got ${energy}`);
   return { tapers: [w], energy, concentrations: new Float64Array(0) };
-}
-
-/** @internal shared with the other time–frequency modules */
-export function requireRate(samplingRate: number): void {
-  if (typeof samplingRate !== 'number' || !Number.isFinite(samplingRate) || samplingRate <= 0) {
-    throw new RangeError(`samplingRate must be a finite number > 0 Hz, got ${samplingRate}`);
-  }
-}
-
-/** @internal shared with the other time–frequency modules */
-export function requireDetrend(detrend: DetrendKind): void {
-  if (!(DETREND_KINDS as readonly string[]).includes(detrend)) {
-    throw new TypeError(`detrend must be one of ${DETREND_KINDS.join(', ')}, got ${String(detrend)}`);
-  }
 }
 
 class SpectrogramPlanImpl implements SpectrogramPlan {

@@ -7,8 +7,10 @@
  * scipy.signal.welch with scaling='density', so results can be checked against it.
  */
 
-import { DETREND_KINDS, lineFit, type DetrendKind } from './detrend.js';
+import { lineFit, type DetrendKind } from './detrend.js';
 import { complexFftPlan, type ComplexFftPlan } from './fft.js';
+import { requireDetrend, requireRate } from './checks.js';
+import { windowEnergy } from './windows.js';
 
 export type AverageKind = 'mean' | 'median';
 const AVERAGE_KINDS: readonly AverageKind[] = ['mean', 'median'];
@@ -60,12 +62,6 @@ export interface WelchPlan {
 function requireInteger(value: number, name: string, min: number): void {
   if (!Number.isInteger(value) || value < min) {
     throw new RangeError(`${name} must be an integer ≥ ${min}, got ${value}`);
-  }
-}
-
-function requireRate(samplingRate: number): void {
-  if (typeof samplingRate !== 'number' || !Number.isFinite(samplingRate) || samplingRate <= 0) {
-    throw new RangeError(`samplingRate must be a finite number > 0 Hz, got ${samplingRate}`);
   }
 }
 
@@ -166,9 +162,7 @@ function validate(options: WelchOptions): void {
   if (window.length !== segmentSamples) {
     throw new RangeError(`window length must equal segmentSamples (${segmentSamples}), got ${window.length}`);
   }
-  if (!(DETREND_KINDS as readonly string[]).includes(detrend)) {
-    throw new TypeError(`detrend must be one of ${DETREND_KINDS.join(', ')}, got ${String(detrend)}`);
-  }
+  requireDetrend(detrend);
   if (!AVERAGE_KINDS.includes(average)) {
     throw new TypeError(`average must be one of ${AVERAGE_KINDS.join(', ')}, got ${String(average)}`);
   }
@@ -242,8 +236,7 @@ class WelchPlanImpl implements WelchPlan {
     this.fftLength = fftLength;
     // a private copy: later changes to the caller's array must not change this plan's results
     this.window = options.window.slice();
-    let energy = 0;
-    for (let i = 0; i < segmentSamples; i++) energy += this.window[i]! * this.window[i]!;
+    const energy = windowEnergy(this.window);
     if (!Number.isFinite(energy) || energy <= 0) {
       throw new RangeError(`window must have finite, non-zero energy Σw², got ${energy}`);
     }

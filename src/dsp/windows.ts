@@ -120,6 +120,13 @@ export function makeWindow(name: WindowName, length: number, options?: WindowOpt
  * @throws RangeError when the window is empty or sums to zero
  * @see Harris (1978), Proc. IEEE 66(1):51–83
  */
+/** Σw², the energy that density scaling divides by (summed in index order, the same everywhere). */
+export function windowEnergy(window: ArrayLike<number>): number {
+  let energy = 0;
+  for (let i = 0; i < window.length; i++) energy += window[i]! * window[i]!;
+  return energy;
+}
+
 export function windowFigures(window: Float64Array): WindowFigures {
   const n = window.length;
   if (n < 1) throw new RangeError('window must have at least one sample');

@@ -1,5 +1,6 @@
 import { RecipeInputError } from './errors.js';
 import { isSpectrumRecipe, type Recipe, type SpectrumRecipe } from './schema.js';
+import { defaultTaperCount } from '../dsp/dpss.js';
 
 export interface SignalShape {
   samplingRate: number;
@@ -208,7 +209,7 @@ function resolveSpectrum(recipe: SpectrumRecipe, hash: string, shape: SignalShap
   checkFeatureRanges(recipe, nyquist);
   let taper: { taperCount: number; halfBandwidth: number } | null = null;
   if (recipe.method === 'multitaper') {
-    const taperCount = recipe.taperCount ?? Math.max(1, Math.floor(2 * recipe.timeBandwidth) - 1);
+    const taperCount = recipe.taperCount ?? defaultTaperCount(recipe.timeBandwidth);
     if (taperCount > segmentSamples) {
       throw new RecipeInputError('unfit-for-signal', `taperCount ${taperCount} exceeds the epoch length (${segmentSamples} samples)`, '/taperCount');
     }
