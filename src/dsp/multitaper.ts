@@ -41,10 +41,11 @@ export interface MultitaperResult {
   psd: Float64Array;
   /** equivalent degrees of freedom per bin: 2K (equal), 2(Σλ)²/Σλ² (eigenvalue), 2(Σd²)²/Σd⁴ (adaptive); halved at DC and Nyquist */
   degreesOfFreedom: Float64Array;
-  /** λ_k of the tapers used */
+  /** λ_k of the tapers used (from a plan: shared with it, do not write) */
   concentrations: Float64Array;
   /** adaptive iterations performed (0 for the other weightings) */
   iterations: number;
+  /** from a plan: warnings about this signal only (the plan's own are in plan.warnings); from multitaper(): both */
   warnings: string[];
 }
 
@@ -140,7 +141,7 @@ class MultitaperPlanImpl implements MultitaperPlan {
     const bins = this.binCount;
     const psd = new Float64Array(bins);
     const dof = new Float64Array(bins);
-    const warnings = [...this.warnings];
+    const warnings: string[] = [];
     let iterations = 0;
     switch (this.settings.weighting) {
       case 'equal':
@@ -159,7 +160,7 @@ class MultitaperPlanImpl implements MultitaperPlan {
     for (let b = 0; b < bins; b++) psd[b] = psd[b]! * this.scale[b]!;
     dof[0] = dof[0]! / 2;
     if (this.fftLength % 2 === 0) dof[bins - 1] = dof[bins - 1]! / 2;
-    return { frequencies: this.frequencies, psd, degreesOfFreedom: dof, concentrations: this.concentrations.slice(), iterations, warnings };
+    return { frequencies: this.frequencies, psd, degreesOfFreedom: dof, concentrations: this.concentrations, iterations, warnings };
   }
 
   /** Fills `eigen` with |DFT(h_k·y)|², two tapers per complex transform (real and imaginary parts). */
@@ -295,5 +296,5 @@ export function createMultitaperPlan(length: number, options: MultitaperOptions)
 export function multitaper(x: Float64Array, options: MultitaperOptions): MultitaperResult {
   const plan = new MultitaperPlanImpl(x.length, options);
   const result = plan.compute(x);
-  return { ...result, frequencies: result.frequencies.slice() };
+  return { ...result, frequencies: result.frequencies.slice(), concentrations: result.concentrations.slice(), warnings: [...plan.warnings, ...result.warnings] };
 }

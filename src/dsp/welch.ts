@@ -31,11 +31,12 @@ export interface WelchOptions {
   /** how segment periodograms are combined; median is divided by {@link medianBias} */
   average: AverageKind;
   /**
-   * Optional filter on segments, called in order with the segment's first sample index and one past
-   * its last; segments for which it returns false are skipped and counted as rejected.
+   * Optional filter on segments, called in order with the signal being estimated, the segment's first
+   * sample index and one past its last; segments for which it returns false are skipped and counted
+   * as rejected.
    * @defaultValue undefined: every segment is used
    */
-  acceptSegment?: (start: number, end: number) => boolean;
+  acceptSegment?: (x: Float64Array, start: number, end: number) => boolean;
 }
 
 export interface WelchResult {
@@ -218,7 +219,7 @@ class WelchPlanImpl implements WelchPlan {
   private readonly window: Float64Array;
   private readonly detrend: DetrendKind;
   private readonly average: AverageKind;
-  private readonly acceptSegment: ((start: number, end: number) => boolean) | undefined;
+  private readonly acceptSegment: ((x: Float64Array, start: number, end: number) => boolean) | undefined;
   private readonly scale: Float64Array;
   private readonly fft: ComplexFftPlan;
   private readonly re: Float64Array;
@@ -266,7 +267,7 @@ class WelchPlanImpl implements WelchPlan {
     const total = Math.floor((x.length - this.segmentSamples + this.step) / this.step);
     for (let s = 0; s < total; s++) {
       const start = s * this.step;
-      if (this.acceptSegment === undefined || this.acceptSegment(start, start + this.segmentSamples)) starts.push(start);
+      if (this.acceptSegment === undefined || this.acceptSegment(x, start, start + this.segmentSamples)) starts.push(start);
     }
     const count = starts.length;
     if (count === 0) throw new RangeError(`acceptSegment rejected all ${total} segments: nothing to average`);

@@ -33,10 +33,8 @@ export function createEstimator(samplingRate: number, resolved: ResolvedRecipe<S
   switch (recipe.method) {
     case 'welch': {
       const window = makeWindow(recipe.window, derived.segmentSamples, recipe.tukeyRatio === undefined ? {} : { tukeyRatio: recipe.tukeyRatio });
-      // The filter needs the channel being estimated; the plan calls it during compute(current).
-      let current: Float64Array = new Float64Array(0);
       const plan = createWelchPlan({
-        ...(segmentFilter ? { acceptSegment: (start: number, end: number) => segmentFilter(current, start, end) } : {}),
+        ...(segmentFilter ? { acceptSegment: segmentFilter } : {}),
         samplingRate,
         segmentSamples: derived.segmentSamples,
         overlapSamples: derived.overlapSamples,
@@ -60,7 +58,6 @@ export function createEstimator(samplingRate: number, resolved: ResolvedRecipe<S
         frequencies: plan.frequencies,
         warnings: none,
         estimate: (x) => {
-          current = x;
           const r = plan.compute(x);
           return { psd: r.psd, degreesOfFreedom: dof(r.segmentCount), warnings: none, segments: { used: r.segmentCount, leftOut: r.rejectedSegments } };
         },
@@ -75,13 +72,12 @@ export function createEstimator(samplingRate: number, resolved: ResolvedRecipe<S
         fftLength: derived.fftLength,
         detrend: recipe.detrend,
       });
-      const shared = new Set(plan.warnings);
       return {
         frequencies: plan.frequencies,
         warnings: plan.warnings,
         estimate: (x) => {
           const r = plan.compute(x);
-          return { psd: r.psd, degreesOfFreedom: r.degreesOfFreedom, warnings: r.warnings.filter((w) => !shared.has(w)), segments: { used: 1, leftOut: 0 } };
+          return { psd: r.psd, degreesOfFreedom: r.degreesOfFreedom, warnings: r.warnings, segments: { used: 1, leftOut: 0 } };
         },
       };
     }

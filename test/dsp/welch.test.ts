@@ -152,7 +152,7 @@ describe('welch', () => {
       const x = normals(256 * 10, 3);
       const calls: [number, number][] = [];
       const plan = createWelchPlan(options({
-        acceptSegment: (start, end) => { calls.push([start, end]); return start < 256 * 4 || start >= 256 * 6; },
+        acceptSegment: (_x, start, end) => { calls.push([start, end]); return start < 256 * 4 || start >= 256 * 6; },
       }));
       const r = plan.compute(x);
       expect(calls.length).toBe(segmentCount(x.length, 256, 128));
