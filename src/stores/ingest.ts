@@ -37,7 +37,8 @@ export async function ingestFile(store: Store, raw: string | RawFile, descriptio
   try {
     const size = typeof raw === 'string' ? (await input.stat()).size : raw.size;
     const decoded = description.format === 'float32' ? await decodeFloat32File(input, size, out, description, options.limits) : await decodeEdfFile(input, size, out, description, options.limits);
-    const samplesSha256 = await hashFile(out);
+    // float32 input is written in order and hashed as it goes; EDF is written channel by channel.
+    const samplesSha256 = decoded.samplesSha256 ?? (await hashFile(out));
     const sha256 = signalSha256FromParts(decoded.description, samplesSha256);
     const id = signalIdFromHash(sha256, options.tenant);
     const existing = await store.getSignalMeta(id);
@@ -70,6 +71,8 @@ export interface RawFile {
 interface Decoded {
   description: { samplingRate: number; channels: string[]; unit: string; epochCount: number; samplesPerEpoch: number; events?: SignalEvent[] };
   nonFinite: number;
+  /** SHA-256 of the float64 samples when the decoder wrote them in order */
+  samplesSha256?: string;
 }
 
 async function decodeFloat32File(input: FileHandle, size: number, out: string, d: Extract<IngestDescription, { format: 'float32' }>, limits: SignalLimits): Promise<Decoded> {
@@ -85,6 +88,7 @@ async function decodeFloat32File(input: FileHandle, size: number, out: string, d
   });
   const keep = d.nonFinite === 'keep';
   let nonFinite = 0;
+  const hash = createHash('sha256');
   const output = await open(out, 'w');
   try {
     const raw = Buffer.alloc(CHUNK);
@@ -109,13 +113,15 @@ async function decodeFloat32File(input: FileHandle, size: number, out: string, d
         }
         wide[i] = v;
       }
-      await writeAll(output, new Uint8Array(wide.buffer, 0, count * 8), position * 2);
+      const bytes = new Uint8Array(wide.buffer, 0, count * 8);
+      hash.update(bytes);
+      await writeAll(output, bytes, position * 2);
       position += bytesRead;
     }
   } finally {
     await output.close();
   }
-  return { description: { samplingRate: d.samplingRate, channels: [...d.channels], unit: d.unit ?? 'uV', epochCount: d.epochCount, samplesPerEpoch }, nonFinite };
+  return { description: { samplingRate: d.samplingRate, channels: [...d.channels], unit: d.unit ?? 'uV', epochCount: d.epochCount, samplesPerEpoch }, nonFinite, samplesSha256: hash.digest('hex') };
 }
 
 async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Extract<IngestDescription, { format: 'edf' }>, limits: SignalLimits): Promise<Decoded> {
