@@ -20,6 +20,7 @@ const BLOCKS: readonly Block[] = [
   { name: 'multitaper', file: 'multitaper.ts', exportName: 'benchMultitaper' },
   { name: 'API latency', file: 'api-latency.ts', exportName: 'benchApiLatency' },
   { name: 'Morlet', file: 'morlet.ts', exportName: 'benchMorlet' },
+  { name: 'FFT', file: 'fft.ts', exportName: 'benchFft' },
   { name: '1 GiB upload', file: 'upload.ts', exportName: 'benchUpload' },
   { name: '2-hour recording', file: 'recording.ts', exportName: 'benchRecording' },
   { name: 'load (autocannon)', file: 'load.ts', exportName: 'benchLoad' },
