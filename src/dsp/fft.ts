@@ -353,14 +353,10 @@ class MixedRadixPlan implements ComplexFftPlan {
 
   transform(re: Float64Array, im: Float64Array, inverse = false): void {
     checkBuffers(re, im, this.size, 'transform:');
-    if (inverse) {
-      // ifft(x) = conj(fft(conj(x))): one kernel serves both directions.
-      negate(im, this.size);
-      this.forwardInPlace(re, im);
-      negate(im, this.size);
-    } else {
-      this.forwardInPlace(re, im);
-    }
+    // ifft(x) = swap(fft(swap(x))), swap exchanging real and imaginary parts: one kernel serves both
+    // directions, and swapping costs nothing when the kernel is handed the arrays the other way round.
+    if (inverse) this.forwardInPlace(im, re);
+    else this.forwardInPlace(re, im);
   }
 
   private forwardInPlace(re: Float64Array, im: Float64Array): void {
@@ -385,10 +381,6 @@ class MixedRadixPlan implements ComplexFftPlan {
       im.set(xi.subarray(0, this.size));
     }
   }
-}
-
-function negate(a: Float64Array, n: number): void {
-  for (let i = 0; i < n; i++) a[i] = -a[i]!;
 }
 
 /**
@@ -450,7 +442,13 @@ class BluesteinPlan implements ComplexFftPlan {
   transform(re: Float64Array, im: Float64Array, inverse = false): void {
     const n = this.size;
     checkBuffers(re, im, n, 'transform:');
-    if (inverse) negate(im, n);
+    if (inverse) this.forward(im, re);
+    else this.forward(re, im);
+  }
+
+  /** In place, forward; the inverse hands the arrays over swapped (see MixedRadixPlan.transform). */
+  private forward(re: Float64Array, im: Float64Array): void {
+    const n = this.size;
     const m = this.inner.size;
     const wr = this.workRe, wi = this.workIm;
     for (let k = 0; k < n; k++) {
@@ -476,7 +474,6 @@ class BluesteinPlan implements ComplexFftPlan {
       re[k] = xr * cr - xi * ci;
       im[k] = xr * ci + xi * cr;
     }
-    if (inverse) negate(im, n);
   }
 }
 
