@@ -44,18 +44,19 @@ def run():
         m = np.arange(-half, half + 1)
         envelope = np.exp(-(m / fs) ** 2 / (2 * sigma ** 2))
         psi = envelope * np.exp(2j * np.pi * f * m / fs) / envelope.sum()
-        # the same period as the TypeScript side: L >= samples + M keeps outputs half..half+samples-1
-        # free of aliases; a wavelet longer than L is folded onto itself (periodised)
-        size = transform_length(samples + half)
-        folded = np.zeros(-(-psi.size // size) * size, dtype=complex)
-        folded[:psi.size] = psi
-        bank.append((size, half, scipy.fft.fft(folded.reshape(-1, size).sum(axis=0))))
-    sizes = sorted({size for size, _, _ in bank})
+        # as the TypeScript side: only lags |k| <= kept = min(M, samples - 1) meet the signal, laid out
+        # at h[k mod L]; L >= samples + kept keeps outputs 0..samples-1 free of aliases
+        kept = min(half, samples - 1)
+        size = transform_length(samples + kept)
+        kernel = np.zeros(size, dtype=complex)
+        kernel[np.arange(-kept, kept + 1) % size] = psi[half - kept:half + kept + 1]
+        bank.append((size, scipy.fft.fft(kernel)))
+    sizes = sorted({size for size, _ in bank})
     totals = np.zeros(count)
     for e in range(epochs):
         spectra = {size: scipy.fft.fft(data[e], size, axis=-1) for size in sizes}
-        for j, (size, half, spectrum) in enumerate(bank):
-            w = scipy.fft.ifft(spectra[size] * spectrum, axis=-1)[:, half:half + samples]
+        for j, (size, spectrum) in enumerate(bank):
+            w = scipy.fft.ifft(spectra[size] * spectrum, axis=-1)[:, :samples]
             power = 2.0 * (w.real ** 2 + w.imag ** 2)
             totals[j] += power.sum()
     return time.perf_counter() - start, totals

@@ -12,6 +12,12 @@
  * P(t, f) = POWER_FACTOR·|w(t, f)|² = 2·|w|², which is A²/2 for that sinusoid: the mean square of
  * the sinusoid, the same quantity a one-sided PSD integrates to over the sinusoid's line.
  *
+ * Computation. w[n] = Σ_{m<N} x[m]·ψ̃[n − m] for an epoch of N samples, zero outside it (the
+ * definition, with the full ±M wavelet and its G). Only lags |n − m| ≤ N − 1 occur, so a wavelet
+ * longer than the epoch (M ≥ N) is cut to its central ±(N − 1) samples without changing a single
+ * term; with R = min(M, N − 1) one circular convolution of period L ≥ N + R gives every w[n] free of
+ * aliases (see the plan's constructor).
+ *
  * References: C. Tallon-Baudry, O. Bertrand, C. Delpuech & J. Pernier (1996), J. Neurosci.
  * 16:4240–4249 (σ_f = 1/(2πσ_t), constant f/σ_f; from memory); M. X Cohen (2019), NeuroImage
  * 199:81–86 (parameterisation by FWHM = 2√(2 ln 2)·σ).
@@ -190,31 +196,32 @@ function transformLength(n: number): number {
 interface WaveletSpectrum {
   readonly re: Float64Array;
   readonly im: Float64Array;
-  readonly halfWidth: number;
 }
 
 const SPECTRUM_CACHE_LIMIT = 256;
 const spectrumCache = new Map<string, WaveletSpectrum>();
 
 /**
- * DFT (length fftLength) of the wavelet laid out as h[j mod L] += ψ̃[j − M], j = 0..2M, cached per
- * (fftLength, fs, f, n_c). A wavelet longer than L is folded (added) onto itself: the circular
- * convolution is then the L-periodised linear one, which is all the reader needs (see convolve).
+ * DFT (length fftLength) of the central part of the wavelet laid out around index 0:
+ * h[k mod L] = ψ̃[k] for |k| ≤ kept (kept ≤ M, 2·kept < L, so nothing overlaps). The samples are
+ * those of the full ±M wavelet, G included: only the lags beyond `kept` are left out. Cached per
+ * (fftLength, kept, fs, f, n_c).
  */
-function waveletSpectrum(fftLength: number, samplingRate: number, frequency: number, cycles: number): WaveletSpectrum {
-  const key = `${fftLength}|${samplingRate}|${frequency}|${cycles}`;
+function waveletSpectrum(fftLength: number, kept: number, samplingRate: number, frequency: number, cycles: number): WaveletSpectrum {
+  const key = `${fftLength}|${kept}|${samplingRate}|${frequency}|${cycles}`;
   let entry = spectrumCache.get(key);
   if (entry === undefined) {
     const wavelet = morletWavelet(frequency, cycles, samplingRate);
+    const M = wavelet.halfWidth;
     const re = new Float64Array(fftLength);
     const im = new Float64Array(fftLength);
-    for (let j = 0; j < wavelet.re.length; j++) {
-      const at = j % fftLength;
-      re[at] = re[at]! + wavelet.re[j]!;
-      im[at] = im[at]! + wavelet.im[j]!;
+    for (let k = -kept; k <= kept; k++) {
+      const at = k < 0 ? k + fftLength : k;
+      re[at] = wavelet.re[k + M]!;
+      im[at] = wavelet.im[k + M]!;
     }
     complexFftPlan(fftLength).transform(re, im);
-    entry = { re, im, halfWidth: wavelet.halfWidth };
+    entry = { re, im };
     if (spectrumCache.size >= SPECTRUM_CACHE_LIMIT) spectrumCache.delete(spectrumCache.keys().next().value!);
     spectrumCache.set(key, entry);
   }
@@ -299,12 +306,14 @@ class MorletPlanImpl implements MorletPlan {
       this.sigmaTime[j] = sigma;
       this.sigmaFrequency[j] = f / c;
       const halfWidth = Math.ceil(SUPPORT_SIGMAS * sigma * samplingRate);
-      // Only outputs n + M, n < length, of the linear convolution (length + 2M − 1 points) are read.
-      // With period L ≥ length + M the circular result there has no alias: the images n + M ± L fall
-      // outside [0, length + 2M − 1). That saves M points per transform over the full linear length.
-      const fftLength = transformLength(length + halfWidth);
+      // Output n < length is Σ_m x[m]·ψ̃[n − m] over m < length, so only lags |n − m| ≤ length − 1
+      // ever meet the signal: lags beyond R = min(M, length − 1) can be left out exactly. With the
+      // kernel at h[k mod L] = ψ̃[k], |k| ≤ R, the circular sum at n adds the lag n − m and its images
+      // n − m ± L; for L ≥ length + R every image has |n − m ± L| > R, where h is zero.
+      const kept = Math.min(halfWidth, length - 1);
+      const fftLength = transformLength(length + kept);
       this.fftLengths.push(fftLength);
-      this.spectra.push(waveletSpectrum(fftLength, samplingRate, f, c));
+      this.spectra.push(waveletSpectrum(fftLength, kept, samplingRate, f, c));
       longest = Math.max(longest, fftLength);
       if (!this.signalSpectra.has(fftLength)) {
         this.signalSpectra.set(fftLength, { plan: complexFftPlan(fftLength), re: new Float64Array(fftLength), im: new Float64Array(fftLength) });
@@ -324,8 +333,8 @@ class MorletPlanImpl implements MorletPlan {
     if (x.length !== this.length) throw new RangeError(`x must have ${this.length} samples, got ${x.length}`);
   }
 
-  /** Runs the convolutions, handing each frequency's full-rate result (re, im, offset M, 1/L) to `sink`. */
-  private convolve(x: Float64Array, sink: (j: number, re: Float64Array, im: Float64Array, offset: number, scale: number) => void): void {
+  /** Runs the convolutions, handing each frequency's full-rate result (re, im at 0..length−1, times L) and 1/L to `sink`. */
+  private convolve(x: Float64Array, sink: (j: number, re: Float64Array, im: Float64Array, scale: number) => void): void {
     for (const [size, s] of this.signalSpectra) {
       s.re.set(x);
       s.re.fill(0, x.length, size);
@@ -344,7 +353,7 @@ class MorletPlanImpl implements MorletPlan {
         workIm[k] = a * d + b * c;
       }
       signal.plan.transform(workRe, workIm, true);
-      sink(j, workRe, workIm, h.halfWidth, 1 / size);
+      sink(j, workRe, workIm, 1 / size);
     }
   }
 
@@ -355,10 +364,10 @@ class MorletPlanImpl implements MorletPlan {
       throw new RangeError(`out must be a Float64Array of at least ${T * F} elements`);
     }
     const power = out ?? new Float64Array(T * F);
-    this.convolve(x, (j, re, im, offset, scale) => {
+    this.convolve(x, (j, re, im, scale) => {
       const factor = POWER_FACTOR * scale * scale;
       for (let i = 0; i < T; i++) {
-        const n = i * d + offset;
+        const n = i * d;
         power[i * F + j] = factor * (re[n]! * re[n]! + im[n]! * im[n]!);
       }
     });
@@ -370,9 +379,9 @@ class MorletPlanImpl implements MorletPlan {
     const F = this.frequencyCount, d = this.decimation, T = this.timeCount;
     const outRe = new Float64Array(T * F);
     const outIm = new Float64Array(T * F);
-    this.convolve(x, (j, re, im, offset, scale) => {
+    this.convolve(x, (j, re, im, scale) => {
       for (let i = 0; i < T; i++) {
-        const n = i * d + offset;
+        const n = i * d;
         outRe[i * F + j] = re[n]! * scale;
         outIm[i * F + j] = im[n]! * scale;
       }
@@ -386,10 +395,10 @@ class MorletPlanImpl implements MorletPlan {
     const power = new Float64Array(T * F);
     const outRe = new Float64Array(T * F);
     const outIm = new Float64Array(T * F);
-    this.convolve(x, (j, re, im, offset, scale) => {
+    this.convolve(x, (j, re, im, scale) => {
       const factor = POWER_FACTOR * scale * scale;
       for (let i = 0; i < T; i++) {
-        const n = i * d + offset;
+        const n = i * d;
         power[i * F + j] = factor * (re[n]! * re[n]! + im[n]! * im[n]!);
         outRe[i * F + j] = re[n]! * scale;
         outIm[i * F + j] = im[n]! * scale;
@@ -401,7 +410,7 @@ class MorletPlanImpl implements MorletPlan {
 
 /**
  * A reusable Morlet plan for signals of `length` samples. Wavelet spectra are cached per
- * (transform length, fs, f, n_c) across plans; each call transforms the signal once per distinct
+ * (transform length, kept lags, fs, f, n_c) across plans; each call transforms the signal once per distinct
  * transform length (frequencies whose wavelets need about the same padding share one), then does
  * one inverse transform per frequency. Not re-entrant: use one plan per thread.
  *

@@ -103,9 +103,9 @@ describe('morletPower', () => {
   describe('when compared with a direct time-domain convolution', () => {
     it.each([
       ['growing cycles', 900, { low: 3, high: 80, count: 6 }],
-      // at 2 Hz the wavelet (M = 836 samples each side) is longer than the epoch: its spectrum is folded
+      // at 2 Hz the wavelet (M = 836 samples each side) is longer than the epoch: only ±299 lags are kept
       ['wavelets longer than the epoch', 300, [2, 2.5, 60]],
-    ] as const)('should agree to 1e-10 at every time and frequency (%s)', (_name, length, frequencies) => {
+    ] as const)('should agree to 1e-12 at every time and frequency (%s)', (_name, length, frequencies) => {
       const fs = 250;
       const x = noise(length, 21);
       const options: MorletOptions = { samplingRate: fs, frequencies, cycles: { low: 7, high: 10 } };
@@ -127,7 +127,74 @@ describe('morletPower', () => {
           dRe[n * F + j] = sr; dIm[n * F + j] = si;
         }
       }
-      expect(worstScaledError(re, im, dRe, dIm)).toBeLessThan(1e-10);
+      expect(worstScaledError(re, im, dRe, dIm)).toBeLessThan(1e-12);
+    });
+  });
+
+  describe('when the wavelet is longer than the epoch (its lags beyond N − 1 never meet the signal)', () => {
+    /**
+     * w[n] = Σ_{m<N} x[m]·ψ̃[n − m] straight from the published formula (Tallon-Baudry et al. 1996):
+     * ψ̃[k] = exp(2πi·f·k/fs)·exp(−(k/fs)²/(2σ_t²))/G, σ_t = n_c/(2πf), |k| ≤ M = ceil(6σ_t·fs), with G
+     * the envelope sum over the full ±M, built here without the module's wavelet code.
+     */
+    function direct(x: Float64Array, fs: number, f: number, cycles: number): { re: Float64Array; im: Float64Array; M: number } {
+      const sigma = cycles / (2 * Math.PI * f);
+      const M = Math.ceil(6 * sigma * fs);
+      let G = 0;
+      for (let k = -M; k <= M; k++) G += Math.exp(-((k / fs) ** 2) / (2 * sigma * sigma));
+      const re = new Float64Array(x.length), im = new Float64Array(x.length);
+      for (let n = 0; n < x.length; n++) {
+        let sr = 0, si = 0;
+        for (let m = 0; m < x.length; m++) {
+          const k = n - m;
+          if (Math.abs(k) > M) continue;
+          const envelope = Math.exp(-((k / fs) ** 2) / (2 * sigma * sigma)) / G;
+          const angle = (2 * Math.PI * f * k) / fs;
+          sr += x[m]! * envelope * Math.cos(angle); si += x[m]! * envelope * Math.sin(angle);
+        }
+        re[n] = sr; im[n] = si;
+      }
+      return { re, im, M };
+    }
+
+    /** column j of a [time][frequency] field */
+    function column(field: Float64Array, F: number, j: number): Float64Array {
+      return Float64Array.from({ length: field.length / F }, (_, i) => field[i * F + j]!);
+    }
+
+    it.each([
+      // M = 836 and 669 against N = 300; 60 Hz (M = 28) is an ordinary short wavelet beside them
+      [300, 250, [2, 2.5, 60]],
+      // 500 Hz, N = 1000: M = 1672 (2 Hz), 1013 (3.3 Hz, just over N − 1), 998 (3.35 Hz, just under)
+      [1000, 500, [2, 3.3, 3.35, 45]],
+    ] as const)('should equal the direct sum with the full wavelet to 1e-12 of each frequency\'s largest (N = %s, %s Hz)', (length, fs, frequencies) => {
+      const x = noise(length, 8);
+      const plan = createMorletPlan(length, { samplingRate: fs, frequencies, cycles: 7 });
+      const w = plan.powerAndCoefficients(x);
+      const F = plan.frequencyCount;
+      frequencies.forEach((f, j) => {
+        const d = direct(x, fs, f, 7);
+        if (f < 3.34) expect(d.M).toBeGreaterThan(length - 1);
+        expect(worstScaledError(column(w.re, F, j), column(w.im, F, j), d.re, d.im)).toBeLessThan(1e-12);
+        const power = column(w.power, F, j);
+        let peak = 0, worst = 0;
+        for (let i = 0; i < length; i++) {
+          const p = POWER_FACTOR * (d.re[i]! ** 2 + d.im[i]! ** 2);
+          peak = Math.max(peak, p); worst = Math.max(worst, Math.abs(power[i]! - p));
+        }
+        expect(worst / peak).toBeLessThan(1e-12);
+      });
+    });
+
+    it('should keep the lags each epoch length needs when two lengths share a transform length', () => {
+      // 2 Hz at 500 Hz (M = 1672): N = 1000 keeps ±999 lags and N = 1020 keeps ±1019, both in a
+      // 2048-point transform; the second plan must not reuse the first one's shorter kernel
+      const fs = 500;
+      createMorletPlan(1000, { samplingRate: fs, frequencies: [2], cycles: 7 }).power(noise(1000, 5));
+      const x = noise(1020, 6);
+      const w = createMorletPlan(1020, { samplingRate: fs, frequencies: [2], cycles: 7 }).coefficients(x);
+      const d = direct(x, fs, 2, 7);
+      expect(worstScaledError(w.re, w.im, d.re, d.im)).toBeLessThan(1e-12);
     });
   });
 
