@@ -23,6 +23,7 @@ const EnvSchema = z.object({
   STORE: z.enum(['filesystem', 'redis']).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   WORKER_THREADS: int(Math.max(1, availableParallelism())),
+  JOB_THREADS: int(Math.max(1, availableParallelism())),
   JOB_ATTEMPTS: int(3),
   BODY_LIMIT_BYTES: int(256 * 1024 * 1024),
   MAX_CHANNELS: int(512),
@@ -59,6 +60,8 @@ export interface Config {
   store: StoreConfig;
   logLevel: z.infer<typeof EnvSchema>['LOG_LEVEL'];
   workerThreads: number;
+  /** threads one time–frequency job may spread its channels over, its own included */
+  jobThreads: number;
   jobAttempts: number;
   bodyLimitBytes: number;
   signalLimits: SignalLimits;
@@ -138,6 +141,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     store: storeKind === 'redis' ? { kind: 'redis', url: e.REDIS_URL!, prefix: e.REDIS_PREFIX } : { kind: 'filesystem', dataDir },
     logLevel: e.LOG_LEVEL,
     workerThreads: e.WORKER_THREADS,
+    jobThreads: e.JOB_THREADS,
     jobAttempts: e.JOB_ATTEMPTS,
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
     signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE },

@@ -37,7 +37,7 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
     if (!(await bull.connected())) logger.warn({ redis: redactUrl(config.redisUrl) }, 'Redis does not answer yet; submissions get 503 until it does');
     queue = bull;
   } else {
-    pool = createComputePool(config.workerThreads);
+    pool = createComputePool(config.workerThreads, config.jobThreads);
     queue = await EmbeddedQueue.open({
       store,
       storeConfig: config.store,
@@ -74,7 +74,7 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
 /** A `rhythmetric worker` process: consumes the BullMQ queue, computes on its own thread pool. */
 export function startWorker(config: Readonly<Config>, logger: Logger = createLogger(config)) {
   if (!config.redisUrl) throw new Error('rhythmetric worker needs REDIS_URL (embedded mode computes inside the API process)');
-  const pool = createComputePool(config.workerThreads);
+  const pool = createComputePool(config.workerThreads, config.jobThreads);
   const handle = startBullWorker({
     url: config.redisUrl,
     prefix: config.redisPrefix,

@@ -30,6 +30,8 @@ export interface AnalyzeContext {
   onProgress?: ProgressListener;
   /** called between channels; throw from it to abandon the work (cancellation) */
   checkpoint?: () => void;
+  /** threads a time–frequency job may spread its channels over, this one included; the result does not depend on it. @defaultValue 1 */
+  threads?: number;
 }
 
 /** Sums over the used epochs of every channel's spectrum, and (when asked) each epoch's own. */
@@ -276,13 +278,14 @@ export function analyze(original: Signal, resolved: ResolvedRecipe, context: Ana
   const signal = prepared.signal;
   let result: FeatureRecord['result'];
   let attachments: Attachment[] = [];
+  let threads: number | undefined;
   if (isSpectrumRecipe(resolved.recipe)) {
     const spectrum = resolved as ResolvedRecipe<SpectrumRecipe>;
     const spectra = computeSpectra(signal, spectrum, context, prepared);
     spectra.warnings.unshift(...prepared.warnings);
     result = summarize(signal, spectrum, spectra);
   } else {
-    ({ result, attachments } = analyzeTimeFrequency(signal, resolved as ResolvedRecipe<TimeFrequencyRecipe | ConnectivityRecipe>, prepared, context));
+    ({ result, attachments, threads } = analyzeTimeFrequency(signal, resolved as ResolvedRecipe<TimeFrequencyRecipe | ConnectivityRecipe>, prepared, context));
   }
   if (prepared.epoching) result.epoching = prepared.epoching;
   return {
@@ -300,6 +303,7 @@ export function analyze(original: Signal, resolved: ResolvedRecipe, context: Ana
       durationMs: Math.round((performance.now() - started) * 1000) / 1000,
       host: hostname(),
       mode: context.mode,
+      ...(threads !== undefined ? { threads } : {}),
     },
   };
 }

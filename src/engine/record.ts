@@ -80,6 +80,8 @@ export interface Provenance {
   durationMs: number;
   host: string;
   mode: 'embedded' | 'distributed' | 'local';
+  /** threads that computed at least one time–frequency channel (time–frequency jobs only) */
+  threads?: number;
 }
 
 /** A binary matrix stored beside the record (GET /v1/jobs/:id/attachments/:name). */

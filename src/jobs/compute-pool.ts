@@ -14,8 +14,12 @@ export interface ComputePool {
 /**
  * Worker threads that run the spectral work off the event loop. From the TypeScript sources (tsx,
  * vitest) the threads load the `.ts` task through tsx; from `dist/` they load the compiled `.js`.
+ *
+ * @param threads - jobs computed at once
+ * @param jobThreads - threads one time–frequency job may spread its channels over, its own
+ *   included (helper threads it starts on demand); 1 keeps every job on its pool thread
  */
-export function createComputePool(threads = Math.max(1, availableParallelism())): ComputePool {
+export function createComputePool(threads = Math.max(1, availableParallelism()), jobThreads = 1): ComputePool {
   const fromSource = import.meta.url.endsWith('.ts');
   const pool = new Piscina({
     filename: new URL(fromSource ? './pool-task.ts' : './pool-task.js', import.meta.url).href,
@@ -30,7 +34,7 @@ export function createComputePool(threads = Math.max(1, availableParallelism()))
       const { port1, port2 } = new MessageChannel();
       port1.on('message', (fraction: number) => onProgress(fraction));
       try {
-        const input: PoolTaskInput = { spec, store, mode, port: port2 };
+        const input: PoolTaskInput = { spec, store, mode, jobThreads, port: port2 };
         return (await pool.run(input, { transferList: [port2], ...(signal ? { signal } : {}) })) as PoolTaskOutput;
       } finally {
         port1.close();

@@ -9,6 +9,8 @@ export interface PoolTaskInput {
   spec: JobSpec;
   store: StoreConfig;
   mode: 'embedded' | 'distributed';
+  /** threads the job may spread time–frequency channels over, its own included */
+  jobThreads: number;
   port: MessagePort;
 }
 
@@ -27,7 +29,7 @@ function storeFor(config: StoreConfig): Store {
 }
 
 /** Progress is sent at most every 1 % so that many-channel jobs do not flood the port. */
-export default async function poolTask({ spec, store, mode, port }: PoolTaskInput): Promise<PoolTaskOutput> {
+export default async function poolTask({ spec, store, mode, jobThreads, port }: PoolTaskInput): Promise<PoolTaskOutput> {
   let sent = -1;
   try {
     const outcome = await runJob(spec, storeFor(store), mode, (fraction) => {
@@ -36,7 +38,7 @@ export default async function poolTask({ spec, store, mode, port }: PoolTaskInpu
         sent = step;
         port.postMessage(fraction);
       }
-    });
+    }, { threads: jobThreads });
     return { ok: true, outcome };
   } catch (error) {
     if (error instanceof PermanentJobError) return { ok: false, problem: error.problem };

@@ -43,7 +43,7 @@ export async function runJob(
   store: Store,
   mode: 'embedded' | 'distributed',
   onProgress: ProgressListener = () => {},
-  checkpoint?: () => void,
+  options: { checkpoint?: () => void; threads?: number } = {},
 ): Promise<JobOutcome> {
   const existing = await store.getDocument('records', spec.recordKey);
   if (existing !== null) {
@@ -63,7 +63,8 @@ export async function runJob(
       recipeId: spec.recipeId,
       mode,
       onProgress,
-      ...(checkpoint ? { checkpoint } : {}),
+      ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
+      ...(options.threads !== undefined ? { threads: options.threads } : {}),
     });
     // Attachments first: once the record exists, everything it names can be fetched.
     for (const a of record.attachments ?? []) {

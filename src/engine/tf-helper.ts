@@ -1,0 +1,53 @@
+/**
+ * Entry of a time–frequency helper thread (started by fan-out.ts). For each posted job it takes
+ * channels from the shared counter until none are left, and reports each finished channel on the
+ * job's port before counting it as completed.
+ */
+import { parentPort } from 'node:worker_threads';
+import type { Attachment } from './record.js';
+import { ABORT, COMPLETED, NEXT, TRIALS, type HelperReport, type HelperTask } from './fan-out.js';
+import { computeChannel, createChannelWork } from './tf-channels.js';
+
+/** Thrown inside a trial loop when the job's thread has given up; ends the task quietly. */
+class Abandoned extends Error {}
+
+function transferables(attachments: Attachment[]): ArrayBuffer[] {
+  const buffers = new Set<ArrayBuffer>();
+  for (const a of attachments) {
+    const buffer = a.data?.buffer;
+    if (buffer instanceof ArrayBuffer) buffers.add(buffer);
+  }
+  return [...buffers];
+}
+
+function run({ setup, data, control, port }: HelperTask): void {
+  try {
+    const C = setup.channels.length;
+    const n = setup.samplesPerEpoch;
+    const work = createChannelWork(setup);
+    for (let c = Atomics.add(control, NEXT, 1); c < C && Atomics.load(control, ABORT) === 0; c = Atomics.add(control, NEXT, 1)) {
+      const outcome = computeChannel(setup, work, c, (i) => {
+        const start = (setup.used[i]! * C + c) * n;
+        return data.subarray(start, start + n);
+      }, () => {
+        if (Atomics.load(control, ABORT) !== 0) throw new Abandoned();
+        Atomics.add(control, TRIALS, 1);
+      });
+      const report: HelperReport = { c, outcome };
+      port.postMessage(report, transferables(outcome.attachments));
+      Atomics.add(control, COMPLETED, 1);
+      Atomics.notify(control, COMPLETED);
+    }
+  } catch (error) {
+    if (error instanceof Abandoned) return;
+    const e = error instanceof Error ? error : new Error(String(error));
+    const details = e as Error & { code?: string; pointer?: string | null };
+    const report: HelperReport = { error: { name: e.name, message: e.message, ...(details.code !== undefined ? { code: details.code } : {}), ...(details.pointer !== undefined ? { pointer: details.pointer } : {}) } };
+    port.postMessage(report);
+    Atomics.notify(control, COMPLETED);
+  } finally {
+    port.close();
+  }
+}
+
+parentPort?.on('message', run);

@@ -1,0 +1,113 @@
+import { describe, expect, it } from 'vitest';
+import { createRandom } from '../../src/common/random.js';
+import { analyze } from '../../src/engine/analyze.js';
+import type { FeatureRecord } from '../../src/engine/record.js';
+import { normalizeRecipe } from '../../src/recipes/normalize.js';
+import { resolveRecipe } from '../../src/recipes/resolve.js';
+import type { Signal } from '../../src/signals/signal.js';
+
+// Invented study: 5 channels × 12 trials of white noise at 250 Hz, with a 10 Hz tone in channel 2,
+// so the channels differ and a channel written to the wrong slot would show.
+const FS = 250;
+const CHANNELS = ['Fz', 'Cz', 'Pz', 'O1', 'O2'];
+const TRIALS = 12;
+const SAMPLES = 250;
+
+function study(): Signal {
+  const random = createRandom(42);
+  const data = new Float64Array(TRIALS * CHANNELS.length * SAMPLES);
+  for (let e = 0; e < TRIALS; e++) {
+    for (let c = 0; c < CHANNELS.length; c++) {
+      for (let i = 0; i < SAMPLES; i++) {
+        const tone = c === 2 ? 3 * Math.cos((2 * Math.PI * 10 * i) / FS + e) : 0;
+        data[(e * CHANNELS.length + c) * SAMPLES + i] = random.normal() + tone;
+      }
+    }
+  }
+  return { samplingRate: FS, channels: CHANNELS, unit: 'uV', epochCount: TRIALS, samplesPerEpoch: SAMPLES, data };
+}
+
+function run(recipe: unknown, threads: number, extra: { checkpoint?: () => void; onProgress?: (f: number) => void } = {}) {
+  const signal = study();
+  const pinned = normalizeRecipe(recipe);
+  return analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_test', sha256: 'x', recipeId: pinned.id, mode: 'local', threads, ...extra }) as FeatureRecord;
+}
+
+const morlet = {
+  method: 'morlet',
+  frequencies: { low: 4, high: 30, count: 6 },
+  cycles: 5,
+  phaseConsistency: true,
+  perTrial: true,
+  baseline: { start: 0, end: 0.2, mode: 'zscore' },
+  summary: [{ name: 'alpha', low: 8, high: 13, start: 0.3, end: 0.7 }],
+};
+const spectrogram = { method: 'spectrogram', windowSeconds: 0.25, stepSeconds: 0.125, frequencyRange: [0, 40] };
+
+function attachmentBytes(record: FeatureRecord): string[] {
+  return (record.attachments ?? []).map((a) => `${a.name}:${a.sha256}:${Buffer.from(a.data!.buffer, a.data!.byteOffset, a.data!.byteLength).toString('base64')}`);
+}
+
+describe('when a time–frequency job spreads its channels over helper threads', () => {
+  // The record is defined by the recipe and the samples alone (DESIGN.md: same recipe, same numbers,
+  // bit for bit); the thread count is an execution detail and must not show in it.
+  it.each([
+    ['morlet with phase consistency, per-trial power and a z-score baseline', morlet],
+    ['a spectrogram', spectrogram],
+  ])('should give %s the same result hash and attachment bytes on 1, 2 and 4 threads', (_name, recipe) => {
+    const one = run(recipe, 1);
+    for (const threads of [2, 4]) {
+      const many = run(recipe, threads);
+      expect(many.resultHash).toBe(one.resultHash);
+      expect(many.result).toEqual(one.result);
+      expect(attachmentBytes(many)).toEqual(attachmentBytes(one));
+    }
+  });
+
+  it('should write every NaN of a matrix as the one pattern 0x7FF8000000000000, whichever code made it', () => {
+    // Edge cells of a z-scored matrix are NaN. IEEE 754 leaves a NaN's sign and payload to the
+    // implementation, and V8's interpreter and optimized code differ in the sign they leave.
+    const record = run(morlet, 1);
+    let nans = 0;
+    for (const a of record.attachments ?? []) {
+      if (a.dtype !== 'float64-le') continue;
+      const values = a.data as Float64Array;
+      const view = new DataView(values.buffer, values.byteOffset, values.byteLength);
+      for (let i = 0; i < values.length; i++) {
+        if (!Number.isNaN(values[i])) continue;
+        nans++;
+        expect(view.getBigUint64(8 * i, true)).toBe(0x7ff8000000000000n);
+      }
+    }
+    expect(nans).toBeGreaterThan(0);
+  });
+
+  it('should take channels on a helper thread once one is running, and say how many threads computed', async () => {
+    expect(run(morlet, 1).provenance.threads).toBe(1);
+    // A helper starts on first use and may miss a short job while it loads; once it runs it takes
+    // its share. Bounded retries keep a slow machine from failing this, not a broken helper.
+    let threads = 0;
+    for (let attempt = 0; attempt < 40 && threads < 2; attempt++) {
+      threads = run(morlet, 2).provenance.threads ?? 0;
+      if (threads < 2) await new Promise((resolve) => setTimeout(resolve, 250));
+    }
+    expect(threads).toBe(2);
+  });
+
+  it('should report progress that never goes back and ends at 1', () => {
+    const seen: number[] = [];
+    run(morlet, 3, { onProgress: (f) => seen.push(f) });
+    expect(seen.length).toBeGreaterThan(0);
+    for (let i = 1; i < seen.length; i++) expect(seen[i]!).toBeGreaterThanOrEqual(seen[i - 1]!);
+    expect(seen.at(-1)).toBe(1);
+  });
+
+  it('should stop when the checkpoint throws, and compute the next job in full', () => {
+    let calls = 0;
+    const cancel = () => {
+      if (++calls === 5) throw new Error('canceled by test');
+    };
+    expect(() => run(morlet, 2, { checkpoint: cancel })).toThrow('canceled by test');
+    expect(run(morlet, 2).resultHash).toBe(run(morlet, 1).resultHash);
+  });
+});
