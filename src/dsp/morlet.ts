@@ -193,21 +193,20 @@ function transformLength(n: number): number {
   return best;
 }
 
-interface WaveletSpectrum {
-  readonly re: Float64Array;
-  readonly im: Float64Array;
-}
-
 const SPECTRUM_CACHE_LIMIT = 256;
-const spectrumCache = new Map<string, WaveletSpectrum>();
+const spectrumCache = new Map<string, Float64Array>();
 
 /**
  * DFT (length fftLength) of the central part of the wavelet laid out around index 0:
  * h[k mod L] = ψ̃[k] for |k| ≤ kept (kept ≤ M, 2·kept < L, so nothing overlaps). The samples are
  * those of the full ±M wavelet, G included: only the lags beyond `kept` are left out. Cached per
  * (fftLength, kept, fs, f, n_c).
+ *
+ * The DFT is real: ψ̃[−k] = conj ψ̃[k] makes h conjugate-symmetric about 0, so H[k] = conj H[k]
+ * (common practice: the DFT of a Hermitian sequence is real). Only the real part is kept; the
+ * imaginary part the FFT returns is rounding.
  */
-function waveletSpectrum(fftLength: number, kept: number, samplingRate: number, frequency: number, cycles: number): WaveletSpectrum {
+function waveletSpectrum(fftLength: number, kept: number, samplingRate: number, frequency: number, cycles: number): Float64Array {
   const key = `${fftLength}|${kept}|${samplingRate}|${frequency}|${cycles}`;
   let entry = spectrumCache.get(key);
   if (entry === undefined) {
@@ -221,7 +220,7 @@ function waveletSpectrum(fftLength: number, kept: number, samplingRate: number, 
       im[at] = wavelet.im[k + M]!;
     }
     complexFftPlan(fftLength).transform(re, im);
-    entry = { re, im };
+    entry = re;
     if (spectrumCache.size >= SPECTRUM_CACHE_LIMIT) spectrumCache.delete(spectrumCache.keys().next().value!);
     spectrumCache.set(key, entry);
   }
@@ -266,7 +265,7 @@ class MorletPlanImpl implements MorletPlan {
   readonly edgeSigmas: number;
   readonly edgeMask: Uint8Array;
   /** per frequency: transform length and wavelet spectrum */
-  private readonly spectra: WaveletSpectrum[];
+  private readonly spectra: Float64Array[];
   private readonly fftLengths: number[];
   /** distinct transform lengths, each with its plan and the signal's spectrum (filled per call) */
   private readonly signalSpectra = new Map<number, { plan: ComplexFftPlan; re: Float64Array; im: Float64Array }>();
@@ -346,11 +345,11 @@ class MorletPlanImpl implements MorletPlan {
       const size = this.fftLengths[j]!;
       const signal = this.signalSpectra.get(size)!;
       const h = this.spectra[j]!;
-      const xr = signal.re, xi = signal.im, hr = h.re, hi = h.im;
+      const xr = signal.re, xi = signal.im;
       for (let k = 0; k < size; k++) {
-        const a = xr[k]!, b = xi[k]!, c = hr[k]!, d = hi[k]!;
-        workRe[k] = a * c - b * d;
-        workIm[k] = a * d + b * c;
+        const g = h[k]!;
+        workRe[k] = xr[k]! * g;
+        workIm[k] = xi[k]! * g;
       }
       signal.plan.transform(workRe, workIm, true);
       sink(j, workRe, workIm, 1 / size);
