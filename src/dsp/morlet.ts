@@ -22,7 +22,7 @@
  * 16:4240–4249 (σ_f = 1/(2πσ_t), constant f/σ_f; from memory); M. X Cohen (2019), NeuroImage
  * 199:81–86 (parameterisation by FWHM = 2√(2 ln 2)·σ).
  */
-import { complexFftPlan, type ComplexFftPlan } from './fft.js';
+import { complexFftPlan, realFftPlan, type ComplexFftPlan, type RealFftPlan } from './fft.js';
 import { requireRate } from './checks.js';
 
 /** The wavelet is sampled over ±SUPPORT_SIGMAS·σ_t; the envelope there is exp(−18) ≈ 1.5e−8 of its peak. */
@@ -267,8 +267,11 @@ class MorletPlanImpl implements MorletPlan {
   /** per frequency: transform length and wavelet spectrum */
   private readonly spectra: Float64Array[];
   private readonly fftLengths: number[];
-  /** distinct transform lengths, each with its plan and the signal's spectrum (filled per call) */
-  private readonly signalSpectra = new Map<number, { plan: ComplexFftPlan; re: Float64Array; im: Float64Array }>();
+  /**
+   * distinct transform lengths, each with its plans and bins 0..floor(L/2) of the signal's spectrum
+   * (filled per call; the rest follow from X[L − k] = conj X[k], x being real)
+   */
+  private readonly signalSpectra = new Map<number, { real: RealFftPlan; plan: ComplexFftPlan; re: Float64Array; im: Float64Array }>();
   private readonly workRe: Float64Array;
   private readonly workIm: Float64Array;
 
@@ -315,7 +318,8 @@ class MorletPlanImpl implements MorletPlan {
       this.spectra.push(waveletSpectrum(fftLength, kept, samplingRate, f, c));
       longest = Math.max(longest, fftLength);
       if (!this.signalSpectra.has(fftLength)) {
-        this.signalSpectra.set(fftLength, { plan: complexFftPlan(fftLength), re: new Float64Array(fftLength), im: new Float64Array(fftLength) });
+        const bins = (fftLength >> 1) + 1;
+        this.signalSpectra.set(fftLength, { real: realFftPlan(fftLength), plan: complexFftPlan(fftLength), re: new Float64Array(bins), im: new Float64Array(bins) });
       }
       const reach = edgeSigmas * sigma * samplingRate;
       for (let i = 0; i < this.timeCount; i++) {
@@ -334,22 +338,23 @@ class MorletPlanImpl implements MorletPlan {
 
   /** Runs the convolutions, handing each frequency's full-rate result (re, im at 0..length−1, times L) and 1/L to `sink`. */
   private convolve(x: Float64Array, sink: (j: number, re: Float64Array, im: Float64Array, scale: number) => void): void {
-    for (const [size, s] of this.signalSpectra) {
-      s.re.set(x);
-      s.re.fill(0, x.length, size);
-      s.im.fill(0);
-      s.plan.transform(s.re, s.im);
-    }
+    for (const s of this.signalSpectra.values()) s.real.forward(x, s.re, s.im);
     const { workRe, workIm } = this;
     for (let j = 0; j < this.frequencyCount; j++) {
       const size = this.fftLengths[j]!;
       const signal = this.signalSpectra.get(size)!;
       const h = this.spectra[j]!;
       const xr = signal.re, xi = signal.im;
-      for (let k = 0; k < size; k++) {
+      const half = size >> 1;
+      for (let k = 0; k <= half; k++) {
         const g = h[k]!;
         workRe[k] = xr[k]! * g;
         workIm[k] = xi[k]! * g;
+      }
+      for (let k = half + 1; k < size; k++) {
+        const g = h[k]!;
+        workRe[k] = xr[size - k]! * g;
+        workIm[k] = -xi[size - k]! * g;
       }
       signal.plan.transform(workRe, workIm, true);
       sink(j, workRe, workIm, 1 / size);
