@@ -197,7 +197,7 @@ const SPECTRUM_CACHE_LIMIT = 256;
 const spectrumCache = new Map<string, Float64Array>();
 
 /**
- * DFT (length fftLength) of the central part of the wavelet laid out around index 0:
+ * DFT (length fftLength), divided by fftLength, of the central part of the wavelet laid out around index 0:
  * h[k mod L] = ψ̃[k] for |k| ≤ kept (kept ≤ M, 2·kept < L, so nothing overlaps). The samples are
  * those of the full ±M wavelet, G included: only the lags beyond `kept` are left out. Cached per
  * (fftLength, kept, fs, f, n_c).
@@ -220,6 +220,8 @@ function waveletSpectrum(fftLength: number, kept: number, samplingRate: number, 
       im[at] = wavelet.im[k + M]!;
     }
     complexFftPlan(fftLength).transform(re, im);
+    // the inverse transform is unscaled: 1/L goes in here, once
+    for (let k = 0; k < fftLength; k++) re[k] = re[k]! / fftLength;
     entry = re;
     if (spectrumCache.size >= SPECTRUM_CACHE_LIMIT) spectrumCache.delete(spectrumCache.keys().next().value!);
     spectrumCache.set(key, entry);
@@ -336,29 +338,17 @@ class MorletPlanImpl implements MorletPlan {
     if (x.length !== this.length) throw new RangeError(`x must have ${this.length} samples, got ${x.length}`);
   }
 
-  /** Runs the convolutions, handing each frequency's full-rate result (re, im at 0..length−1, times L) and 1/L to `sink`. */
-  private convolve(x: Float64Array, sink: (j: number, re: Float64Array, im: Float64Array, scale: number) => void): void {
+  /** The signal's spectrum at every transform length in use, once per call. */
+  private transformSignal(x: Float64Array): void {
     for (const s of this.signalSpectra.values()) s.real.forward(x, s.re, s.im);
-    const { workRe, workIm } = this;
-    for (let j = 0; j < this.frequencyCount; j++) {
-      const size = this.fftLengths[j]!;
-      const signal = this.signalSpectra.get(size)!;
-      const h = this.spectra[j]!;
-      const xr = signal.re, xi = signal.im;
-      const half = size >> 1;
-      for (let k = 0; k <= half; k++) {
-        const g = h[k]!;
-        workRe[k] = xr[k]! * g;
-        workIm[k] = xi[k]! * g;
-      }
-      for (let k = half + 1; k < size; k++) {
-        const g = h[k]!;
-        workRe[k] = xr[size - k]! * g;
-        workIm[k] = -xi[size - k]! * g;
-      }
-      signal.plan.transform(workRe, workIm, true);
-      sink(j, workRe, workIm, 1 / size);
-    }
+  }
+
+  /** Frequency j's convolution, w[n] at workRe/workIm[n] for n = 0..length−1 (after transformSignal). */
+  private convolve(j: number): void {
+    const size = this.fftLengths[j]!;
+    const signal = this.signalSpectra.get(size)!;
+    multiplyHermitian(size, signal.re, signal.im, this.spectra[j]!, this.workRe, this.workIm);
+    signal.plan.transform(this.workRe, this.workIm, true);
   }
 
   power(x: Float64Array, out?: Float64Array): Float64Array {
@@ -368,13 +358,11 @@ class MorletPlanImpl implements MorletPlan {
       throw new RangeError(`out must be a Float64Array of at least ${T * F} elements`);
     }
     const power = out ?? new Float64Array(T * F);
-    this.convolve(x, (j, re, im, scale) => {
-      const factor = POWER_FACTOR * scale * scale;
-      for (let i = 0; i < T; i++) {
-        const n = i * d;
-        power[i * F + j] = factor * (re[n]! * re[n]! + im[n]! * im[n]!);
-      }
-    });
+    this.transformSignal(x);
+    for (let j = 0; j < F; j++) {
+      this.convolve(j);
+      writePower(this.workRe, this.workIm, T, d, power, j, F);
+    }
     return power;
   }
 
@@ -383,13 +371,11 @@ class MorletPlanImpl implements MorletPlan {
     const F = this.frequencyCount, d = this.decimation, T = this.timeCount;
     const outRe = new Float64Array(T * F);
     const outIm = new Float64Array(T * F);
-    this.convolve(x, (j, re, im, scale) => {
-      for (let i = 0; i < T; i++) {
-        const n = i * d;
-        outRe[i * F + j] = re[n]! * scale;
-        outIm[i * F + j] = im[n]! * scale;
-      }
-    });
+    this.transformSignal(x);
+    for (let j = 0; j < F; j++) {
+      this.convolve(j);
+      writeCoefficients(this.workRe, this.workIm, T, d, outRe, outIm, j, F);
+    }
     return { re: outRe, im: outIm };
   }
 
@@ -399,16 +385,44 @@ class MorletPlanImpl implements MorletPlan {
     const power = new Float64Array(T * F);
     const outRe = new Float64Array(T * F);
     const outIm = new Float64Array(T * F);
-    this.convolve(x, (j, re, im, scale) => {
-      const factor = POWER_FACTOR * scale * scale;
-      for (let i = 0; i < T; i++) {
-        const n = i * d;
-        power[i * F + j] = factor * (re[n]! * re[n]! + im[n]! * im[n]!);
-        outRe[i * F + j] = re[n]! * scale;
-        outIm[i * F + j] = im[n]! * scale;
-      }
-    });
+    this.transformSignal(x);
+    for (let j = 0; j < F; j++) {
+      this.convolve(j);
+      writePower(this.workRe, this.workIm, T, d, power, j, F);
+      writeCoefficients(this.workRe, this.workIm, T, d, outRe, outIm, j, F);
+    }
     return { power, re: outRe, im: outIm };
+  }
+}
+
+/**
+ * Y[k] = X[k]·H[k] for k = 0..size−1, from bins 0..floor(size/2) of the spectrum X of a real signal
+ * (X[size − k] = conj X[k] gives the rest) and a real H.
+ */
+function multiplyHermitian(size: number, xr: Float64Array, xi: Float64Array, h: Float64Array, yr: Float64Array, yi: Float64Array): void {
+  const half = size >> 1;
+  for (let k = 0; k <= half; k++) {
+    const g = h[k]!;
+    yr[k] = xr[k]! * g;
+    yi[k] = xi[k]! * g;
+  }
+  for (let k = half + 1, m = size - k; k < size; k++, m--) {
+    const g = h[k]!;
+    yr[k] = xr[m]! * g;
+    yi[k] = -xi[m]! * g;
+  }
+}
+
+/** out[i·F + j] = 2·|w[i·d]|², i < T */
+function writePower(re: Float64Array, im: Float64Array, T: number, d: number, out: Float64Array, j: number, F: number): void {
+  for (let i = 0, n = 0, at = j; i < T; i++, n += d, at += F) out[at] = POWER_FACTOR * (re[n]! * re[n]! + im[n]! * im[n]!);
+}
+
+/** outRe/outIm[i·F + j] = w[i·d], i < T */
+function writeCoefficients(re: Float64Array, im: Float64Array, T: number, d: number, outRe: Float64Array, outIm: Float64Array, j: number, F: number): void {
+  for (let i = 0, n = 0, at = j; i < T; i++, n += d, at += F) {
+    outRe[at] = re[n]!;
+    outIm[at] = im[n]!;
   }
 }
 
