@@ -400,16 +400,21 @@ class MorletPlanImpl implements MorletPlan {
  * (X[size − k] = conj X[k] gives the rest) and a real H.
  */
 function multiplyHermitian(size: number, xr: Float64Array, xi: Float64Array, h: Float64Array, yr: Float64Array, yi: Float64Array): void {
-  const half = size >> 1;
-  for (let k = 0; k <= half; k++) {
-    const g = h[k]!;
-    yr[k] = xr[k]! * g;
-    yi[k] = xi[k]! * g;
+  yr[0] = xr[0]! * h[0]!;
+  yi[0] = xi[0]! * h[0]!;
+  // bins k and size − k share X[k] (the second conjugated)
+  let k = 1;
+  for (let m = size - 1; k < m; k++, m--) {
+    const a = xr[k]!, b = xi[k]!, g = h[k]!, q = h[m]!;
+    yr[k] = a * g;
+    yi[k] = b * g;
+    yr[m] = a * q;
+    yi[m] = -b * q;
   }
-  for (let k = half + 1, m = size - k; k < size; k++, m--) {
-    const g = h[k]!;
-    yr[k] = xr[m]! * g;
-    yi[k] = -xi[m]! * g;
+  // the Nyquist bin of an even length
+  if (k === size - k) {
+    yr[k] = xr[k]! * h[k]!;
+    yi[k] = xi[k]! * h[k]!;
   }
 }
 

@@ -186,6 +186,17 @@ describe('morletPower', () => {
       });
     });
 
+    it.each([1, 2, 3, 4, 5])('should equal the direct sum for an epoch of %s samples (odd transform lengths 1, 3, 5, 9 among them)', (length) => {
+      const fs = 100;
+      const x = noise(length, 30 + length);
+      const plan = createMorletPlan(length, { samplingRate: fs, frequencies: [5, 20], cycles: 7 });
+      const w = plan.coefficients(x);
+      [5, 20].forEach((f, j) => {
+        const d = direct(x, fs, f, 7);
+        expect(worstScaledError(column(w.re, 2, j), column(w.im, 2, j), d.re, d.im)).toBeLessThan(1e-12);
+      });
+    });
+
     it('should keep the lags each epoch length needs when two lengths share a transform length', () => {
       // 2 Hz at 500 Hz (M = 1672): N = 1000 keeps ±999 lags and N = 1020 keeps ±1019, both in a
       // 2048-point transform; the second plan must not reuse the first one's shorter kernel
