@@ -16,7 +16,8 @@
  * definition, with the full ±M wavelet and its G). Only lags |n − m| ≤ N − 1 occur, so a wavelet
  * longer than the epoch (M ≥ N) is cut to its central ±(N − 1) samples without changing a single
  * term; with R = min(M, N − 1) one circular convolution of period L ≥ N + R gives every w[n] free of
- * aliases (see the plan's constructor).
+ * aliases (see the plan's constructor). With decimation d and d dividing L, the outputs w[i·d] are
+ * read from an L/d-point inverse transform of the product folded onto L/d bins (see foldSpectrum).
  *
  * References: C. Tallon-Baudry, O. Bertrand, C. Delpuech & J. Pernier (1996), J. Neurosci.
  * 16:4240–4249 (σ_f = 1/(2πσ_t), constant f/σ_f; from memory); M. X Cohen (2019), NeuroImage
@@ -193,6 +194,18 @@ function transformLength(n: number): number {
   return best;
 }
 
+/**
+ * Transform length L ≥ n when only every d-th output is read, and the fold: d when d divides L (the
+ * outputs then come from an L/d-point inverse, see foldSpectrum), else 1. L is transformLength(n)
+ * when d divides it, else d·transformLength(ceil(n/d)) unless that is over twice as long.
+ */
+function foldedLength(n: number, d: number): { size: number; fold: number } {
+  const plain = transformLength(n);
+  if (plain % d === 0) return { size: plain, fold: d };
+  const folded = d * transformLength(Math.ceil(n / d));
+  return folded <= 2 * plain ? { size: folded, fold: d } : { size: plain, fold: 1 };
+}
+
 const SPECTRUM_CACHE_LIMIT = 256;
 const spectrumCache = new Map<string, Float64Array>();
 
@@ -253,6 +266,26 @@ function resolveCycles(cycles: MorletOptions['cycles'], frequencies: Float64Arra
   return out;
 }
 
+interface SignalSpectrum {
+  readonly real: RealFftPlan;
+  readonly re: Float64Array;
+  readonly im: Float64Array;
+}
+
+interface FrequencyWork {
+  /** L */
+  readonly size: number;
+  /** H/L (real) */
+  readonly spectrum: Float64Array;
+  readonly signal: SignalSpectrum;
+  /** d when every d-th output comes from an L/d-point inverse of the folded product, else 1 */
+  readonly fold: number;
+  /** plan of length L/fold */
+  readonly inverse: ComplexFftPlan;
+  /** w[i·d] is the inverse's output i·step (decimation/fold) */
+  readonly step: number;
+}
+
 class MorletPlanImpl implements MorletPlan {
   readonly length: number;
   readonly samplingRate: number;
@@ -266,16 +299,17 @@ class MorletPlanImpl implements MorletPlan {
   readonly decimation: number;
   readonly edgeSigmas: number;
   readonly edgeMask: Uint8Array;
-  /** per frequency: transform length and wavelet spectrum */
-  private readonly spectra: Float64Array[];
-  private readonly fftLengths: number[];
+  private readonly work: FrequencyWork[] = [];
   /**
-   * distinct transform lengths, each with its plans and bins 0..floor(L/2) of the signal's spectrum
-   * (filled per call; the rest follow from X[L − k] = conj X[k], x being real)
+   * distinct transform lengths, each with its real plan and bins 0..floor(L/2) of the signal's
+   * spectrum (filled per call; the rest follow from X[L − k] = conj X[k], x being real)
    */
-  private readonly signalSpectra = new Map<number, { real: RealFftPlan; plan: ComplexFftPlan; re: Float64Array; im: Float64Array }>();
+  private readonly signalSpectra = new Map<number, SignalSpectrum>();
   private readonly workRe: Float64Array;
   private readonly workIm: Float64Array;
+  /** the full-length product before it is folded (decimation > 1) */
+  private readonly foldRe: Float64Array;
+  private readonly foldIm: Float64Array;
   /** the second frequency of a pair in power() */
   private readonly pairRe: Float64Array;
   private readonly pairIm: Float64Array;
@@ -303,9 +337,7 @@ class MorletPlanImpl implements MorletPlan {
     this.times = new Float64Array(this.timeCount);
     for (let i = 0; i < this.timeCount; i++) this.times[i] = (i * decimation) / samplingRate;
     this.edgeMask = new Uint8Array(this.timeCount * F);
-    this.spectra = [];
-    this.fftLengths = [];
-    let longest = 0;
+    let longest = 0, longestFolded = 0;
     for (let j = 0; j < F; j++) {
       const f = this.frequencies[j]!, c = this.cycles[j]!;
       checkWaveletArguments(f, c, samplingRate);
@@ -318,14 +350,19 @@ class MorletPlanImpl implements MorletPlan {
       // kernel at h[k mod L] = ψ̃[k], |k| ≤ R, the circular sum at n adds the lag n − m and its images
       // n − m ± L; for L ≥ length + R every image has |n − m ± L| > R, where h is zero.
       const kept = Math.min(halfWidth, length - 1);
-      const fftLength = transformLength(length + kept);
-      this.fftLengths.push(fftLength);
-      this.spectra.push(waveletSpectrum(fftLength, kept, samplingRate, f, c));
-      longest = Math.max(longest, fftLength);
-      if (!this.signalSpectra.has(fftLength)) {
-        const bins = (fftLength >> 1) + 1;
-        this.signalSpectra.set(fftLength, { real: realFftPlan(fftLength), plan: complexFftPlan(fftLength), re: new Float64Array(bins), im: new Float64Array(bins) });
+      const { size, fold } = foldedLength(length + kept, decimation);
+      let signal = this.signalSpectra.get(size);
+      if (signal === undefined) {
+        const bins = (size >> 1) + 1;
+        signal = { real: realFftPlan(size), re: new Float64Array(bins), im: new Float64Array(bins) };
+        this.signalSpectra.set(size, signal);
       }
+      this.work.push({
+        size, spectrum: waveletSpectrum(size, kept, samplingRate, f, c), signal, fold,
+        inverse: complexFftPlan(size / fold), step: decimation / fold,
+      });
+      longest = Math.max(longest, size / fold);
+      if (fold > 1) longestFolded = Math.max(longestFolded, size);
       const reach = edgeSigmas * sigma * samplingRate;
       for (let i = 0; i < this.timeCount; i++) {
         const n = i * decimation;
@@ -334,6 +371,8 @@ class MorletPlanImpl implements MorletPlan {
     }
     this.workRe = new Float64Array(longest);
     this.workIm = new Float64Array(longest);
+    this.foldRe = new Float64Array(longestFolded);
+    this.foldIm = new Float64Array(longestFolded);
     this.pairRe = new Float64Array(longest);
     this.pairIm = new Float64Array(longest);
   }
@@ -348,17 +387,25 @@ class MorletPlanImpl implements MorletPlan {
     for (const s of this.signalSpectra.values()) s.real.forward(x, s.re, s.im);
   }
 
-  /** Frequency j's convolution, w[n] at re/im[n] for n = 0..length−1 (after transformSignal). */
-  private convolve(j: number, re = this.workRe, im = this.workIm): void {
-    const size = this.fftLengths[j]!;
-    const signal = this.signalSpectra.get(size)!;
-    multiplyHermitian(size, signal.re, signal.im, this.spectra[j]!, re, im);
-    signal.plan.transform(re, im, true);
+  /**
+   * Frequency j's convolution (after transformSignal): w[i·decimation] at re/im[i·step], i < timeCount,
+   * and the step.
+   */
+  private convolve(j: number, re = this.workRe, im = this.workIm): number {
+    const w = this.work[j]!;
+    if (w.fold === 1) {
+      multiplyHermitian(w.size, w.signal.re, w.signal.im, w.spectrum, re, im);
+    } else {
+      multiplyHermitian(w.size, w.signal.re, w.signal.im, w.spectrum, this.foldRe, this.foldIm);
+      foldSpectrum(this.foldRe, this.foldIm, w.size / w.fold, w.fold, re, im);
+    }
+    w.inverse.transform(re, im, true);
+    return w.step;
   }
 
   power(x: Float64Array, out?: Float64Array): Float64Array {
     this.checkSignal(x);
-    const F = this.frequencyCount, d = this.decimation, T = this.timeCount;
+    const F = this.frequencyCount, T = this.timeCount;
     if (out !== undefined && (!(out instanceof Float64Array) || out.length < T * F)) {
       throw new RangeError(`out must be a Float64Array of at least ${T * F} elements`);
     }
@@ -366,41 +413,35 @@ class MorletPlanImpl implements MorletPlan {
     this.transformSignal(x);
     let j = 0;
     for (; j + 1 < F; j += 2) {
-      this.convolve(j);
-      this.convolve(j + 1, this.pairRe, this.pairIm);
-      writePowerPair(this.workRe, this.workIm, this.pairRe, this.pairIm, T, d, power, j, F);
+      const step = this.convolve(j);
+      const step1 = this.convolve(j + 1, this.pairRe, this.pairIm);
+      writePowerPair(this.workRe, this.workIm, step, this.pairRe, this.pairIm, step1, T, power, j, F);
     }
-    if (j < F) {
-      this.convolve(j);
-      writePower(this.workRe, this.workIm, T, d, power, j, F);
-    }
+    if (j < F) writePower(this.workRe, this.workIm, this.convolve(j), T, power, j, F);
     return power;
   }
 
   coefficients(x: Float64Array): { re: Float64Array; im: Float64Array } {
     this.checkSignal(x);
-    const F = this.frequencyCount, d = this.decimation, T = this.timeCount;
+    const F = this.frequencyCount, T = this.timeCount;
     const outRe = new Float64Array(T * F);
     const outIm = new Float64Array(T * F);
     this.transformSignal(x);
-    for (let j = 0; j < F; j++) {
-      this.convolve(j);
-      writeCoefficients(this.workRe, this.workIm, T, d, outRe, outIm, j, F);
-    }
+    for (let j = 0; j < F; j++) writeCoefficients(this.workRe, this.workIm, this.convolve(j), T, outRe, outIm, j, F);
     return { re: outRe, im: outIm };
   }
 
   powerAndCoefficients(x: Float64Array): { power: Float64Array; re: Float64Array; im: Float64Array } {
     this.checkSignal(x);
-    const F = this.frequencyCount, d = this.decimation, T = this.timeCount;
+    const F = this.frequencyCount, T = this.timeCount;
     const power = new Float64Array(T * F);
     const outRe = new Float64Array(T * F);
     const outIm = new Float64Array(T * F);
     this.transformSignal(x);
     for (let j = 0; j < F; j++) {
-      this.convolve(j);
-      writePower(this.workRe, this.workIm, T, d, power, j, F);
-      writeCoefficients(this.workRe, this.workIm, T, d, outRe, outIm, j, F);
+      const step = this.convolve(j);
+      writePower(this.workRe, this.workIm, step, T, power, j, F);
+      writeCoefficients(this.workRe, this.workIm, step, T, outRe, outIm, j, F);
     }
     return { power, re: outRe, im: outIm };
   }
@@ -429,25 +470,44 @@ function multiplyHermitian(size: number, xr: Float64Array, xi: Float64Array, h: 
   }
 }
 
-/** out[i·F + j] = 2·|w[i·d]|², i < T */
-function writePower(re: Float64Array, im: Float64Array, T: number, d: number, out: Float64Array, j: number, F: number): void {
-  for (let i = 0, n = 0, at = j; i < T; i++, n += d, at += F) out[at] = POWER_FACTOR * (re[n]! * re[n]! + im[n]! * im[n]!);
-}
-
 /**
- * writePower for frequencies j and j + 1 at once (w from re/im and re1/im1): two neighbours in each
- * row of `out` per store pass, half the scattered cache lines of two single passes.
+ * Z[q] = Σ_{r<d} Y[q + r·P], q < P = L/d. Every d-th output of the L-point inverse DFT of Y is the
+ * P-point inverse DFT of Z: Σ_k Y[k]·e^{2πi·k·id/L} = Σ_q Z[q]·e^{2πi·q·i/P}, since
+ * e^{2πi·(q + rP)·id/L} = e^{2πi·q·i/P} (common practice: decimation in time of the inverse DFT).
  */
-function writePowerPair(re: Float64Array, im: Float64Array, re1: Float64Array, im1: Float64Array, T: number, d: number, out: Float64Array, j: number, F: number): void {
-  for (let i = 0, n = 0, at = j; i < T; i++, n += d, at += F) {
-    out[at] = POWER_FACTOR * (re[n]! * re[n]! + im[n]! * im[n]!);
-    out[at + 1] = POWER_FACTOR * (re1[n]! * re1[n]! + im1[n]! * im1[n]!);
+function foldSpectrum(yr: Float64Array, yi: Float64Array, P: number, d: number, zr: Float64Array, zi: Float64Array): void {
+  zr.set(yr.subarray(0, P));
+  zi.set(yi.subarray(0, P));
+  for (let r = 1, base = P; r < d; r++, base += P) {
+    for (let q = 0; q < P; q++) {
+      zr[q] = zr[q]! + yr[base + q]!;
+      zi[q] = zi[q]! + yi[base + q]!;
+    }
   }
 }
 
-/** outRe/outIm[i·F + j] = w[i·d], i < T */
-function writeCoefficients(re: Float64Array, im: Float64Array, T: number, d: number, outRe: Float64Array, outIm: Float64Array, j: number, F: number): void {
-  for (let i = 0, n = 0, at = j; i < T; i++, n += d, at += F) {
+/** out[i·F + j] = 2·|w|² at re/im[i·step], i < T */
+function writePower(re: Float64Array, im: Float64Array, step: number, T: number, out: Float64Array, j: number, F: number): void {
+  for (let i = 0, n = 0, at = j; i < T; i++, n += step, at += F) out[at] = POWER_FACTOR * (re[n]! * re[n]! + im[n]! * im[n]!);
+}
+
+/**
+ * writePower for frequencies j and j + 1 at once: two neighbours in each row of `out` per store
+ * pass, half the scattered cache lines of two single passes.
+ */
+function writePowerPair(
+  re: Float64Array, im: Float64Array, step: number, re1: Float64Array, im1: Float64Array, step1: number,
+  T: number, out: Float64Array, j: number, F: number,
+): void {
+  for (let i = 0, n = 0, n1 = 0, at = j; i < T; i++, n += step, n1 += step1, at += F) {
+    out[at] = POWER_FACTOR * (re[n]! * re[n]! + im[n]! * im[n]!);
+    out[at + 1] = POWER_FACTOR * (re1[n1]! * re1[n1]! + im1[n1]! * im1[n1]!);
+  }
+}
+
+/** outRe/outIm[i·F + j] = w at re/im[i·step], i < T */
+function writeCoefficients(re: Float64Array, im: Float64Array, step: number, T: number, outRe: Float64Array, outIm: Float64Array, j: number, F: number): void {
+  for (let i = 0, n = 0, at = j; i < T; i++, n += step, at += F) {
     outRe[at] = re[n]!;
     outIm[at] = im[n]!;
   }
