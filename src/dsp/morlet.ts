@@ -210,8 +210,8 @@ const SPECTRUM_CACHE_LIMIT = 256;
 const spectrumCache = new Map<string, Float64Array>();
 
 /**
- * DFT (length fftLength), divided by fftLength, of the central part of the wavelet laid out around index 0:
- * h[k mod L] = ψ̃[k] for |k| ≤ kept (kept ≤ M, 2·kept < L, so nothing overlaps). The samples are
+ * DFT (length L = fftLength), divided by L, of the central part of the wavelet laid out around
+ * index 0: h[k mod L] = ψ̃[k] for |k| ≤ kept (kept ≤ M, 2·kept < L, so nothing overlaps). The samples are
  * those of the full ±M wavelet, G included: only the lags beyond `kept` are left out. Cached per
  * (fftLength, kept, fs, f, n_c).
  *
@@ -515,9 +515,10 @@ function writeCoefficients(re: Float64Array, im: Float64Array, step: number, T: 
 
 /**
  * A reusable Morlet plan for signals of `length` samples. Wavelet spectra are cached per
- * (transform length, kept lags, fs, f, n_c) across plans; each call transforms the signal once per distinct
- * transform length (frequencies whose wavelets need about the same padding share one), then does
- * one inverse transform per frequency. Not re-entrant: use one plan per thread.
+ * (transform length, kept lags, fs, f, n_c) across plans; each call transforms the signal once per
+ * distinct transform length (frequencies whose wavelets need about the same padding share one), then
+ * does one inverse transform per frequency (L/d points when the decimation d divides L). Not
+ * re-entrant: use one plan per thread.
  *
  * @param length - samples per epoch, integer ≥ 1
  * @param options - see {@link MorletOptions}
