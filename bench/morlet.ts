@@ -1,12 +1,17 @@
 /**
  * Morlet wavelet power: 100 epochs × 32 channels × 2 s at 500 Hz, 40 log-spaced frequencies 2–45 Hz,
- * 7 cycles, single thread, beside the same FFT convolution in numpy/scipy (bench/scipy-morlet.py).
+ * 7 cycles, beside the same FFT convolution in numpy/scipy (bench/scipy-morlet.py):
+ * - the kernel (createMorletPlan) on one thread;
+ * - whole `morlet` jobs through analyze() on 1 and 2 threads (JOB_THREADS), which also average the
+ *   trials and hash the matrices;
+ * - scipy with workers = 1 and 2.
  *
  * Standalone: `npx tsx bench/morlet.ts`. Prints figures; never fails on time.
  */
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createMorletPlan } from '../src/dsp/morlet.js';
+import { packSignal, timeEngineMorlet, type MorletWorkload } from './morlet-engine.js';
 import { sineHashSignals } from './sine-hash.js';
 
 const EPOCHS = 100;
@@ -37,9 +42,9 @@ function timeOurs(data: Float64Array[]): { seconds: number; totals: Float64Array
   return { seconds: (performance.now() - start) / 1000, totals };
 }
 
-function timeScipy(): { seconds: number; totals: number[]; versions: string } | string {
+function timeScipy(workers: number): { seconds: number; totals: number[]; versions: string } | string {
   const script = fileURLToPath(new URL('./scipy-morlet.py', import.meta.url));
-  const args = [EPOCHS, CHANNELS, SAMPLES, SAMPLING_RATE, F_LOW, F_HIGH, COUNT, CYCLES].map(String);
+  const args = [EPOCHS, CHANNELS, SAMPLES, SAMPLING_RATE, F_LOW, F_HIGH, COUNT, CYCLES, workers].map(String);
   const run = spawnSync('/usr/bin/python3', [script, ...args], { encoding: 'utf8', timeout: 900_000 });
   if (run.error !== undefined || run.status !== 0) {
     return `note: scipy reference unavailable (${run.error?.message ?? run.stderr.trim().split('\n').at(-1) ?? `exit ${run.status}`})`;
@@ -48,25 +53,48 @@ function timeScipy(): { seconds: number; totals: number[]; versions: string } | 
   return { seconds: parsed.seconds, totals: parsed.totals, versions: `numpy ${parsed.numpy}, scipy ${parsed.scipy}` };
 }
 
+const WORKLOAD: MorletWorkload = {
+  epochs: EPOCHS, channels: CHANNELS, samples: SAMPLES, samplingRate: SAMPLING_RATE, low: F_LOW, high: F_HIGH, count: COUNT, cycles: CYCLES,
+};
+
+function worstRelative(ours: ArrayLike<number>, reference: readonly number[]): number {
+  let worst = 0;
+  reference.forEach((v, j) => { worst = Math.max(worst, Math.abs(ours[j]! - v) / Math.abs(v)); });
+  return worst;
+}
+
 /** Runs the Morlet benchmark and returns printable lines. */
 export async function benchMorlet(): Promise<string[]> {
   const data = makeData();
   const signals = EPOCHS * CHANNELS;
   timeOurs(data.slice(0, 64)); // warm-up for the JIT
   const { seconds, totals } = timeOurs(data);
+  const signal = packSignal(data, WORKLOAD);
+  // Warm-up for the job path, and a helper thread started (it stays up 30 s between jobs).
+  const small = { ...WORKLOAD, epochs: 4, channels: 8 };
+  timeEngineMorlet(packSignal(data.slice(0, 32), small), small, 2);
+  await new Promise((resolve) => setTimeout(resolve, 2000));
+  timeEngineMorlet(packSignal(data.slice(0, 32), small), small, 2);
+  const job1 = timeEngineMorlet(signal, WORKLOAD, 1);
+  const job2 = timeEngineMorlet(signal, WORKLOAD, 2);
   const lines = [
-    `morlet: ${EPOCHS} epochs × ${CHANNELS} channels × ${SAMPLES} samples at ${SAMPLING_RATE} Hz, ${COUNT} frequencies ${F_LOW}–${F_HIGH} Hz (log), ${CYCLES} cycles, single thread`,
-    `  rhythmetric  ${seconds.toFixed(3)} s  (${((seconds / signals) * 1e3).toFixed(2)} ms per channel-epoch, ${(EPOCHS / seconds).toFixed(1)} epochs/s)`,
+    `morlet: ${EPOCHS} epochs × ${CHANNELS} channels × ${SAMPLES} samples at ${SAMPLING_RATE} Hz, ${COUNT} frequencies ${F_LOW}–${F_HIGH} Hz (log), ${CYCLES} cycles`,
+    `  rhythmetric kernel, 1 thread    ${seconds.toFixed(3)} s  (${((seconds / signals) * 1e3).toFixed(2)} ms per channel-epoch)`,
+    `  rhythmetric job, 1 thread       ${job1.seconds.toFixed(3)} s`,
+    `  rhythmetric job, 2 threads      ${job2.seconds.toFixed(3)} s  (${job2.threads} threads computed channels; ${(EPOCHS / job2.seconds).toFixed(1)} epochs/s)`,
   ];
-  const reference = timeScipy();
-  if (typeof reference === 'string') {
-    lines.push(`  ${reference}`);
+  const one = timeScipy(1);
+  if (typeof one === 'string') {
+    lines.push(`  ${one}`);
     return lines;
   }
-  let worst = 0;
-  reference.totals.forEach((v, j) => { worst = Math.max(worst, Math.abs(totals[j]! - v) / Math.abs(v)); });
-  lines.push(`  scipy/numpy  ${reference.seconds.toFixed(3)} s  (ratio rhythmetric/scipy ${(seconds / reference.seconds).toFixed(2)})`);
-  lines.push(`  reference: ${reference.versions} via /usr/bin/python3, vectorised over channels; per-frequency power sums agree to ${worst.toExponential(1)} relative`);
+  const two = timeScipy(2);
+  lines.push(`  scipy/numpy, workers=1         ${one.seconds.toFixed(3)} s`);
+  if (typeof two !== 'string') lines.push(`  scipy/numpy, workers=2         ${two.seconds.toFixed(3)} s`);
+  lines.push(`  ratio kernel 1 thread / scipy workers=1: ${(seconds / one.seconds).toFixed(2)}`);
+  lines.push(`  ratio job 2 threads / scipy workers=1:   ${(job2.seconds / one.seconds).toFixed(2)}  (target ≤ 1)`);
+  if (typeof two !== 'string') lines.push(`  ratio job 2 threads / scipy workers=2:   ${(job2.seconds / two.seconds).toFixed(2)}`);
+  lines.push(`  reference: ${one.versions} via /usr/bin/python3, vectorised over channels; per-frequency power sums agree to ${worstRelative(totals, one.totals).toExponential(1)} (kernel), ${worstRelative(job2.totals, one.totals).toExponential(1)} (job) relative`);
   return lines;
 }
 

@@ -1,7 +1,9 @@
 #!/usr/bin/python3
-"""numpy/scipy side of bench/morlet.ts: the same Morlet power workload by FFT convolution, single thread.
+"""numpy/scipy side of bench/morlet.ts: the same Morlet power workload by FFT convolution.
 
-Usage: /usr/bin/python3 bench/scipy-morlet.py EPOCHS CHANNELS SAMPLES SAMPLING_RATE F_LOW F_HIGH COUNT CYCLES
+Usage: /usr/bin/python3 bench/scipy-morlet.py EPOCHS CHANNELS SAMPLES SAMPLING_RATE F_LOW F_HIGH COUNT CYCLES [WORKERS]
+WORKERS (default 1) is scipy.fft's `workers`: the transforms of one call are spread over that many
+threads (over the channel axis); the products and powers stay on one thread, as numpy does them.
 Prints one JSON object: seconds, versions, and the per-frequency sum of power over all the data (a
 cross-check against the TypeScript run, which uses the same sine-hash data and wavelets).
 """
@@ -21,6 +23,7 @@ import scipy.fft  # noqa: E402
 epochs, channels, samples = (int(v) for v in sys.argv[1:4])
 fs, f_low, f_high = (float(v) for v in sys.argv[4:7])
 count, cycles = int(sys.argv[7]), float(sys.argv[8])
+workers = int(sys.argv[9]) if len(sys.argv) > 9 else 1
 
 # the same deterministic sine-hash data as bench/morlet.ts, uniform on [-1/2, 1/2)
 index = (np.arange(epochs * channels)[:, None] * samples + np.arange(samples)[None, :] + 1).astype(np.float64)
@@ -54,9 +57,9 @@ def run():
     sizes = sorted({size for size, _ in bank})
     totals = np.zeros(count)
     for e in range(epochs):
-        spectra = {size: scipy.fft.fft(data[e], size, axis=-1) for size in sizes}
+        spectra = {size: scipy.fft.fft(data[e], size, axis=-1, workers=workers) for size in sizes}
         for j, (size, spectrum) in enumerate(bank):
-            w = scipy.fft.ifft(spectra[size] * spectrum, axis=-1)[:, :samples]
+            w = scipy.fft.ifft(spectra[size] * spectrum, axis=-1, workers=workers)[:, :samples]
             power = 2.0 * (w.real ** 2 + w.imag ** 2)
             totals[j] += power.sum()
     return time.perf_counter() - start, totals
