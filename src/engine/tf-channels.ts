@@ -40,7 +40,8 @@ export interface ChannelWork {
   frequencies: Float64Array;
   edgeMask: Uint8Array | null;
   extra: Partial<TimeFrequencyBlock>;
-  transform: (x: Float64Array) => { power: Float64Array; re?: Float64Array; im?: Float64Array };
+  /** `out`, when given, may receive the power (the result says where it is) */
+  transform: (x: Float64Array, out?: Float64Array) => { power: Float64Array; re?: Float64Array; im?: Float64Array };
 }
 
 export interface ChannelOutcome {
@@ -95,7 +96,7 @@ export function createChannelWork(setup: ChannelSetup): ChannelWork {
       frequencies: plan.frequencies,
       edgeMask: plan.edgeMask,
       extra: { edgeSigmas: plan.edgeSigmas, powerFactor: POWER_FACTOR, cycles: Array.from(plan.cycles) },
-      transform: withPhase ? (x) => plan.powerAndCoefficients(x) : (x) => ({ power: plan.power(x) }),
+      transform: withPhase ? (x) => plan.powerAndCoefficients(x) : (x, out) => ({ power: plan.power(x, out) }),
     };
   } else {
     const d = setup.derived;
@@ -141,10 +142,16 @@ export function computeChannel(setup: ChannelSetup, work: ChannelWork, c: number
   const trials: Float64Array[] = [];
   const re: Float64Array[] = [];
   const im: Float64Array[] = [];
+  // A plain trial average needs no trial kept: each trial's power goes into one scratch matrix and
+  // is added to the sum in trial order, the same additions as summing the kept trials.
+  const keepTrials = Boolean(recipe.baseline) || recipe.perTrial;
+  const scratch = keepTrials ? undefined : new Float64Array(T * F);
+  let average: Float64Array = new Float64Array(T * F);
   for (let i = 0; i < setup.used.length; i++) {
     beforeTrial();
-    const w = work.transform(trial(i));
-    trials.push(w.power);
+    const w = work.transform(trial(i), scratch);
+    if (keepTrials) trials.push(w.power);
+    else for (let k = 0; k < average.length; k++) average[k]! += w.power[k]!;
     if (w.re && w.im) {
       re.push(w.re);
       im.push(w.im);
@@ -152,7 +159,6 @@ export function computeChannel(setup: ChannelSetup, work: ChannelWork, c: number
   }
   const warnings: string[] = [];
   let baseline: ChannelOutcome['baseline'] = null;
-  let average: Float64Array;
   let perTrial: Float64Array[] | undefined = trials;
   if (recipe.baseline) {
     const r = baselineNormalize(trials, {
@@ -168,9 +174,8 @@ export function computeChannel(setup: ChannelSetup, work: ChannelWork, c: number
     baseline = { start: recipe.baseline.start, end: recipe.baseline.end, mode: recipe.baseline.mode, rows: [r.baselineStart, r.baselineEnd] };
     for (const w of r.warnings) warnings.push(`channel "${name}": baseline: ${w}`);
   } else {
-    average = new Float64Array(T * F);
-    for (const t of trials) for (let i = 0; i < average.length; i++) average[i]! += t[i]!;
-    for (let i = 0; i < average.length; i++) average[i]! /= trials.length;
+    if (keepTrials) for (const t of trials) for (let k = 0; k < average.length; k++) average[k]! += t[k]!;
+    for (let k = 0; k < average.length; k++) average[k]! /= setup.used.length;
   }
   const entry: ChannelOutcome['entry'] = { name };
   if (recipe.summary.length > 0) entry.summary = recipe.summary.map((w) => summarizeWindow(average, shifted, frequencies, edgeMask, w));
