@@ -66,6 +66,64 @@ describe('complexFftPlan', () => {
     });
   });
 
+  // factorize() runs a leading radix 16 (or two) then 8s for powers of two, then odd primes; these sizes
+  // put every butterfly in the first stage (stride 1, twiddles change every butterfly) and in the last
+  // stage (span 1, which runs in place into the caller's arrays), with odd and even stage counts.
+  describe('when each butterfly is the first and the last stage (O(N²) DFT definition as reference)', () => {
+    it.each<[number, string]>([
+      [16, '16 alone'], [128, '16·8'], [256, '16·16'], [2048, '16·16·8'], [1024, '16·8·8'], [48, '16·3'],
+      [80, '16·5'], [112, '16·7 (generic odd radix last)'], [40, '8·5'], [24, '8·3'], [32, '8·4'],
+      [12, '4·3'], [6, '2·3'], [10, '2·5'], [15, '3·5'], [35, '5·7'], [1152, '16·8·3·3'],
+    ])('should agree for N = %i (%s), forward and inverse', (n) => {
+      const re = seeded(n, 13 * n), im = seeded(n, 17 * n + 3);
+      const bound = TOLERANCE * l1(re, im);
+      for (const sign of [-1, 1]) {
+        const ref = naiveDft(re, im, sign);
+        const xr = re.slice(), xi = im.slice();
+        complexFftPlan(n).transform(xr, xi, sign === 1);
+        expect(maxDiff(xr, xi, ref.re, ref.im)).toBeLessThanOrEqual(bound);
+      }
+    });
+
+    it('should leave elements past N untouched in longer arrays (callers pass reused work buffers)', () => {
+      for (const n of [128, 1024, 48]) {
+        const re = seeded(n + 5, n), im = seeded(n + 5, n + 1);
+        const ref = naiveDft(re.subarray(0, n), im.subarray(0, n), 1);
+        const xr = re.slice(), xi = im.slice();
+        complexFftPlan(n).transform(xr, xi, true);
+        expect(maxDiff(xr.subarray(0, n), xi.subarray(0, n), ref.re, ref.im)).toBeLessThanOrEqual(TOLERANCE * l1(re, im));
+        expect(Array.from(xr.subarray(n))).toEqual(Array.from(re.subarray(n)));
+        expect(Array.from(xi.subarray(n))).toEqual(Array.from(im.subarray(n)));
+      }
+    });
+  });
+
+  // X_k = Σ_j x_j·e^{−2πi·jk/N} evaluated by hand: a constant gives N·δ_k, an impulse at 0 gives 1,
+  // (1, 0, −1, 0, …) gives N/2 at k = N/4 and 3N/4, and (−1)^j gives N·δ_{k−N/2}. For powers of two
+  // every twiddle these touch is a quarter turn or multiplies a zero, so the values must be exact.
+  describe('when given real inputs whose DFT is exact, at powers of two', () => {
+    const cases: [string, (j: number) => number, (k: number, n: number) => number][] = [
+      ['a constant', () => 1, (k, n) => (k === 0 ? n : 0)],
+      ['an impulse at 0', (j) => (j === 0 ? 1 : 0), () => 1],
+      ['cos(2πj/4)', (j) => [1, 0, -1, 0][j % 4]!, (k, n) => (k === n / 4 || k === (3 * n) / 4 ? n / 2 : 0)],
+      ['(−1)^j', (j) => (j % 2 === 0 ? 1 : -1), (k, n) => (k === n / 2 ? n : 0)],
+    ];
+    it.each([16, 128, 256, 1024, 2048, 4096])('should give exact values and exact zeros for N = %i', (n) => {
+      for (const [, input, expected] of cases) {
+        for (const inverse of [false, true]) {
+          const re = new Float64Array(n).map((_, j) => input(j)), im = new Float64Array(n);
+          complexFftPlan(n).transform(re, im, inverse);
+          // these inputs are even (x_j = x_{N−j}), so the inverse gives the same values
+          for (let k = 0; k < n; k++) {
+            // + 0 folds −0 into 0: the sign of a zero is not part of the claim
+            expect(re[k]! + 0).toBe(expected(k, n));
+            expect(im[k]! + 0).toBe(0);
+          }
+        }
+      }
+    });
+  });
+
   describe('when compared with fft.js, an independent implementation (powers of two)', () => {
     it.each([2, 4, 8, 16, 32, 64, 128, 256, 512, 1024, 2048, 4096, 8192])('should agree for N = %i', (n) => {
       const re = seeded(n, 3 * n), im = seeded(n, 5 * n);
