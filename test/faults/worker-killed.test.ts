@@ -44,6 +44,9 @@ describe.skipIf(!withRedis)('when a worker process is killed while it computes',
     expect(stall).toBeDefined();
     redeliveryMs = (stall!.time as number) - killedAt;
     console.info(`[faults] SIGKILL → stall noticed after ${redeliveryMs} ms (WORKER_LOCK_MS=2000)`);
+    // The API can see the job succeeded in Redis before the survivor's "completed" event has been
+    // logged and has come through its stdout pipe: wait for the line, then count.
+    await survivor.waitForLog('job completed', 10_000, (l) => l.jobId === id);
     expect(survivor.logs('job completed').map((l) => l.jobId)).toEqual([id]);
     expect(holder.logs('job completed')).toEqual([]);
     // BullMQ counts every start of the job in the job hash ("ats", attemptsStarted): two starts.
