@@ -4,7 +4,7 @@
  * Convention (as numpy.fft): X_k = Σ_j x_j·e^{−2πi·jk/n}; the inverse is unscaled.
  *
  * Lengths whose prime factors are all ≤ MAX_DIRECT_RADIX (61) run a mixed-radix Stockham
- * transform (radix 16, 8, 4, 2, 3, 5 and a generic odd radix), which needs no bit reversal and keeps the
+ * transform (radix 16, 8, 4, 2, 9, 3, 5 and a generic odd radix), which needs no bit reversal and keeps the
  * output in natural order. Other lengths use Bluestein's chirp-z algorithm on a power-of-two
  * (or 2^a·3^b·5^c) Stockham transform. Twiddles are precomputed per stage from exact integer angles.
  *
@@ -44,7 +44,7 @@ function checkBuffers(re: Float64Array, im: Float64Array, length: number, what: 
  * Radices in the order the stages run: for 2^a a 16 or two first when a is not a multiple of 3, then 8s
  * (radix 8 costs least per factor of two, about 0.65 ns per point here against 0.77 for 16, 0.8–1.2 for 4
  * and 1.9 for 2; a 16 costs no more than an 8 as the first stage, whose twiddles change every
- * butterfly), then odd primes ascending.
+ * butterfly), then a 9 for each 3·3, then the other odd primes ascending.
  */
 function factorize(n: number): number[] {
   const radices: number[] = [];
@@ -59,6 +59,8 @@ function factorize(n: number): number[] {
     if (twos % 3 === 2) { radices.push(16, 16); twos -= 8; }
     for (; twos >= 3; twos -= 3) radices.push(8);
   }
+  // 9 = 3·3 as one radix-9 stage: one pass over the data for two factors of three
+  while (rest % 9 === 0) { radices.push(9); rest /= 9; }
   for (let p = 3; p * p <= rest; p += 2) {
     while (rest % p === 0) { radices.push(p); rest /= p; }
   }
@@ -97,7 +99,7 @@ interface Stage {
 }
 
 /** Radices with a written-out butterfly; other odd primes go through radixOdd. */
-const DIRECT_RADICES = new Set([2, 3, 4, 5, 8, 16]);
+const DIRECT_RADICES = new Set([2, 3, 4, 5, 8, 9, 16]);
 
 function makeStages(n: number, radices: readonly number[]): Stage[] {
   const stages: Stage[] = [];
@@ -239,6 +241,84 @@ function radix5(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
       yr[o3] = x3r * w3r - x3i * w3i; yi[o3] = x3r * w3i + x3i * w3r;
       const x4r = m1r - n1i, x4i = m1i + n1r;
       yr[o4] = x4r * w4r - x4i * w4i; yi[o4] = x4r * w4i + x4i * w4r;
+    }
+  }
+}
+
+/** ω_9^1, ω_9^2, ω_9^4 as (re, im) pairs: the inner twiddles of radix 9 */
+const ROOTS9 = new Float64Array(6);
+unitRoot(1, 9, ROOTS9, ROOTS9.subarray(1), 0);
+unitRoot(2, 9, ROOTS9, ROOTS9.subarray(1), 2);
+unitRoot(4, 9, ROOTS9, ROOTS9.subarray(1), 4);
+
+/**
+ * Radix 9 as 3 × 3: DFT3s over a_{r+3k}, k < 3, for each r < 3, inner twiddles ω_9^{r·t}, then DFT3s
+ * across r (X_{t + 3·t2}); one pass over the data where two radix-3 stages would make two.
+ */
+function radix9(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
+  tw: Float64Array): void {
+  const c = Math.sqrt(3) / 2;
+  const k1r = ROOTS9[0]!, k1i = ROOTS9[1]!, k2r = ROOTS9[2]!, k2i = ROOTS9[3]!, k4r = ROOTS9[4]!, k4i = ROOTS9[5]!;
+  const sm = s * m;
+  for (let j = 0; j < m; j++) {
+    const t = 16 * j;
+    const w1r = tw[t]!, w1i = tw[t + 1]!, w2r = tw[t + 2]!, w2i = tw[t + 3]!, w3r = tw[t + 4]!, w3i = tw[t + 5]!, w4r = tw[t + 6]!, w4i = tw[t + 7]!;
+    const w5r = tw[t + 8]!, w5i = tw[t + 9]!, w6r = tw[t + 10]!, w6i = tw[t + 11]!, w7r = tw[t + 12]!, w7i = tw[t + 13]!, w8r = tw[t + 14]!, w8i = tw[t + 15]!;
+    const inBase = s * j;
+    const outBase = 9 * s * j;
+    for (let q = 0; q < s; q++) {
+      const i0 = inBase + q;
+      const i1 = (i0 + sm) | 0, i2 = (i1 + sm) | 0, i3 = (i2 + sm) | 0, i4 = (i3 + sm) | 0, i5 = (i4 + sm) | 0, i6 = (i5 + sm) | 0, i7 = (i6 + sm) | 0, i8 = (i7 + sm) | 0;
+      const a0r = xr[i0]!, a0i = xi[i0]!, a1r = xr[i1]!, a1i = xi[i1]!, a2r = xr[i2]!, a2i = xi[i2]!, a3r = xr[i3]!, a3i = xi[i3]!;
+      const a4r = xr[i4]!, a4i = xi[i4]!, a5r = xr[i5]!, a5i = xi[i5]!, a6r = xr[i6]!, a6i = xi[i6]!, a7r = xr[i7]!, a7i = xi[i7]!;
+      const a8r = xr[i8]!, a8i = xi[i8]!;
+      // b_0t = DFT3(a0, a3, a6)[t]
+      const u0r = a3r + a6r, u0i = a3i + a6i, d0r = a3r - a6r, d0i = a3i - a6i;
+      const m0r = a0r - 0.5 * u0r, m0i = a0i - 0.5 * u0i;
+      const b00r = a0r + u0r, b00i = a0i + u0i;
+      const b01r = m0r + c * d0i, b01i = m0i - c * d0r, b02r = m0r - c * d0i, b02i = m0i + c * d0r;
+      // b_1t = DFT3(a1, a4, a7)[t], c_1t = ω_9^t·b_1t
+      const u1r = a4r + a7r, u1i = a4i + a7i, d1r = a4r - a7r, d1i = a4i - a7i;
+      const m1r = a1r - 0.5 * u1r, m1i = a1i - 0.5 * u1i;
+      const b10r = a1r + u1r, b10i = a1i + u1i;
+      const b11r = m1r + c * d1i, b11i = m1i - c * d1r, b12r = m1r - c * d1i, b12i = m1i + c * d1r;
+      const c11r = b11r * k1r - b11i * k1i, c11i = b11r * k1i + b11i * k1r;
+      const c12r = b12r * k2r - b12i * k2i, c12i = b12r * k2i + b12i * k2r;
+      // b_2t = DFT3(a2, a5, a8)[t], c_2t = ω_9^(2t)·b_2t
+      const u2r = a5r + a8r, u2i = a5i + a8i, d2r = a5r - a8r, d2i = a5i - a8i;
+      const m2r = a2r - 0.5 * u2r, m2i = a2i - 0.5 * u2i;
+      const b20r = a2r + u2r, b20i = a2i + u2i;
+      const b21r = m2r + c * d2i, b21i = m2i - c * d2r, b22r = m2r - c * d2i, b22i = m2i + c * d2r;
+      const c21r = b21r * k2r - b21i * k2i, c21i = b21r * k2i + b21i * k2r;
+      const c22r = b22r * k4r - b22i * k4i, c22i = b22r * k4i + b22i * k4r;
+      // X_(0+3·t2) = DFT3(b_00, b_10, b_20)[t2]
+      const v0r = b10r + b20r, v0i = b10i + b20i, e0r = b10r - b20r, e0i = b10i - b20i;
+      const n0r = b00r - 0.5 * v0r, n0i = b00i - 0.5 * v0i;
+      // X_(1+3·t2) = DFT3(b_01, c_11, c_21)[t2]
+      const v1r = c11r + c21r, v1i = c11i + c21i, e1r = c11r - c21r, e1i = c11i - c21i;
+      const n1r = b01r - 0.5 * v1r, n1i = b01i - 0.5 * v1i;
+      // X_(2+3·t2) = DFT3(b_02, c_12, c_22)[t2]
+      const v2r = c12r + c22r, v2i = c12i + c22i, e2r = c12r - c22r, e2i = c12i - c22i;
+      const n2r = b02r - 0.5 * v2r, n2i = b02i - 0.5 * v2i;
+      const o0 = outBase + q;
+      const o1 = (o0 + s) | 0, o2 = (o1 + s) | 0, o3 = (o2 + s) | 0, o4 = (o3 + s) | 0, o5 = (o4 + s) | 0, o6 = (o5 + s) | 0, o7 = (o6 + s) | 0, o8 = (o7 + s) | 0;
+      yr[o0] = b00r + v0r; yi[o0] = b00i + v0i;
+      const x1r = b01r + v1r, x1i = b01i + v1i;
+      yr[o1] = x1r * w1r - x1i * w1i; yi[o1] = x1r * w1i + x1i * w1r;
+      const x2r = b02r + v2r, x2i = b02i + v2i;
+      yr[o2] = x2r * w2r - x2i * w2i; yi[o2] = x2r * w2i + x2i * w2r;
+      const x3r = n0r + c * e0i, x3i = n0i - c * e0r;
+      yr[o3] = x3r * w3r - x3i * w3i; yi[o3] = x3r * w3i + x3i * w3r;
+      const x4r = n1r + c * e1i, x4i = n1i - c * e1r;
+      yr[o4] = x4r * w4r - x4i * w4i; yi[o4] = x4r * w4i + x4i * w4r;
+      const x5r = n2r + c * e2i, x5i = n2i - c * e2r;
+      yr[o5] = x5r * w5r - x5i * w5i; yi[o5] = x5r * w5i + x5i * w5r;
+      const x6r = n0r - c * e0i, x6i = n0i + c * e0r;
+      yr[o6] = x6r * w6r - x6i * w6i; yi[o6] = x6r * w6i + x6i * w6r;
+      const x7r = n1r - c * e1i, x7i = n1i + c * e1r;
+      yr[o7] = x7r * w7r - x7i * w7i; yi[o7] = x7r * w7i + x7i * w7r;
+      const x8r = n2r - c * e2i, x8i = n2i + c * e2r;
+      yr[o8] = x8r * w8r - x8i * w8i; yi[o8] = x8r * w8i + x8i * w8r;
     }
   }
 }
@@ -491,6 +571,7 @@ class MixedRadixPlan implements ComplexFftPlan {
         case 2: radix2(stride, span, xr, xi, yr, yi, twiddles); break;
         case 3: radix3(stride, span, xr, xi, yr, yi, twiddles); break;
         case 5: radix5(stride, span, xr, xi, yr, yi, twiddles); break;
+        case 9: radix9(stride, span, xr, xi, yr, yi, twiddles); break;
         default:
           radixOdd(radix, stride, span, xr, xi, yr, yi, twiddles, stage.rootRe!, stage.rootIm!,
             this.sumRe, this.sumIm, this.diffRe, this.diffIm);
