@@ -73,10 +73,13 @@ describe('complexFftPlan', () => {
     it.each<[number, string]>([
       [16, '16 alone'], [128, '16·8'], [256, '16·16'], [2048, '16·16·8'], [1024, '16·8·8'], [48, '16·3'],
       [80, '16·5'], [112, '16·7 (generic odd radix last)'], [40, '8·5'], [24, '8·3'], [32, '8·4'],
-      [12, '4·3'], [6, '2·3'], [10, '2·5'], [15, '3·5'], [35, '5·7'],
+      [6, '2·3'], [10, '2·5'], [15, '3·5'], [35, '5·7'],
       // radix 9 (one stage for each 3·3): last after powers of two, first before odd primes, in the middle
       [9, '9 alone'], [18, '2·9'], [72, '8·9'], [1152, '16·8·9'], [2304, '16·16·9'], [4608, '8·8·8·9'],
       [45, '9·5'], [81, '9·9'], [405, '9·9·5'], [27, '9·3'],
+      // radix 12 (a lone 3 with a 4, where that saves a stage): alone, first, middle and last
+      [12, '12 alone'], [60, '12·5'], [84, '12·7'], [960, '16·12·5'], [192, '16·12'], [1536, '16·8·12'],
+      [3072, '16·16·12'], [108, '9·12'], [24, '8·3 (no 12: 2·12 saves nothing)'],
     ])('should agree for N = %i (%s), forward and inverse', (n) => {
       const re = seeded(n, 13 * n), im = seeded(n, 17 * n + 3);
       const bound = TOLERANCE * l1(re, im);
