@@ -21,8 +21,15 @@ export interface RealFftPlan {
 
 export interface ComplexFftPlan {
   readonly size: number;
-  /** In place. `inverse` uses e^{+2πi·jk/n} and is unscaled (the caller divides by n). */
-  transform(re: Float64Array, im: Float64Array, inverse?: boolean): void;
+  /**
+   * In place. `inverse` uses e^{+2πi·jk/n} and is unscaled (the caller divides by n).
+   *
+   * `outputCount` (1..n, default n): only outputs k < outputCount are wanted. They are the same
+   * numbers, bit for bit, as a full transform gives; the elements from outputCount to n − 1 are left
+   * unspecified (partly computed, partly stale: the arrays are used as work space). The mixed-radix
+   * plans save the last stage's work for the rows past outputCount; Bluestein plans do it all.
+   */
+  transform(re: Float64Array, im: Float64Array, inverse?: boolean, outputCount?: number): void;
 }
 
 /** Prime factors up to this size are done as direct butterflies; larger ones go through Bluestein. */
@@ -31,6 +38,12 @@ const MAX_DIRECT_RADIX = 61;
 function checkSize(size: number): void {
   if (!Number.isInteger(size) || size < 1) {
     throw new RangeError(`size must be an integer ≥ 1, got ${size}`);
+  }
+}
+
+function checkOutputCount(count: number, size: number): void {
+  if (!Number.isInteger(count) || count < 1 || count > size) {
+    throw new RangeError(`outputCount must be an integer in 1..${size}, got ${count}`);
   }
 }
 
@@ -145,9 +158,13 @@ function makeStages(n: number, radices: readonly number[]): Stage[] {
 // Each stage reads x and writes y (decimation in frequency, Stockham autosort):
 // for sub-transform q < s and butterfly j < m, the inputs x[q + s·(j + r·m)], r < p, give outputs
 // y[q + s·(p·j + t)] = ω_L^{j·t} · Σ_r x[…r…]·ω_p^{r·t}.
+// rows: each butterfly computes and stores its outputs t < rows, and may do more: the written-out
+// ones skip whole groups of upper outputs (t ≥ 4 of radix 8, t ≥ 8 of 16 and 12, …), one branch
+// each, since a branch per output slowed full transforms by up to 10%. Only the last stage (m = 1,
+// whose output q + s·t is final) runs with rows < p, for a caller who needs a prefix of the outputs.
 
 function radix2(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
-  tw: Float64Array): void {
+  tw: Float64Array, rows: number): void {
   const sm = s * m;
   for (let j = 0; j < m; j++) {
     const t = 2 * j;
@@ -161,14 +178,16 @@ function radix2(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
       const o0 = outBase + q;
       const o1 = (o0 + s) | 0;
       yr[o0] = a0r + a1r; yi[o0] = a0i + a1i;
-      const x1r = a0r - a1r, x1i = a0i - a1i;
-      yr[o1] = x1r * w1r - x1i * w1i; yi[o1] = x1r * w1i + x1i * w1r;
+      if (rows > 1) {
+        const x1r = a0r - a1r, x1i = a0i - a1i;
+        yr[o1] = x1r * w1r - x1i * w1i; yi[o1] = x1r * w1i + x1i * w1r;
+      }
     }
   }
 }
 
 function radix3(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
-  tw: Float64Array): void {
+  tw: Float64Array, rows: number): void {
   const c = Math.sqrt(3) / 2;
   const sm = s * m;
   for (let j = 0; j < m; j++) {
@@ -187,14 +206,16 @@ function radix3(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
       yr[o0] = a0r + t1r; yi[o0] = a0i + t1i;
       const x1r = mr + c * t2i, x1i = mi - c * t2r;
       yr[o1] = x1r * w1r - x1i * w1i; yi[o1] = x1r * w1i + x1i * w1r;
-      const x2r = mr - c * t2i, x2i = mi + c * t2r;
-      yr[o2] = x2r * w2r - x2i * w2i; yi[o2] = x2r * w2i + x2i * w2r;
+      if (rows > 2) {
+        const x2r = mr - c * t2i, x2i = mi + c * t2r;
+        yr[o2] = x2r * w2r - x2i * w2i; yi[o2] = x2r * w2i + x2i * w2r;
+      }
     }
   }
 }
 
 function radix4(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
-  tw: Float64Array): void {
+  tw: Float64Array, rows: number): void {
   const sm = s * m;
   for (let j = 0; j < m; j++) {
     const t = 6 * j;
@@ -212,16 +233,18 @@ function radix4(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
       yr[o0] = t0r + t2r; yi[o0] = t0i + t2i;
       const x1r = t1r + t3i, x1i = t1i - t3r;
       yr[o1] = x1r * w1r - x1i * w1i; yi[o1] = x1r * w1i + x1i * w1r;
-      const x2r = t0r - t2r, x2i = t0i - t2i;
-      yr[o2] = x2r * w2r - x2i * w2i; yi[o2] = x2r * w2i + x2i * w2r;
-      const x3r = t1r - t3i, x3i = t1i + t3r;
-      yr[o3] = x3r * w3r - x3i * w3i; yi[o3] = x3r * w3i + x3i * w3r;
+      if (rows > 2) {
+        const x2r = t0r - t2r, x2i = t0i - t2i;
+        yr[o2] = x2r * w2r - x2i * w2i; yi[o2] = x2r * w2i + x2i * w2r;
+        const x3r = t1r - t3i, x3i = t1i + t3r;
+        yr[o3] = x3r * w3r - x3i * w3i; yi[o3] = x3r * w3i + x3i * w3r;
+      }
     }
   }
 }
 
 function radix5(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
-  tw: Float64Array): void {
+  tw: Float64Array, rows: number): void {
   const c1 = Math.cos((2 * Math.PI) / 5), c2 = Math.cos((4 * Math.PI) / 5);
   const s1 = Math.sin((2 * Math.PI) / 5), s2 = Math.sin((4 * Math.PI) / 5);
   const sm = s * m;
@@ -249,10 +272,14 @@ function radix5(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
       yr[o1] = x1r * w1r - x1i * w1i; yi[o1] = x1r * w1i + x1i * w1r;
       const x2r = m2r + n2i, x2i = m2i - n2r;
       yr[o2] = x2r * w2r - x2i * w2i; yi[o2] = x2r * w2i + x2i * w2r;
-      const x3r = m2r - n2i, x3i = m2i + n2r;
-      yr[o3] = x3r * w3r - x3i * w3i; yi[o3] = x3r * w3i + x3i * w3r;
-      const x4r = m1r - n1i, x4i = m1i + n1r;
-      yr[o4] = x4r * w4r - x4i * w4i; yi[o4] = x4r * w4i + x4i * w4r;
+      if (rows > 3) {
+        const x3r = m2r - n2i, x3i = m2i + n2r;
+        yr[o3] = x3r * w3r - x3i * w3i; yi[o3] = x3r * w3i + x3i * w3r;
+      }
+      if (rows > 4) {
+        const x4r = m1r - n1i, x4i = m1i + n1r;
+        yr[o4] = x4r * w4r - x4i * w4i; yi[o4] = x4r * w4i + x4i * w4r;
+      }
     }
   }
 }
@@ -268,7 +295,7 @@ unitRoot(4, 9, ROOTS9, ROOTS9.subarray(1), 4);
  * across r (X_{t + 3·t2}); one pass over the data where two radix-3 stages would make two.
  */
 function radix9(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
-  tw: Float64Array): void {
+  tw: Float64Array, rows: number): void {
   const c = Math.sqrt(3) / 2;
   const k1r = ROOTS9[0]!, k1i = ROOTS9[1]!, k2r = ROOTS9[2]!, k2i = ROOTS9[3]!, k4r = ROOTS9[4]!, k4i = ROOTS9[5]!;
   const sm = s * m;
@@ -325,12 +352,14 @@ function radix9(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
       yr[o4] = x4r * w4r - x4i * w4i; yi[o4] = x4r * w4i + x4i * w4r;
       const x5r = n2r + c * e2i, x5i = n2i - c * e2r;
       yr[o5] = x5r * w5r - x5i * w5i; yi[o5] = x5r * w5i + x5i * w5r;
-      const x6r = n0r - c * e0i, x6i = n0i + c * e0r;
-      yr[o6] = x6r * w6r - x6i * w6i; yi[o6] = x6r * w6i + x6i * w6r;
-      const x7r = n1r - c * e1i, x7i = n1i + c * e1r;
-      yr[o7] = x7r * w7r - x7i * w7i; yi[o7] = x7r * w7i + x7i * w7r;
-      const x8r = n2r - c * e2i, x8i = n2i + c * e2r;
-      yr[o8] = x8r * w8r - x8i * w8i; yi[o8] = x8r * w8i + x8i * w8r;
+      if (rows > 6) {
+        const x6r = n0r - c * e0i, x6i = n0i + c * e0r;
+        yr[o6] = x6r * w6r - x6i * w6i; yi[o6] = x6r * w6i + x6i * w6r;
+        const x7r = n1r - c * e1i, x7i = n1i + c * e1r;
+        yr[o7] = x7r * w7r - x7i * w7i; yi[o7] = x7r * w7i + x7i * w7r;
+        const x8r = n2r - c * e2i, x8i = n2i + c * e2r;
+        yr[o8] = x8r * w8r - x8i * w8i; yi[o8] = x8r * w8i + x8i * w8r;
+      }
     }
   }
 }
@@ -340,7 +369,7 @@ function radix9(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
  * across r (X_{t + 4·t2}); it takes the lone 3 of a length 2^a·3 together with a 4 in one pass.
  */
 function radix12(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
-  tw: Float64Array): void {
+  tw: Float64Array, rows: number): void {
   const c = Math.sqrt(3) / 2;
   const sm = s * m;
   for (let j = 0; j < m; j++) {
@@ -405,21 +434,23 @@ function radix12(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: F
       yr[o6] = x6r * w6r - x6i * w6i; yi[o6] = x6r * w6i + x6i * w6r;
       const x7r = n3r + c * e3i, x7i = n3i - c * e3r;
       yr[o7] = x7r * w7r - x7i * w7i; yi[o7] = x7r * w7i + x7i * w7r;
-      const x8r = n0r - c * e0i, x8i = n0i + c * e0r;
-      yr[o8] = x8r * w8r - x8i * w8i; yi[o8] = x8r * w8i + x8i * w8r;
-      const x9r = n1r - c * e1i, x9i = n1i + c * e1r;
-      yr[o9] = x9r * w9r - x9i * w9i; yi[o9] = x9r * w9i + x9i * w9r;
-      const x10r = n2r - c * e2i, x10i = n2i + c * e2r;
-      yr[o10] = x10r * w10r - x10i * w10i; yi[o10] = x10r * w10i + x10i * w10r;
-      const x11r = n3r - c * e3i, x11i = n3i + c * e3r;
-      yr[o11] = x11r * w11r - x11i * w11i; yi[o11] = x11r * w11i + x11i * w11r;
+      if (rows > 8) {
+        const x8r = n0r - c * e0i, x8i = n0i + c * e0r;
+        yr[o8] = x8r * w8r - x8i * w8i; yi[o8] = x8r * w8i + x8i * w8r;
+        const x9r = n1r - c * e1i, x9i = n1i + c * e1r;
+        yr[o9] = x9r * w9r - x9i * w9i; yi[o9] = x9r * w9i + x9i * w9r;
+        const x10r = n2r - c * e2i, x10i = n2i + c * e2r;
+        yr[o10] = x10r * w10r - x10i * w10i; yi[o10] = x10r * w10i + x10i * w10r;
+        const x11r = n3r - c * e3i, x11i = n3i + c * e3r;
+        yr[o11] = x11r * w11r - x11i * w11i; yi[o11] = x11r * w11i + x11i * w11r;
+      }
     }
   }
 }
 
 /** Radix 8 as two radix-4 butterflies on the even and odd inputs, joined by ω_8^t. */
 function radix8(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
-  tw: Float64Array): void {
+  tw: Float64Array, rows: number): void {
   const h = Math.SQRT1_2;
   const sm = s * m;
   for (let j = 0; j < m; j++) {
@@ -455,14 +486,16 @@ function radix8(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
       yr[o2] = x2r * w2r - x2i * w2i; yi[o2] = x2r * w2i + x2i * w2r;
       const x3r = e3r + r3r, x3i = e3i + r3i;
       yr[o3] = x3r * w3r - x3i * w3i; yi[o3] = x3r * w3i + x3i * w3r;
-      const x4r = e0r - o0r, x4i = e0i - o0i;
-      yr[o4] = x4r * w4r - x4i * w4i; yi[o4] = x4r * w4i + x4i * w4r;
-      const x5r = e1r - r1r, x5i = e1i - r1i;
-      yr[o5] = x5r * w5r - x5i * w5i; yi[o5] = x5r * w5i + x5i * w5r;
-      const x6r = e2r - o2i, x6i = e2i + o2r;
-      yr[o6] = x6r * w6r - x6i * w6i; yi[o6] = x6r * w6i + x6i * w6r;
-      const x7r = e3r - r3r, x7i = e3i - r3i;
-      yr[o7] = x7r * w7r - x7i * w7i; yi[o7] = x7r * w7i + x7i * w7r;
+      if (rows > 4) {
+        const x4r = e0r - o0r, x4i = e0i - o0i;
+        yr[o4] = x4r * w4r - x4i * w4i; yi[o4] = x4r * w4i + x4i * w4r;
+        const x5r = e1r - r1r, x5i = e1i - r1i;
+        yr[o5] = x5r * w5r - x5i * w5i; yi[o5] = x5r * w5i + x5i * w5r;
+        const x6r = e2r - o2i, x6i = e2i + o2r;
+        yr[o6] = x6r * w6r - x6i * w6i; yi[o6] = x6r * w6i + x6i * w6r;
+        const x7r = e3r - r3r, x7i = e3i - r3i;
+        yr[o7] = x7r * w7r - x7i * w7i; yi[o7] = x7r * w7i + x7i * w7r;
+      }
     }
   }
 }
@@ -472,7 +505,7 @@ function radix8(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Fl
  * twiddles ω_16^{r·t}, then DFT4s across r.
  */
 function radix16(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array,
-  tw: Float64Array): void {
+  tw: Float64Array, rows: number): void {
   const h = Math.SQRT1_2, c = Math.cos(Math.PI / 8), d = Math.sin(Math.PI / 8);
   const sm = s * m;
   for (let j = 0; j < m; j++) {
@@ -553,22 +586,24 @@ function radix16(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: F
       yr[o6] = x6r * w6r - x6i * w6i; yi[o6] = x6r * w6i + x6i * w6r;
       const x7r = v31r + v33i, x7i = v31i - v33r;
       yr[o7] = x7r * w7r - x7i * w7i; yi[o7] = x7r * w7i + x7i * w7r;
-      const x8r = v00r - v02r, x8i = v00i - v02i;
-      yr[o8] = x8r * w8r - x8i * w8i; yi[o8] = x8r * w8i + x8i * w8r;
-      const x9r = v10r - v12r, x9i = v10i - v12i;
-      yr[o9] = x9r * w9r - x9i * w9i; yi[o9] = x9r * w9i + x9i * w9r;
-      const x10r = v20r - v22r, x10i = v20i - v22i;
-      yr[o10] = x10r * w10r - x10i * w10i; yi[o10] = x10r * w10i + x10i * w10r;
-      const x11r = v30r - v32r, x11i = v30i - v32i;
-      yr[o11] = x11r * w11r - x11i * w11i; yi[o11] = x11r * w11i + x11i * w11r;
-      const x12r = v01r - v03i, x12i = v01i + v03r;
-      yr[o12] = x12r * w12r - x12i * w12i; yi[o12] = x12r * w12i + x12i * w12r;
-      const x13r = v11r - v13i, x13i = v11i + v13r;
-      yr[o13] = x13r * w13r - x13i * w13i; yi[o13] = x13r * w13i + x13i * w13r;
-      const x14r = v21r - v23i, x14i = v21i + v23r;
-      yr[o14] = x14r * w14r - x14i * w14i; yi[o14] = x14r * w14i + x14i * w14r;
-      const x15r = v31r - v33i, x15i = v31i + v33r;
-      yr[o15] = x15r * w15r - x15i * w15i; yi[o15] = x15r * w15i + x15i * w15r;
+      if (rows > 8) {
+        const x8r = v00r - v02r, x8i = v00i - v02i;
+        yr[o8] = x8r * w8r - x8i * w8i; yi[o8] = x8r * w8i + x8i * w8r;
+        const x9r = v10r - v12r, x9i = v10i - v12i;
+        yr[o9] = x9r * w9r - x9i * w9i; yi[o9] = x9r * w9i + x9i * w9r;
+        const x10r = v20r - v22r, x10i = v20i - v22i;
+        yr[o10] = x10r * w10r - x10i * w10i; yi[o10] = x10r * w10i + x10i * w10r;
+        const x11r = v30r - v32r, x11i = v30i - v32i;
+        yr[o11] = x11r * w11r - x11i * w11i; yi[o11] = x11r * w11i + x11i * w11r;
+        const x12r = v01r - v03i, x12i = v01i + v03r;
+        yr[o12] = x12r * w12r - x12i * w12i; yi[o12] = x12r * w12i + x12i * w12r;
+        const x13r = v11r - v13i, x13i = v11i + v13r;
+        yr[o13] = x13r * w13r - x13i * w13i; yi[o13] = x13r * w13i + x13i * w13r;
+        const x14r = v21r - v23i, x14i = v21i + v23r;
+        yr[o14] = x14r * w14r - x14i * w14i; yi[o14] = x14r * w14i + x14i * w14r;
+        const x15r = v31r - v33i, x15i = v31i + v33r;
+        yr[o15] = x15r * w15r - x15i * w15i; yi[o15] = x15r * w15i + x15i * w15r;
+      }
     }
   }
 }
@@ -577,7 +612,7 @@ function radix16(s: number, m: number, xr: Float64Array, xi: Float64Array, yr: F
 /** Any odd radix p: pairs r and p−r share a cosine and a sine, halving the multiplications. */
 function radixOdd(p: number, s: number, m: number, xr: Float64Array, xi: Float64Array, yr: Float64Array,
   yi: Float64Array, tw: Float64Array, rootRe: Float64Array, rootIm: Float64Array,
-  sumRe: Float64Array, sumIm: Float64Array, diffRe: Float64Array, diffIm: Float64Array): void {
+  sumRe: Float64Array, sumIm: Float64Array, diffRe: Float64Array, diffIm: Float64Array, rows: number): void {
   const half = (p - 1) >> 1;
   const sm = s * m;
   for (let j = 0; j < m; j++) {
@@ -597,7 +632,8 @@ function radixOdd(p: number, s: number, m: number, xr: Float64Array, xi: Float64
       }
       const o0 = outBase + q;
       yr[o0] = dcr; yi[o0] = dci;
-      for (let t = 1; t <= half; t++) {
+      // t < p − t: once t reaches rows, so has p − t
+      for (let t = 1; t <= half && t < rows; t++) {
         let mr = a0r, mi = a0i, nr = 0, ni = 0;
         for (let r = 1; r <= half; r++) {
           const u = (r * t) % p;
@@ -611,7 +647,7 @@ function radixOdd(p: number, s: number, m: number, xr: Float64Array, xi: Float64
         const wtr = tw[at]!, wti = tw[at + 1]!, wur = tw[au]!, wui = tw[au + 1]!;
         const ot = o0 + t * s, ou = o0 + (p - t) * s;
         yr[ot] = btr * wtr - bti * wti; yi[ot] = btr * wti + bti * wtr;
-        yr[ou] = bur * wur - bui * wui; yi[ou] = bur * wui + bui * wur;
+        if (p - t < rows) { yr[ou] = bur * wur - bui * wui; yi[ou] = bur * wui + bui * wur; }
       }
     }
   }
@@ -640,15 +676,16 @@ class MixedRadixPlan implements ComplexFftPlan {
     this.diffIm = new Float64Array(largest);
   }
 
-  transform(re: Float64Array, im: Float64Array, inverse = false): void {
+  transform(re: Float64Array, im: Float64Array, inverse = false, outputCount = this.size): void {
     checkBuffers(re, im, this.size, 'transform:');
+    checkOutputCount(outputCount, this.size);
     // ifft(x) = swap(fft(swap(x))), swap exchanging real and imaginary parts: one kernel serves both
     // directions, and swapping costs nothing when the kernel is handed the arrays the other way round.
-    if (inverse) this.forwardInPlace(im, re);
-    else this.forwardInPlace(re, im);
+    if (inverse) this.forwardInPlace(im, re, outputCount);
+    else this.forwardInPlace(re, im, outputCount);
   }
 
-  private forwardInPlace(re: Float64Array, im: Float64Array): void {
+  private forwardInPlace(re: Float64Array, im: Float64Array, outputCount: number): void {
     const stages = this.stages;
     const last = stages.length - 1;
     let xr = re, xi = im, yr = this.scratchRe, yi = this.scratchIm;
@@ -658,18 +695,20 @@ class MixedRadixPlan implements ComplexFftPlan {
       // any output, so it runs in place when its input is already the caller's arrays: no copy back.
       if (k === last) { yr = re; yi = im; }
       const { radix, stride, span, twiddles } = stage;
+      // the last stage's output q + stride·t, q < stride: rows t < ceil(outputCount/stride) are needed
+      const rows = k === last ? Math.min(radix, Math.ceil(outputCount / stride)) : radix;
       switch (radix) {
-        case 16: radix16(stride, span, xr, xi, yr, yi, twiddles); break;
-        case 8: radix8(stride, span, xr, xi, yr, yi, twiddles); break;
-        case 4: radix4(stride, span, xr, xi, yr, yi, twiddles); break;
-        case 2: radix2(stride, span, xr, xi, yr, yi, twiddles); break;
-        case 3: radix3(stride, span, xr, xi, yr, yi, twiddles); break;
-        case 5: radix5(stride, span, xr, xi, yr, yi, twiddles); break;
-        case 9: radix9(stride, span, xr, xi, yr, yi, twiddles); break;
-        case 12: radix12(stride, span, xr, xi, yr, yi, twiddles); break;
+        case 16: radix16(stride, span, xr, xi, yr, yi, twiddles, rows); break;
+        case 8: radix8(stride, span, xr, xi, yr, yi, twiddles, rows); break;
+        case 4: radix4(stride, span, xr, xi, yr, yi, twiddles, rows); break;
+        case 2: radix2(stride, span, xr, xi, yr, yi, twiddles, rows); break;
+        case 3: radix3(stride, span, xr, xi, yr, yi, twiddles, rows); break;
+        case 5: radix5(stride, span, xr, xi, yr, yi, twiddles, rows); break;
+        case 9: radix9(stride, span, xr, xi, yr, yi, twiddles, rows); break;
+        case 12: radix12(stride, span, xr, xi, yr, yi, twiddles, rows); break;
         default:
           radixOdd(radix, stride, span, xr, xi, yr, yi, twiddles, stage.rootRe!, stage.rootIm!,
-            this.sumRe, this.sumIm, this.diffRe, this.diffIm);
+            this.sumRe, this.sumIm, this.diffRe, this.diffIm, rows);
       }
       const tr = xr, ti = xi;
       xr = yr; xi = yi; yr = tr; yi = ti;
@@ -733,9 +772,10 @@ class BluesteinPlan implements ComplexFftPlan {
     this.workIm = new Float64Array(m);
   }
 
-  transform(re: Float64Array, im: Float64Array, inverse = false): void {
+  transform(re: Float64Array, im: Float64Array, inverse = false, outputCount = this.size): void {
     const n = this.size;
     checkBuffers(re, im, n, 'transform:');
+    checkOutputCount(outputCount, n);
     if (inverse) this.forward(im, re);
     else this.forward(re, im);
   }

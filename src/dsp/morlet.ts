@@ -389,7 +389,7 @@ class MorletPlanImpl implements MorletPlan {
 
   /**
    * Frequency j's convolution (after transformSignal): w[i·decimation] at re/im[i·step], i < timeCount,
-   * and the step.
+   * and the step. Elements past (timeCount − 1)·step are left unspecified.
    */
   private convolve(j: number, re = this.workRe, im = this.workIm): number {
     const w = this.work[j]!;
@@ -399,7 +399,8 @@ class MorletPlanImpl implements MorletPlan {
       multiplyHermitian(w.size, w.signal.re, w.signal.im, w.spectrum, this.foldRe, this.foldIm);
       foldSpectrum(this.foldRe, this.foldIm, w.size / w.fold, w.fold, re, im);
     }
-    w.inverse.transform(re, im, true);
+    // only outputs i·step, i < timeCount, are read: a prefix of the inverse transform
+    w.inverse.transform(re, im, true, (this.timeCount - 1) * w.step + 1);
     return w.step;
   }
 

@@ -104,6 +104,36 @@ describe('complexFftPlan', () => {
     });
   });
 
+  // outputCount only lets the last stage skip rows of outputs past the count; the outputs it does
+  // compute go through the same operations, so they must equal the full transform's bit for bit.
+  describe('when only a prefix of the outputs is asked for (outputCount)', () => {
+    it.each<[number, string]>([
+      [2, '2 alone'], [4, '4 alone'], [32, '8·4'], [16, '16 alone'], [128, '16·8'], [2048, '16·16·8'],
+      [256, '16·16'], [48, '16·3'], [80, '16·5'], [1280, '16·16·5'], [1152, '16·8·9'], [1536, '16·8·12'],
+      [112, '16·7 (generic odd radix)'], [35, '5·7'], [67, 'Bluestein'],
+    ])('should equal the full transform on outputs 0..count−1 for N = %i (%s)', (n) => {
+      const re = seeded(n, 19 * n), im = seeded(n, 23 * n + 5);
+      const counts = n <= 128 ? Array.from({ length: n }, (_, k) => k + 1) : [1, 2, 127, 128, 129, 500, 1000, n >> 1, n - 1, n].filter((c) => c <= n);
+      for (const inverse of [false, true]) {
+        const fr = re.slice(), fi = im.slice();
+        complexFftPlan(n).transform(fr, fi, inverse);
+        for (const count of counts) {
+          const xr = re.slice(), xi = im.slice();
+          complexFftPlan(n).transform(xr, xi, inverse, count);
+          expect(Array.from(xr.subarray(0, count))).toEqual(Array.from(fr.subarray(0, count)));
+          expect(Array.from(xi.subarray(0, count))).toEqual(Array.from(fi.subarray(0, count)));
+        }
+      }
+    });
+
+    it('should reject a count outside 1..N', () => {
+      const re = new Float64Array(16), im = new Float64Array(16);
+      expect(() => complexFftPlan(16).transform(re, im, true, 0)).toThrow(/outputCount/);
+      expect(() => complexFftPlan(16).transform(re, im, true, 17)).toThrow(RangeError);
+      expect(() => complexFftPlan(67).transform(new Float64Array(67), new Float64Array(67), false, 2.5)).toThrow(/outputCount/);
+    });
+  });
+
   // X_k = Σ_j x_j·e^{−2πi·jk/N} evaluated by hand: a constant gives N·δ_k, an impulse at 0 gives 1,
   // (1, 0, −1, 0, …) gives N/2 at k = N/4 and 3N/4, and (−1)^j gives N·δ_{k−N/2}. For powers of two
   // every twiddle these touch is a quarter turn or multiplies a zero, so the values must be exact.
