@@ -40,8 +40,11 @@ export interface ChannelWork {
   frequencies: Float64Array;
   edgeMask: Uint8Array | null;
   extra: Partial<TimeFrequencyBlock>;
-  /** `out`, when given, may receive the power (the result says where it is) */
-  transform: (x: Float64Array, out?: Float64Array) => { power: Float64Array; re?: Float64Array; im?: Float64Array };
+  /**
+   * One trial's power. Given `sum`, the transform may add the power into it and return `sum` as
+   * `power`; otherwise `power` is the trial's own matrix.
+   */
+  transform: (x: Float64Array, sum?: Float64Array) => { power: Float64Array; re?: Float64Array; im?: Float64Array };
 }
 
 export interface ChannelOutcome {
@@ -96,7 +99,7 @@ export function createChannelWork(setup: ChannelSetup): ChannelWork {
       frequencies: plan.frequencies,
       edgeMask: plan.edgeMask,
       extra: { edgeSigmas: plan.edgeSigmas, powerFactor: POWER_FACTOR, cycles: Array.from(plan.cycles) },
-      transform: withPhase ? (x) => plan.powerAndCoefficients(x) : (x, out) => ({ power: plan.power(x, out) }),
+      transform: withPhase ? (x) => plan.powerAndCoefficients(x) : (x, sum) => ({ power: sum ? plan.power(x, sum, true) : plan.power(x) }),
     };
   } else {
     const d = setup.derived;
@@ -142,16 +145,16 @@ export function computeChannel(setup: ChannelSetup, work: ChannelWork, c: number
   const trials: Float64Array[] = [];
   const re: Float64Array[] = [];
   const im: Float64Array[] = [];
-  // A plain trial average needs no trial kept: each trial's power goes into one scratch matrix and
-  // is added to the sum in trial order, the same additions as summing the kept trials.
+  // A plain trial average needs no trial kept: each trial's power is added to the sum in trial
+  // order as it comes (by the transform itself where it can), the same additions as summing the
+  // kept trials.
   const keepTrials = Boolean(recipe.baseline) || recipe.perTrial;
-  const scratch = keepTrials ? undefined : new Float64Array(T * F);
   let average: Float64Array = new Float64Array(T * F);
   for (let i = 0; i < setup.used.length; i++) {
     beforeTrial();
-    const w = work.transform(trial(i), scratch);
+    const w = work.transform(trial(i), keepTrials ? undefined : average);
     if (keepTrials) trials.push(w.power);
-    else for (let k = 0; k < average.length; k++) average[k]! += w.power[k]!;
+    else if (w.power !== average) for (let k = 0; k < average.length; k++) average[k]! += w.power[k]!;
     if (w.re && w.im) {
       re.push(w.re);
       im.push(w.im);

@@ -347,6 +347,21 @@ describe('morletPower', () => {
       expect(Array.from(plan.power(b))).toEqual(Array.from(morletPower(b, options).power));
     });
 
+    it('should add each power to what out holds when accumulating, bit for bit the sum of separate calls', () => {
+      // an odd frequency count exercises the paired writes and the single last one
+      const plan = createMorletPlan(400, { samplingRate: 200, frequencies: [3, 7, 12, 20, 33], cycles: 5 });
+      const trials = [noise(400, 4), noise(400, 5), noise(400, 6)];
+      const expected = new Float64Array(plan.timeCount * plan.frequencyCount);
+      for (const x of trials) {
+        const p = plan.power(x);
+        for (let k = 0; k < expected.length; k++) expected[k]! += p[k]!;
+      }
+      const sum = new Float64Array(expected.length);
+      for (const x of trials) expect(plan.power(x, sum, true)).toBe(sum);
+      expect(Array.from(sum)).toEqual(Array.from(expected));
+      expect(() => plan.power(trials[0]!, undefined, true)).toThrow(/accumulate needs an out array/);
+    });
+
     it('should give the same bits from one combined pass as from power() and coefficients()', () => {
       const plan = createMorletPlan(500, { samplingRate: 250, frequencies: [4, 10, 30], cycles: 6 });
       const x = noise(500, 3);
