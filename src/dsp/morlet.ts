@@ -98,6 +98,8 @@ export interface MorletPlan {
   /**
    * P = 2·|w|², unit², [time][frequency]: power[i·frequencyCount + j]. With `accumulate`, P is
    * added to what `out` holds (out[k] + P, the same addition a separate sum of trials makes).
+   * @throws RangeError when `out` has fewer than timeCount·frequencyCount elements; TypeError when
+   *   `accumulate` is given without `out`
    */
   power(x: Float64Array, out?: Float64Array, accumulate?: boolean): Float64Array;
   /** unit-gain coefficients w (no factor 2), [time][frequency]; A·cos(2πft+φ) gives ≈ (A/2)e^{i(2πft+φ)} */
@@ -200,7 +202,9 @@ function transformLength(n: number): number {
 /**
  * Transform length L ≥ n when only every d-th output is read, and the fold: d when d divides L (the
  * outputs then come from an L/d-point inverse, see foldSpectrum), else 1. L is transformLength(n)
- * when d divides it, else d·transformLength(ceil(n/d)) unless that is over twice as long.
+ * when d divides it, else d·transformLength(ceil(n/d)) unless that is over twice as long. The fold-1
+ * fallback only happens when d ≥ n (checked for n ≤ 6000): then a single output, index 0, is read, so
+ * the output stride `step` exceeds 1 only when there is one output time.
  */
 function foldedLength(n: number, d: number): { size: number; fold: number } {
   const plain = transformLength(n);
@@ -538,8 +542,9 @@ function writeCoefficients(re: Float64Array, im: Float64Array, step: number, T: 
  *
  * @param length - samples per epoch, integer ≥ 1
  * @param options - see {@link MorletOptions}
- * @returns the plan, with frequencies, cycles, σ_t (s), σ_f (Hz), times (s), edge mask, `power(x)`
- *   (2·|w|², unit², [time][frequency]) and `coefficients(x)` (unit-gain w)
+ * @returns the plan, with frequencies, cycles, σ_t (s), σ_f (Hz), times (s), edge mask,
+ *   `power(x, out?, accumulate?)` (2·|w|², unit², [time][frequency]), `coefficients(x)` (unit-gain w)
+ *   and `powerAndCoefficients(x)` (both from one set of convolutions)
  * @throws RangeError / TypeError naming the offending option
  * @see Tallon-Baudry et al. (1996), J. Neurosci. 16:4240–4249; Cohen (2019), NeuroImage 199:81–86
  */

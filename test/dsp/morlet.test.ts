@@ -218,6 +218,11 @@ describe('morletPower', () => {
       const plan = createMorletPlan(length, { samplingRate: fs, frequencies, cycles: 7, decimation });
       expect(plan.timeCount).toBe(Math.ceil(length / decimation));
       const w = plan.powerAndCoefficients(x);
+      // power() writes frequencies in pairs and can accumulate: the same bits as the combined pass
+      expect(Array.from(plan.power(x))).toEqual(Array.from(w.power));
+      const twice = plan.power(x);
+      plan.power(x, twice, true);
+      expect(Array.from(twice)).toEqual(Array.from(w.power, (p) => p + p));
       frequencies.forEach((f, j) => {
         const d = direct(x, fs, f, 7);
         const keep = (v: Float64Array): Float64Array => Float64Array.from({ length: plan.timeCount }, (_, i) => v[i * decimation]!);
