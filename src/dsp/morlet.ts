@@ -213,8 +213,19 @@ function foldedLength(n: number, d: number): { size: number; fold: number } {
   return folded <= 2 * plain ? { size: folded, fold: d } : { size: plain, fold: 1 };
 }
 
-const SPECTRUM_CACHE_LIMIT = 256;
+/**
+ * Bytes of wavelet spectra kept per thread, oldest dropped first. Counted in bytes, not entries: one
+ * spectrum of a long continuous epoch can be 8 MB (2^20 points), a typical 40-frequency plan's
+ * spectra about 0.5 MB in all. A plan keeps its own spectra whatever the cache drops.
+ */
+export const SPECTRUM_CACHE_BYTES = 64 * 1024 * 1024;
 const spectrumCache = new Map<string, Float64Array>();
+let spectrumCacheBytes = 0;
+
+/** Bytes the wavelet-spectrum cache of this thread holds now (never above SPECTRUM_CACHE_BYTES unless one spectrum is larger). */
+export function waveletCacheBytes(): number {
+  return spectrumCacheBytes;
+}
 
 /**
  * DFT (length L = fftLength), divided by L, of the central part of the wavelet laid out around
@@ -243,8 +254,13 @@ function waveletSpectrum(fftLength: number, kept: number, samplingRate: number, 
     // the inverse transform is unscaled: 1/L goes in here, once
     for (let k = 0; k < fftLength; k++) re[k] = re[k]! / fftLength;
     entry = re;
-    if (spectrumCache.size >= SPECTRUM_CACHE_LIMIT) spectrumCache.delete(spectrumCache.keys().next().value!);
+    for (const [oldest, spectrum] of spectrumCache) {
+      if (spectrumCacheBytes + entry.byteLength <= SPECTRUM_CACHE_BYTES) break;
+      spectrumCache.delete(oldest);
+      spectrumCacheBytes -= spectrum.byteLength;
+    }
     spectrumCache.set(key, entry);
+    spectrumCacheBytes += entry.byteLength;
   }
   return entry;
 }

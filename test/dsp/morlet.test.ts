@@ -6,6 +6,8 @@ import {
   morletPower,
   morletWavelet,
   POWER_FACTOR,
+  SPECTRUM_CACHE_BYTES,
+  waveletCacheBytes,
   type MorletOptions,
 } from '../../src/dsp/morlet.js';
 import { complexFftPlan } from '../../src/dsp/fft.js';
@@ -365,6 +367,20 @@ describe('morletPower', () => {
       for (const x of trials) expect(plan.power(x, sum, true)).toBe(sum);
       expect(Array.from(sum)).toEqual(Array.from(expected));
       expect(() => plan.power(trials[0]!, undefined, true)).toThrow(/accumulate needs an out array/);
+    });
+
+    it('should keep its wavelet-spectrum cache within its byte budget, and plans working after evictions', () => {
+      // 2^17-sample epochs: each spectrum is about 1–2 MB, so 60 distinct frequencies overflow 64 MiB.
+      const length = 1 << 17;
+      const x = noise(length, 9);
+      const first = createMorletPlan(length, { samplingRate: 1000, frequencies: [40], cycles: 7 });
+      const before = first.power(x);
+      for (let k = 0; k < 60; k++) {
+        createMorletPlan(length, { samplingRate: 1000, frequencies: [41 + k], cycles: 7 });
+        expect(waveletCacheBytes()).toBeLessThanOrEqual(SPECTRUM_CACHE_BYTES);
+      }
+      // the first plan's spectrum has left the cache; the plan still holds it and gives the same bits
+      expect(Array.from(first.power(x))).toEqual(Array.from(before));
     });
 
     it('should give the same bits from one combined pass as from power() and coefficients()', () => {
