@@ -35,6 +35,8 @@ export class EmbeddedQueue implements JobQueue {
   private readonly concurrency: number;
   private readonly finishedListeners = new Set<(job: JobView, spec: JobSpec) => void>();
   private readonly maxAttempts: number;
+  /** job-state writes not yet finished; close() waits for them */
+  private readonly writes = new Set<Promise<void>>();
 
   private constructor(private readonly options: EmbeddedQueueOptions) {
     this.concurrency = options.concurrency ?? options.pool.threads;
@@ -132,9 +134,15 @@ export class EmbeddedQueue implements JobQueue {
     return !this.closed && (await this.options.store.ping());
   }
 
+  /**
+   * Stops taking work, abandons running computations (they resume on restart) and waits for the
+   * job-state writes already under way, so that a restart reads the last state the process gave a
+   * job (a fault test once found an interrupted job resumed with its attempt not counted).
+   */
   async close(): Promise<void> {
     this.closed = true;
     for (const entry of this.entries.values()) entry.abort?.abort();
+    await Promise.allSettled([...this.writes]);
   }
 
   private pump(): void {
@@ -207,6 +215,9 @@ export class EmbeddedQueue implements JobQueue {
    */
   private persist(entry: Entry): Promise<void> {
     const durable = entry.view.state === 'queued' || entry.view.state === 'running';
-    return this.options.store.putDocument('jobs', entry.view.id, JSON.stringify({ view: entry.view, spec: entry.spec }), { durable });
+    const write = this.options.store.putDocument('jobs', entry.view.id, JSON.stringify({ view: entry.view, spec: entry.spec }), { durable });
+    const tracked = write.then(() => undefined, () => undefined).finally(() => this.writes.delete(tracked));
+    this.writes.add(tracked);
+    return write;
   }
 }
