@@ -28,7 +28,7 @@ export const ABORT = 3;
 const CONTROL_SLOTS = 4;
 
 /** Helper threads that have had no work for this long are ended. */
-export const HELPER_IDLE_MS = 30_000;
+const HELPER_IDLE_MS = 30_000;
 /** With no trial finished on any thread for this long, the helpers are taken to be lost. */
 const STALL_MS = 120_000;
 const POLL_MS = 50;

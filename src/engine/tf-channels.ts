@@ -16,7 +16,8 @@ import type { ConnectivityRecipe, SpectrogramRecipe, TimeFrequencyRecipe } from 
 import type { ResolvedRecipe } from '../recipes/resolve.js';
 import type { Attachment, TimeFrequencyResult } from './record.js';
 
-export const PHASE_ALPHA = 0.05;
+/** Level of the no-effect thresholds in time–frequency records: phase consistency and coherence. */
+export const NULL_ALPHA = 0.05;
 
 type TimeFrequencyBlock = NonNullable<TimeFrequencyResult['timeFrequency']>;
 
@@ -192,7 +193,7 @@ export function computeChannel(setup: ChannelSetup, work: ChannelWork, c: number
       attachments.push(attachment(`trials-${c}`, 'trialPower', name, [perTrial.length, T, F], stacked));
     }
     if (re.length > 0) {
-      const pc = phaseConsistency(re, im, { alpha: PHASE_ALPHA, ...(edgeMask ? { exclude: edgeMask } : {}) });
+      const pc = phaseConsistency(re, im, { alpha: NULL_ALPHA, ...(edgeMask ? { exclude: edgeMask } : {}) });
       attachments.push(attachment(`phase-consistency-${c}`, 'phaseConsistency', name, [T, F], pc.values));
       outcome.phaseConsistencyNull = { ...pc.null, threshold: pc.threshold, alpha: pc.alpha };
     }

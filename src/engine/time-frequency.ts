@@ -7,7 +7,7 @@ import { computeChannels } from './fan-out.js';
 import { screenGaps } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
 import type { Attachment, SkippedEpoch, TimeFrequencyResult } from './record.js';
-import { attachment, createChannelWork, PHASE_ALPHA, taperOptions, type ChannelSetup } from './tf-channels.js';
+import { attachment, createChannelWork, NULL_ALPHA, taperOptions, type ChannelSetup } from './tf-channels.js';
 
 interface Context {
   onProgress?: (fraction: number) => void;
@@ -59,7 +59,7 @@ export function analyzeTimeFrequency(
   const F = frequencies.length;
   const attachments: Attachment[] = [];
   if (edgeMask && recipe.output === 'matrix') attachments.push(attachment('edge-mask', 'edgeMask', null, [T, F], edgeMask));
-  const { outcomes, threads } = computeChannels(setup, work, signal, { threads: context.threads ?? 1, ...context });
+  const { outcomes, threads } = computeChannels(setup, work, signal, { ...context, threads: context.threads ?? 1 });
   let baselineInfo: NonNullable<TimeFrequencyResult['timeFrequency']>['baseline'] = null;
   let pcNull: NonNullable<TimeFrequencyResult['timeFrequency']>['phaseConsistencyNull'];
   for (const outcome of outcomes) {
@@ -68,7 +68,6 @@ export function analyzeTimeFrequency(
     baselineInfo = outcome.baseline ?? baselineInfo;
     pcNull = outcome.phaseConsistencyNull ?? pcNull;
   }
-  const origin = recipe.epoching?.mode === 'events' ? recipe.epoching.beforeSeconds : 0;
   const result: TimeFrequencyResult = {
     units: { power: recipe.method === 'morlet' ? `${signal.unit}^2` : `${signal.unit}^2/Hz`, normalized: recipe.baseline ? recipe.baseline.mode : 'none', frequency: 'Hz', time: 's' },
     frequencies: Array.from(frequencies),
@@ -76,7 +75,7 @@ export function analyzeTimeFrequency(
     timeFrequency: {
       method: recipe.method,
       times: Array.from(shifted),
-      timeOrigin: origin !== 0 || recipe.epoching?.mode === 'events' ? 'event' : 'epoch-start',
+      timeOrigin: recipe.epoching?.mode === 'events' ? 'event' : 'epoch-start',
       trials: used.length,
       baseline: baselineInfo,
       ...extra,
@@ -103,7 +102,7 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
     ...taperOptions(recipe),
     ...(pairs ? { pairs } : {}),
     bands: recipe.bands,
-    alpha: PHASE_ALPHA,
+    alpha: NULL_ALPHA,
   });
   const [lo, hi] = derived.frequencyRange;
   const keep = Array.from(r.frequencies.keys()).filter((k) => r.frequencies[k]! >= lo && r.frequencies[k]! <= hi);
