@@ -137,7 +137,7 @@ describe('complexFftPlan', () => {
   // X_k = Σ_j x_j·e^{−2πi·jk/N} evaluated by hand: a constant gives N·δ_k, an impulse at 0 gives 1,
   // (1, 0, −1, 0, …) gives N/2 at k = N/4 and 3N/4, and (−1)^j gives N·δ_{k−N/2}. For powers of two
   // every twiddle these touch is a quarter turn or multiplies a zero, so the values must be exact.
-  describe('when given real inputs whose DFT is exact, at powers of two', () => {
+  describe('when given real inputs whose DFT is exact, at powers of two (values worked by hand from the DFT definition)', () => {
     const cases: [string, (j: number) => number, (k: number, n: number) => number][] = [
       ['a constant', () => 1, (k, n) => (k === 0 ? n : 0)],
       ['an impulse at 0', (j) => (j === 0 ? 1 : 0), () => 1],
