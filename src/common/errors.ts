@@ -40,3 +40,48 @@ export type ProblemCode = keyof typeof PROBLEMS;
 export function problemType(code: ProblemCode): string {
   return `/problems/${code}`;
 }
+
+/** Options of a {@link DomainError}. */
+export interface DomainErrorOptions {
+  /** RFC 6901 JSON pointer of the offending input, relative to where the thrower sees it */
+  pointer?: string | null;
+  /** further problem members (RFC 9457 extensions), e.g. `{ allowed: [...] }` */
+  extensions?: Record<string, unknown>;
+  /** extra response headers (e.g. Retry-After) */
+  headers?: Record<string, string>;
+  cause?: unknown;
+}
+
+/**
+ * The one error type of the domain: a registered problem code, a detail in words and, where there
+ * is one, the JSON pointer of the input at fault. Every layer above the numerical core throws it;
+ * HTTP and the queues translate it to RFC 9457 the same way. A caller that knows where the thrower's
+ * input sat in a larger document prefixes the pointer with {@link DomainError.under}.
+ */
+export class DomainError extends Error {
+  override readonly name = 'DomainError';
+  readonly pointer: string | null;
+  readonly extensions: Record<string, unknown>;
+  readonly headers: Record<string, string>;
+  constructor(
+    readonly code: ProblemCode,
+    readonly detail: string,
+    options: DomainErrorOptions = {},
+  ) {
+    super(detail, options.cause === undefined ? undefined : { cause: options.cause });
+    this.pointer = options.pointer ?? null;
+    this.extensions = options.extensions ?? {};
+    this.headers = options.headers ?? {};
+  }
+
+  get status(): number {
+    return PROBLEMS[this.code].status;
+  }
+
+  /** The same error located inside a larger document: `prefix` + this pointer. */
+  under(prefix: string): DomainError {
+    if (this.pointer === null || prefix === '') return this;
+    const pointer = this.pointer === '/' ? prefix : prefix + this.pointer;
+    return new DomainError(this.code, this.detail, { pointer, extensions: this.extensions, headers: this.headers, cause: this.cause });
+  }
+}
