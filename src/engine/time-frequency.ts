@@ -117,7 +117,7 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
       segmentCount: r.segmentCount,
       taperCount: r.taperCount,
       effectiveSegments: r.effectiveSegments,
-      // Under independence E[MSC] ≈ 1/n and the level-α threshold is 1 − α^{1/(n−1)} (Carter et al. 1973; REFERENCES.md §7).
+      // Under independence E[MSC] ≈ 1/n and the level-α threshold is 1 − α^{1/(n−1)} (Carter et al. 1973; docs/references.md §7).
       coherenceBias: r.coherenceBias,
       coherenceThreshold: r.coherenceThreshold,
       alpha: r.alpha,

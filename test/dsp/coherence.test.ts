@@ -33,7 +33,7 @@ describe('crossSpectralConnectivity', () => {
   });
 
   describe('when the channels are independent white noise (seeded Monte Carlo)', () => {
-    it('should average to 1/n and exceed 1 − α^{1/(n−1)} in about α of bins (16 non-overlapped segments; REFERENCES.md §7: 0.0625 and 0.181036)', () => {
+    it('should average to 1/n and exceed 1 − α^{1/(n−1)} in about α of bins (16 non-overlapped segments; docs/references.md §7: 0.0625 and 0.181036)', () => {
       const random = createRandom(16);
       const values: number[] = [];
       let result;
@@ -64,7 +64,7 @@ describe('crossSpectralConnectivity', () => {
         });
         for (let k = 1; k < 64; k++) { sum += result.coherence[0]![k]!; count++; }
       }
-      // ν = 36·16²/(19·16 − 1) = 30.416 (REFERENCES.md §2), n_eff = ν/2 = 15.21; REFERENCES §7 reports a
+      // ν = 36·16²/(19·16 − 1) = 30.416 (docs/references.md §2), n_eff = ν/2 = 15.21; docs/references.md §7 reports a
       // Monte Carlo mean of 0.0647 for this case (informative, no closed form)
       expect(result!.segmentCount).toBe(16);
       expect(result!.effectiveSegments).toBeCloseTo((36 * 256) / (19 * 16 - 1) / 2, 9);

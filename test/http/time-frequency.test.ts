@@ -80,7 +80,7 @@ describe('when the recipe asks for Morlet power around events', () => {
     const late = (name: string) => record.result.channels.find((c: { name: string }) => c.name === name).summary[1].value;
     // Burst power A²/2 = 4.5 µV² against the white noise a unit-gain 7-cycle wavelet passes,
     // 2σ²·Σψ̃² = σ²/(√π·σ_t·fs) = 0.25/(√π·0.1114·250) ≈ 0.005 µV²: about 29 dB at the burst centre
-    // (σ_t = n/(2πf), REFERENCES.md §7); 10 dB is a wide margin below it.
+    // (σ_t = n/(2πf), docs/references.md §7); 10 dB is a wide margin below it.
     expect(burst('O1')).toBeGreaterThan(10);
     expect(burst('O2')).toBeGreaterThan(10);
     expect(Math.abs(late('O1'))).toBeLessThan(3);
@@ -154,7 +154,7 @@ describe('when the recipe asks for connectivity', () => {
     const pair = (a: string, b: string) => c.pairs.find((p: { channels: string[] }) => p.channels[0] === a && p.channels[1] === b);
     const mean = (v: (number | null)[]) => v.filter((x): x is number => x !== null).reduce((s, x) => s + x, 0) / v.length;
     expect(mean(pair('C3', 'C4').coherence)).toBeGreaterThan(0.95);
-    // Independent Gaussian signals, n non-overlapped segments: E[MSC] = 1/n (Carter et al. 1973; REFERENCES.md §7).
+    // Independent Gaussian signals, n non-overlapped segments: E[MSC] = 1/n (Carter et al. 1973; docs/references.md §7).
     expect(c.coherenceBias).toBeCloseTo(1 / c.effectiveSegments, 12);
     expect(mean(pair('C3', 'Pz').coherence)).toBeLessThan(3 / c.effectiveSegments);
   });
