@@ -159,3 +159,33 @@ describe('when the recipe asks for connectivity', () => {
     expect(mean(pair('C3', 'Pz').coherence)).toBeLessThan(3 / c.effectiveSegments);
   });
 });
+
+describe('when connectivity meets flat channels', () => {
+  it('should succeed with null values and a warning naming them, never failing on NaN', async () => {
+    // Two flat channels (a disconnected electrode reading zero, one stuck at a constant) beside a live
+    // one. 0/0 is undefined, as scipy.signal.coherence gives NaN (docs/references.md §7); before the
+    // fix NaN band values reached the canonical JSON and the job failed after every retry.
+    const random = createRandom(31);
+    const n = 16 * fs;
+    const signal = {
+      samplingRate: fs,
+      channels: ['Fz', 'Cz', 'Pz'],
+      data: [Array.from({ length: n }, () => random.normal()), new Array<number>(n).fill(0), new Array<number>(n).fill(12.5)],
+    };
+    const { job, record } = await run(
+      { method: 'connectivity', segmentSeconds: 1, overlap: 0.5, bands: [{ name: 'alpha', low: 8, high: 13 }], epoching: { mode: 'fixed', lengthSeconds: 4 } },
+      signal,
+    );
+    expect(job.state).toBe('succeeded');
+    const c = record.result.connectivity;
+    for (const pair of c.pairs) {
+      expect(pair.coherence.every((v: number | null) => v === null)).toBe(true);
+      expect(pair.imaginaryCoherency.every((v: number | null) => v === null)).toBe(true);
+      expect(pair.phaseLocking.every((v: number | null) => v === null)).toBe(true);
+      expect(pair.bands[0]).toMatchObject({ coherence: null, imaginaryCoherency: null, phaseLocking: null });
+    }
+    const warnings = record.result.warnings.join('\n');
+    expect(warnings).toMatch(/channel Cz is flat/);
+    expect(warnings).toMatch(/channel Pz is flat/);
+  });
+});
