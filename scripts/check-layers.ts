@@ -22,7 +22,7 @@ const ALLOWED: Record<string, string[]> = {
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */
-const DSP_PACKAGES = new Set(['fft.js']);
+const DSP_PACKAGES = new Set<string>();
 
 function layerOf(file: string): string {
   const rel = relative(SRC, file).split(sep);

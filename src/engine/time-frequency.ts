@@ -106,7 +106,13 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
   });
   const [lo, hi] = derived.frequencyRange;
   const keep = Array.from(r.frequencies.keys()).filter((k) => r.frequencies[k]! >= lo && r.frequencies[k]! <= hi);
-  const pick = (v: Float64Array) => keep.map((k) => (Number.isFinite(v[k]!) ? v[k]! : null));
+  // 0/0 (a flat channel) is undefined: null in the record, never rounding noise and never NaN.
+  const finite = (x: number | undefined) => (x !== undefined && Number.isFinite(x) ? x : null);
+  const pick = (v: Float64Array) => keep.map((k) => finite(v[k]));
+  const warnings = [...base.warnings];
+  for (const c of r.flatChannels) {
+    warnings.push(`channel ${signal.channels[c]} is flat (${recipe.detrend === 'none' ? 'zero' : 'constant'}) in every analysed segment: its coherence, imaginary coherency and phase locking are undefined (0/0) and reported as null`);
+  }
   return {
     units: { coherence: '1', frequency: 'Hz' },
     frequencies: keep.map((k) => r.frequencies[k]!),
@@ -117,7 +123,7 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
       segmentCount: r.segmentCount,
       taperCount: r.taperCount,
       effectiveSegments: r.effectiveSegments,
-      // Under independence E[MSC] ≈ 1/n and the level-α threshold is 1 − α^{1/(n−1)} (Carter et al. 1973; REFERENCES.md §7).
+      // Under independence E[MSC] ≈ 1/n and the level-α threshold is 1 − α^{1/(n−1)} (Carter et al. 1973; docs/references.md §7).
       coherenceBias: r.coherenceBias,
       coherenceThreshold: r.coherenceThreshold,
       alpha: r.alpha,
@@ -127,9 +133,10 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
         coherence: pick(r.coherence[p]!),
         imaginaryCoherency: pick(r.imaginaryCoherency[p]!),
         ...(r.phaseLocking ? { phaseLocking: pick(r.phaseLocking[p]!) } : {}),
-        bands: r.bands.map((band) => ({ name: band.name, low: band.low, high: band.high, bins: band.binCount, coherence: band.coherence[p] ?? null, imaginaryCoherency: band.imaginaryCoherency[p] ?? null, phaseLocking: band.phaseLocking?.[p] ?? null })),
+        bands: r.bands.map((band) => ({ name: band.name, low: band.low, high: band.high, bins: band.binCount, coherence: finite(band.coherence[p]), imaginaryCoherency: finite(band.imaginaryCoherency[p]), phaseLocking: finite(band.phaseLocking?.[p]) })),
       })),
     },
     ...base,
+    warnings,
   };
 }

@@ -14,6 +14,7 @@ export interface FileDescription {
   channels?: string[] | undefined;
   epochCount?: number | undefined;
   unit?: string | undefined;
+  voltage?: boolean | undefined;
   nonFinite?: 'reject' | 'keep' | undefined;
 }
 
@@ -71,5 +72,5 @@ export function describeIngest(d: FileDescription, pointer: string): IngestDescr
   if (d.samplingRate === undefined || d.channels === undefined) {
     throw new ProblemError('invalid-signal', 'a float32 file needs samplingRate and channels', `${pointer}/${d.samplingRate === undefined ? 'samplingRate' : 'channels'}`);
   }
-  return { format: 'float32', samplingRate: d.samplingRate, channels: d.channels, epochCount: d.epochCount ?? 1, unit: d.unit, nonFinite: d.nonFinite };
+  return { format: 'float32', samplingRate: d.samplingRate, channels: d.channels, epochCount: d.epochCount ?? 1, unit: d.unit, voltage: d.voltage, nonFinite: d.nonFinite };
 }

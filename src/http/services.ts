@@ -3,6 +3,7 @@ import { normalizeRecipe, type PinnedRecipe } from '../recipes/normalize.js';
 import { resolveRecipe } from '../recipes/resolve.js';
 import { sampleBytes, signalIdFromHash, signalSha256 } from '../signals/content-hash.js';
 import { findNonFinite, type Signal } from '../signals/signal.js';
+import { amplitudeWarnings } from '../signals/units.js';
 import { jobIdOf, recordKeyOf, viewedShape, type JobSpec } from '../jobs/spec.js';
 import type { SignalView } from '../signals/view.js';
 import { withStorageReservation, type SignalMeta, type Store } from '../stores/store.js';
@@ -27,6 +28,7 @@ export async function storeSignal(store: Store, signal: Signal, tenant: string, 
     events: signal.events ?? [],
     bytes: signal.data.byteLength,
     storedAt: new Date().toISOString(),
+    warnings: amplitudeWarnings(signal),
   };
   await withStorageReservation(store, meta.bytes, maxStoreBytes, () => store.putSignal(meta, sampleBytes(signal.data)));
   return meta;

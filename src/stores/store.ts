@@ -10,6 +10,8 @@ export interface SignalMeta extends SignalDescription {
   events: SignalEvent[];
   /** bytes of float64 samples */
   bytes: number;
+  /** what the upload's checks noticed but let through (e.g. an implausible amplitude for the unit) */
+  warnings?: string[];
   storedAt: string;
 }
 
