@@ -16,8 +16,8 @@ import { welchDegreesOfFreedom } from './dof.js';
 import { complexFftPlan } from './fft.js';
 import { phaseConsistencyNull, type PhaseConsistencyNull } from './phase-consistency.js';
 import { requireDetrend, requireRate } from './checks.js';
-import { resolveTapers, splitRealPair, taperSegment, type SpectrogramOptions } from './spectrogram.js';
-import { segmentCount, welchFrequencies } from './welch.js';
+import type { SpectrogramOptions } from './spectrogram.js';
+import { binFrequencies, resolveTapers, segmentCount, splitRealPair, taperSegment } from './spectral-core.js';
 
 /** A frequency band, half-open: low ≤ f < high (Hz), as DESIGN.md's band power. */
 export interface ConnectivityBand {
@@ -172,7 +172,7 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
   if (!(alpha > 0 && alpha < 1)) throw new RangeError(`alpha must be in (0, 1), got ${alpha}`);
   const { tapers } = resolveTapers(segmentSamples, options.window, options.tukeyRatio, options.tapers);
   const pairs = resolvePairs(options.pairs, channels);
-  const frequencies = welchFrequencies(fftLength, samplingRate);
+  const frequencies = binFrequencies(fftLength, samplingRate);
   const bins = frequencies.length;
   const bands = (options.bands ?? []).map((band, b) => {
     if (!(band.low < band.high)) throw new RangeError(`bands[${b}].low must be < high, got ${band.low} and ${band.high}`);

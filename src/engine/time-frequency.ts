@@ -4,9 +4,9 @@ import type { ConnectivityRecipe, TimeFrequencyRecipe } from '../recipes/schema.
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
 import { computeChannels } from './fan-out.js';
-import { screenGaps } from './gaps.js';
+import { screenEpochs } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
-import type { Attachment, SkippedEpoch, TimeFrequencyResult } from './record.js';
+import type { Attachment, TimeFrequencyResult } from './record.js';
 import { attachment, createChannelWork, NULL_ALPHA, taperOptions, type ChannelSetup } from './tf-channels.js';
 
 interface Context {
@@ -14,19 +14,6 @@ interface Context {
   checkpoint?: () => void;
   /** threads this job may use for its channels, its own included. @defaultValue 1 */
   threads?: number;
-}
-
-/** Epochs with gaps are left out (or refuse the job), as for spectra. */
-function usableEpochs(signal: Signal, policy: 'reject' | 'skip-epoch'): { used: number[]; skipped: SkippedEpoch[] } {
-  const used: number[] = [];
-  const skipped: SkippedEpoch[] = [];
-  for (let e = 0; e < signal.epochCount; e++) {
-    const gap = screenGaps(signal, e, policy);
-    if (gap) skipped.push(gap);
-    else used.push(e);
-  }
-  if (used.length === 0) throw new EngineInputError('no-usable-epochs', `all ${signal.epochCount} epoch(s) hold non-finite samples`);
-  return { used, skipped };
 }
 
 /**
@@ -40,7 +27,7 @@ export function analyzeTimeFrequency(
   context: Context,
 ): { result: TimeFrequencyResult; attachments: Attachment[]; threads?: number } {
   const { recipe } = resolved;
-  const { used, skipped } = usableEpochs(signal, recipe.nonFinite);
+  const { used, skipped } = screenEpochs(signal, recipe.nonFinite);
   const warnings = [...resolved.warnings, ...prepared.warnings];
   const base = { estimate: { method: recipe.method, epochsUsed: used.length, epochsSkipped: skipped }, warnings };
   if (recipe.method === 'connectivity') return { result: connectivity(signal, resolved as ResolvedRecipe<ConnectivityRecipe>, used, base), attachments: [] };
