@@ -12,6 +12,17 @@ import { complexFftPlan, type ComplexFftPlan } from './fft.js';
 import { requireDetrend, requireRate } from './checks.js';
 import { windowEnergy } from './windows.js';
 
+/**
+ * The segment filter refused every segment, so there is nothing to average. A type of its own so
+ * that callers recognise the case without reading the wording.
+ */
+export class NoSegmentsLeftError extends RangeError {
+  override readonly name = 'NoSegmentsLeftError';
+  constructor(readonly total: number) {
+    super(`acceptSegment rejected all ${total} segments: nothing to average`);
+  }
+}
+
 export type AverageKind = 'mean' | 'median';
 const AVERAGE_KINDS: readonly AverageKind[] = ['mean', 'median'];
 
@@ -270,7 +281,7 @@ class WelchPlanImpl implements WelchPlan {
       if (this.acceptSegment === undefined || this.acceptSegment(x, start, start + this.segmentSamples)) starts.push(start);
     }
     const count = starts.length;
-    if (count === 0) throw new RangeError(`acceptSegment rejected all ${total} segments: nothing to average`);
+    if (count === 0) throw new NoSegmentsLeftError(total);
     const psd = out ?? new Float64Array(bins);
     if (this.average === 'mean') this.meanPower(x, psd);
     else this.medianPower(x, psd);

@@ -2,6 +2,7 @@ import { hostname } from 'node:os';
 import { canonicalJsonOnce } from '../common/canonical-json.js';
 import { sha256Hex } from '../common/hash.js';
 import { confidenceInterval } from '../dsp/dof.js';
+import { NoSegmentsLeftError } from '../dsp/welch.js';
 import { bandPowers, bandRatios } from '../features/bands.js';
 import { qualityFlags } from '../features/quality.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
@@ -91,7 +92,7 @@ export function computeSpectra(
       try {
         estimate = estimator.estimate(channelView(signal, e, c));
       } catch (error) {
-        if (error instanceof RangeError && /rejected all/.test(error.message)) {
+        if (error instanceof NoSegmentsLeftError) {
           throw new EngineInputError('no-usable-epochs', `channel "${signal.channels[c]}"${signal.epochCount > 1 ? `, epoch ${e}` : ''}: every Welch segment overlaps a bad span or exceeds the peak-to-peak limit`, '/recipe/badSpans');
         }
         throw error;
