@@ -146,10 +146,25 @@ export const JobRequestSchema = z
   })
   .meta({ id: 'JobRequest' });
 
+/**
+ * The signal of a job request, parsed once into a tagged union: the branches differ by their keys
+ * (an id string; `signal`; `file` or `url`; `samplingRate`), so each is a strict object.
+ */
+export const JobSignalSchema = z.union([
+  z
+    .string()
+    .min(1)
+    .transform((id) => ({ kind: 'stored' as const, id })),
+  SignalReferenceSchema.transform(({ signal, ...view }) => ({ kind: 'view' as const, id: signal, view })),
+  ImportSourceSchema.transform((source) => ({ kind: 'import' as const, source })),
+  SignalUploadEnvelope.transform((upload) => ({ kind: 'upload' as const, upload })),
+]);
+
 export const JobRequestEnvelope = z.strictObject({
-  signal: z.union([z.string().min(1), SignalReferenceSchema, ImportSourceSchema, SignalUploadEnvelope]),
+  signal: JobSignalSchema,
   recipe: z.union([z.string().min(1), z.record(z.string(), z.unknown())]),
 });
+export type JobRequest = z.output<typeof JobRequestEnvelope>;
 
 export const JobViewSchema = z
   .object({

@@ -1,5 +1,6 @@
 import { hashCanonical, sha256Hex } from '../common/hash.js';
-import type { SignalShape } from '../recipes/resolve.js';
+import type { ResolvedRecipe, SignalShape } from '../recipes/resolve.js';
+import type { Problem } from '../common/errors.js';
 import { resolveView } from '../signals/view.js';
 import type { SignalDescription } from '../signals/signal.js';
 import { ENGINE_VERSION } from '../engine/version.js';
@@ -20,16 +21,16 @@ export interface JobSpec {
   recordKey: string;
   /** the part of the stored signal to analyze; null = all of it */
   view?: SignalView | null;
+  /**
+   * the recipe as resolved against the signal's shape with the server's limits when the job was
+   * planned, so that the worker does not resolve it again (with other limits); absent in jobs
+   * queued by earlier versions
+   */
+  resolved?: ResolvedRecipe;
 }
 
 /** RFC 9457 problem details, as stored on a failed job. */
-export interface JobProblem {
-  type: string;
-  title: string;
-  status: number;
-  detail: string;
-  pointer?: string;
-}
+export type JobProblem = Problem;
 
 export interface JobView {
   id: string;

@@ -1,3 +1,4 @@
+import { DomainError } from '../common/errors.js';
 import type { Signal, SignalDescription, SignalEvent } from '../signals/signal.js';
 
 /** What is kept about a stored signal besides its samples. */
@@ -75,14 +76,14 @@ export function signalFromParts(meta: SignalMeta, samples: Uint8Array): Signal {
 }
 
 /** Too little room under the configured store limit; nothing was stored. */
-export class StorageFullError extends Error {
+export class StorageFullError extends DomainError {
   override readonly name = 'StorageFullError';
   constructor(
     readonly needed: number,
     readonly used: number,
     readonly limit: number,
   ) {
-    super(`storing ${needed} bytes would exceed this server's limit of ${limit} bytes (${used} in use or reserved); nothing was stored`);
+    super('storage-full', `storing ${needed} bytes would exceed this server's limit of ${limit} bytes (${used} in use or reserved); nothing was stored`);
   }
 }
 
