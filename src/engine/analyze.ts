@@ -2,7 +2,8 @@ import { hostname } from 'node:os';
 import { canonicalJsonOnce } from '../common/canonical-json.js';
 import { sha256Hex } from '../common/hash.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
-import { isSpectrumRecipe, type ConnectivityRecipe, type SpectrumRecipe, type TimeFrequencyRecipe } from '../recipes/schema.js';
+import { methodOf } from '../methods/registry.js';
+import type { ConnectivityRecipe, SpectrumRecipe, TimeFrequencyRecipe } from '../recipes/schema.js';
 import { analyzeTimeFrequency } from './time-frequency.js';
 import type { Attachment } from './record.js';
 import type { Signal } from '../signals/signal.js';
@@ -51,7 +52,7 @@ export function analyze(original: Signal, resolved: ResolvedRecipe, context: Ana
   let result: FeatureRecord['result'];
   let attachments: Attachment[] = [];
   let threads: number | undefined;
-  if (isSpectrumRecipe(resolved.recipe)) {
+  if (methodOf(resolved.recipe).path === 'spectrum') {
     const spectrum = resolved as ResolvedRecipe<SpectrumRecipe>;
     const spectra = computeSpectra(signal, spectrum, context, prepared);
     spectra.warnings.unshift(...prepared.warnings);

@@ -7,7 +7,8 @@ import type { SpectrumRecipe } from '../recipes/schema.js';
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
 import { screenEpochs } from './gaps.js';
-import { createEstimator, type SegmentFilter } from './estimators.js';
+import type { Estimator, SegmentFilter } from '../methods/method.js';
+import { methodOf } from '../methods/registry.js';
 import type { PreparedInput } from './prepare.js';
 import type { ChannelFeatures, ChannelQuality, FeatureResult, SkippedEpoch } from './record.js';
 import { computeFeatures } from './spectral-features.js';
@@ -55,7 +56,7 @@ export function computeSpectra(
   prepared: Pick<PreparedInput, 'badSpans' | 'labels'> = { badSpans: [], labels: null },
 ): Spectra {
   const { recipe } = resolved;
-  const estimator = createEstimator(signal.samplingRate, resolved, segmentFilterFor(signal, resolved, prepared.badSpans));
+  const estimator = createEstimator(signal, resolved, segmentFilterFor(signal, resolved, prepared.badSpans));
   const { usedEpochs, skipped, quality } = selectEpochs(signal, resolved);
   const segments = signal.channels.map(() => ({ used: 0, leftOut: 0 }));
   const groups = prepared.labels ? new Map<string, { count: number; psdSums: Float64Array[] }>() : null;
@@ -109,6 +110,13 @@ export function computeSpectra(
   return { frequencies: estimator.frequencies, usedEpochs, skipped, psdSums, dofSums, perEpoch, quality, segments, groups, warnings: [...warnings] };
 }
 
+/** The estimator of the recipe's method, set up once for the job. */
+function createEstimator(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>, filter: SegmentFilter | null): Estimator {
+  const method = methodOf(resolved.recipe);
+  if (!method.createEstimator) throw new TypeError(`method "${resolved.recipe.method}" gives no spectrum estimator`);
+  return method.createEstimator(signal.samplingRate, resolved.recipe, resolved.derived, filter);
+}
+
 /**
  * Welch segments of an unepoched signal that overlap a bad span, or whose peak-to-peak amplitude in
  * the channel exceeds the recipe's limit, are left out of that channel's average.
@@ -116,7 +124,7 @@ export function computeSpectra(
 function segmentFilterFor(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>, badSpans: [number, number][]): SegmentFilter | null {
   const { recipe } = resolved;
   const limit = recipe.badSpans.peakToPeak;
-  if (recipe.method !== 'welch' || recipe.epoching !== null || (badSpans.length === 0 && limit === null)) return null;
+  if (!methodOf(recipe).leavesOutSegments || recipe.epoching !== null || (badSpans.length === 0 && limit === null)) return null;
   const fs = signal.samplingRate;
   return (x, start, end) => {
     const first = start / fs;
@@ -132,9 +140,10 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) 
   const qualityOptions = recipe.features.quality;
   const quality: { index: number; channels: ChannelQuality[] }[] | null = qualityOptions ? [] : null;
   const limit = recipe.badSpans.peakToPeak;
+  const segmentsLeftOut = methodOf(recipe).leavesOutSegments === true;
   const { used, skipped } = screenEpochs(signal, recipe.nonFinite, (e): SkippedEpoch | null => {
     // Without recipe epoching, Welch drops segments (see segmentFilterFor); the other methods drop epochs.
-    if (limit !== null && recipe.epoching === null && recipe.method !== 'welch') {
+    if (limit !== null && recipe.epoching === null && !segmentsLeftOut) {
       const over = signal.channels.map((name, c) => ({ name, p2p: peakToPeak(channelView(signal, e, c)) })).filter((c) => c.p2p > limit);
       if (over.length > 0) return { index: e, reason: 'amplitude', detail: over.map((c) => `${c.name}: peak-to-peak ${c.p2p}`).join('; ') };
     }

@@ -30,7 +30,11 @@ export function analyzeTimeFrequency(
   const { used, skipped } = screenEpochs(signal, recipe.nonFinite);
   const warnings = [...resolved.warnings, ...prepared.warnings];
   const base = { estimate: { method: recipe.method, epochsUsed: used.length, epochsSkipped: skipped }, warnings };
-  if (recipe.method === 'connectivity') return { result: connectivity(signal, resolved as ResolvedRecipe<ConnectivityRecipe>, used, base), attachments: [] };
+  if (recipe.method === 'connectivity') {
+    // Resolving refuses a signal with one epoch; epochs left out for gaps or bad spans can still leave one.
+    if (used.length < 2) throw new EngineInputError('no-usable-epochs', `connectivity needs at least 2 epochs (phase locking is measured across epochs); ${used.length} is left after screening`, '/recipe/epoching');
+    return { result: connectivity(signal, resolved as ResolvedRecipe<ConnectivityRecipe>, used, base), attachments: [] };
+  }
 
   const setup: ChannelSetup = {
     recipe,
