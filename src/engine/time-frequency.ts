@@ -7,7 +7,8 @@ import { computeChannels } from './fan-out.js';
 import { screenEpochs } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
 import type { Attachment, TimeFrequencyResult } from './record.js';
-import { attachment, createChannelWork, NULL_ALPHA, taperOptions, type ChannelSetup } from './tf-channels.js';
+import { taperOptions } from '../methods/settings.js';
+import { attachment, createChannelWork, NULL_ALPHA, type ChannelSetup } from './tf-channels.js';
 
 interface Context {
   onProgress?: (fraction: number) => void;

@@ -28,6 +28,27 @@ export interface Estimator {
 }
 
 /**
+ * The per-trial transform of a time–frequency method, built once per thread and job: its axes,
+ * the cells a wavelet overhangs, the record's method-specific fields, and the transform itself.
+ */
+export interface TrialTransform {
+  /** s from the start of the epoch */
+  times: Float64Array;
+  /** Hz, the columns of every matrix */
+  frequencies: Float64Array;
+  /** 1 where a cell is edge-contaminated, [time][frequency]; null when no cell is */
+  edgeMask: Uint8Array | null;
+  /** fields of the record's `timeFrequency` block that only this method has */
+  extra: { edgeSigmas?: number; powerFactor?: number; cycles?: number[] };
+  /**
+   * One trial's power. Given `sum`, the transform may add the power into it and return `sum` as
+   * `power`; otherwise `power` is the trial's own matrix. `re`/`im` are the complex coefficients
+   * when the method keeps them (phase consistency).
+   */
+  transform: (x: Float64Array, sum?: Float64Array) => { power: Float64Array; re?: Float64Array; im?: Float64Array };
+}
+
+/**
  * How the engine turns a method's result into a record:
  * - `spectrum`: one PSD per channel and epoch from the method's {@link Estimator}, summed over epochs, with
  *   band powers and features (engine/spectra.ts);
@@ -52,6 +73,8 @@ export interface MethodModule<R extends { method: string }, S = z.ZodType<R>> {
   cost(recipe: R, derived: DerivedSettings, shape: SignalShape): CostEstimate;
   /** `spectrum` path: the per-channel estimator, set up once per job. */
   createEstimator?(samplingRate: number, recipe: R, derived: DerivedSettings, segmentFilter: SegmentFilter | null): Estimator;
+  /** `time-frequency` path: the transform of one trial of `samplesPerEpoch` samples, run on any thread. */
+  createTrialTransform?(recipe: R, derived: DerivedSettings, samplingRate: number, samplesPerEpoch: number): TrialTransform;
   /**
    * `spectrum` path: whether the method leaves out single segments of an unepoched signal (bad
    * spans, amplitude) rather than whole epochs.

@@ -1,6 +1,6 @@
 /** Complex Morlet wavelet power by FFT convolution, as a recipe method. */
 import { z } from 'zod';
-import { logFrequencies, SUPPORT_SIGMAS } from '../dsp/morlet.js';
+import { createMorletPlan, logFrequencies, POWER_FACTOR, SUPPORT_SIGMAS } from '../dsp/morlet.js';
 import { fftWork, float64Bytes, invalid, unfit } from './fit.js';
 import { defineMethod } from './method.js';
 import { timeFrequencyCommon, timeFrequencyOutput } from './settings.js';
@@ -107,5 +107,17 @@ export const morlet = defineMethod({
     const work = build + channels * epochs * (fftWork(2 * n) + perTrial);
     const driver = waveletPeak > spectra + times * all.length ? '/frequencies' : recipe.perTrial ? '/perTrial' : '/decimation';
     return { bytes, work, driver };
+  },
+  createTrialTransform(recipe, _derived, samplingRate, samplesPerEpoch) {
+    const plan = createMorletPlan(samplesPerEpoch, { samplingRate, frequencies: recipe.frequencies, cycles: recipe.cycles, decimation: recipe.decimation });
+    // One set of convolutions gives both; summaries never use the coefficients.
+    const withPhase = recipe.phaseConsistency && recipe.output === 'matrix';
+    return {
+      times: plan.times,
+      frequencies: plan.frequencies,
+      edgeMask: plan.edgeMask,
+      extra: { edgeSigmas: plan.edgeSigmas, powerFactor: POWER_FACTOR, cycles: Array.from(plan.cycles) },
+      transform: withPhase ? (x) => plan.powerAndCoefficients(x) : (x, sum) => ({ power: sum ? plan.power(x, sum, true) : plan.power(x) }),
+    };
   },
 });

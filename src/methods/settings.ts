@@ -151,6 +151,12 @@ export const TapersSchema = z.strictObject({
   taperCount: z.number().int().min(1).max(200).nullable().default(null).describe('null means ⌊2·NW⌋ − 1'),
 });
 
+/** The dsp options of a method that tapers with DPSS `tapers` when named, else with its `window` (spectrogram, connectivity). */
+export function taperOptions(recipe: { window: (typeof WINDOW_NAMES)[number]; tukeyRatio?: number | undefined; tapers: z.output<typeof TapersSchema> | null }) {
+  if (recipe.tapers) return { tapers: { timeBandwidth: recipe.tapers.timeBandwidth, ...(recipe.tapers.taperCount !== null ? { taperCount: recipe.tapers.taperCount } : {}) } };
+  return { window: recipe.window, ...(recipe.tukeyRatio !== undefined ? { tukeyRatio: recipe.tukeyRatio } : {}) };
+}
+
 /** Settings shared by the time–frequency and connectivity methods. */
 export const timeFrequencyCommon = {
   schema: commonSettings.schema,

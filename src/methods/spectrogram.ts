@@ -1,10 +1,11 @@
 /** Short-time spectrogram (one window or DPSS tapers) as a recipe method. */
 import { z } from 'zod';
 import { defaultTaperCount } from '../dsp/dpss.js';
+import { createSpectrogramPlan } from '../dsp/spectrogram.js';
 import { WINDOW_NAMES } from '../dsp/windows.js';
 import { checkTukey, fftWork, float64Bytes, unfit } from './fit.js';
 import { defineMethod } from './method.js';
-import { commonSettings, TapersSchema, timeFrequencyCommon, timeFrequencyOutput } from './settings.js';
+import { commonSettings, taperOptions, TapersSchema, timeFrequencyCommon, timeFrequencyOutput } from './settings.js';
 import { checkFrequencyRange, checkOutput, checkOutputValues, extentOf, fitTimeFrequency, matrixBytes } from './time-frequency.js';
 
 export const SpectrogramRecipeSchema = z
@@ -67,5 +68,31 @@ export const spectrogram = defineMethod({
     const bytes = float64Bytes(loaded + prepared) + matrixBytes(recipe, channels, epochs, times, kept, 0) + scratch;
     const work = channels * epochs * times * tapers * (fftWork(derived.fftLength) / 2);
     return { bytes, work, driver: recipe.perTrial ? '/perTrial' : '/stepSeconds' };
+  },
+  createTrialTransform(recipe, derived, samplingRate, samplesPerEpoch) {
+    const plan = createSpectrogramPlan(samplesPerEpoch, {
+      samplingRate,
+      segmentSamples: derived.segmentSamples,
+      overlapSamples: derived.overlapSamples,
+      fftLength: derived.fftLength,
+      detrend: recipe.detrend,
+      ...taperOptions(recipe),
+    });
+    const [lo, hi] = derived.frequencyRange;
+    const columns = Array.from(plan.frequencies.keys()).filter((k) => plan.frequencies[k]! >= lo && plan.frequencies[k]! <= hi);
+    const full = plan.frequencyCount;
+    return {
+      times: plan.times,
+      frequencies: Float64Array.from(columns, (k) => plan.frequencies[k]!),
+      edgeMask: null,
+      extra: {},
+      transform: (x) => {
+        const p = plan.compute(x).power;
+        if (columns.length === full) return { power: p };
+        const out = new Float64Array(plan.timeCount * columns.length);
+        for (let t = 0; t < plan.timeCount; t++) columns.forEach((k, j) => (out[t * columns.length + j] = p[t * full + k]!));
+        return { power: out };
+      },
+    };
   },
 });
