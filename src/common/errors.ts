@@ -8,7 +8,7 @@ export const PROBLEMS = {
   'invalid-signal': { status: 422, title: 'The signal cannot be used', about: 'Ragged rows, too few samples, duplicate channel names, a bad sampling rate or non-finite samples; `pointer` says where.' },
   'invalid-recipe': { status: 422, title: 'The recipe is invalid', about: 'An unknown or misspelt setting, a value out of range or a contradiction between settings; `pointer` names the field.' },
   'recipe-unfit': { status: 422, title: 'The recipe does not fit the signal', about: 'Segments longer than the epoch, bands above Nyquist or narrower than the resolution, fftLength shorter than a segment.' },
-  'non-finite': { status: 422, title: 'The signal holds non-finite samples', about: 'An epoch contains NaN or ±Inf; the recipe can set "nonFinite": "skip-epoch".' },
+  'non-finite': { status: 422, title: 'The signal holds non-finite samples', about: 'An epoch contains NaN or ±Inf; the recipe can set "nonFinite": "skip-epoch" (leave those epochs out) or "bad-span" (leave out the Welch segments or cut epochs that overlap a gap).' },
   'no-usable-epochs': { status: 422, title: 'No epoch is left to analyze', about: 'Every epoch was left out (for example, all hold non-finite samples).' },
   'limit-exceeded': { status: 422, title: 'A size limit of this server is exceeded', about: 'Too many channels, epochs, samples or too long an FFT; limits are configuration.' },
   'payload-too-large': { status: 413, title: 'The body is too large', about: 'The request body exceeds BODY_LIMIT_BYTES.' },

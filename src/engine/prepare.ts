@@ -3,6 +3,7 @@ import { eventLockedEpochs, fixedLengthEpochs, type DroppedEpoch, type EpochDesc
 import type { Signal } from '../signals/signal.js';
 import { applyView, resolveView, type SignalView } from '../signals/view.js';
 import { EngineInputError } from './errors.js';
+import { gapSpans } from './gaps.js';
 
 export interface EpochingSummary {
   mode: 'fixed' | 'events';
@@ -37,7 +38,12 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
   const labelled = new Set(recipe.badSpans.labels);
   const eventSpans = (signal.events ?? []).filter((ev) => labelled.has(ev.label)).map((ev): [number, number] => [ev.onset, ev.onset + (ev.duration ?? 0)]);
   if (recipe.badSpans.labels.length > 0 && eventSpans.length === 0) warnings.push(`no event carries a bad-span label (${recipe.badSpans.labels.join(', ')})`);
-  const badSpans = [...viewSpans, ...eventSpans].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+  const gaps = recipe.nonFinite === 'bad-span' ? gapSpans(signal) : [];
+  if (gaps.length > 0) {
+    const seconds = gaps.reduce((sum, [a, b]) => sum + (b - a) + 1 / signal.samplingRate, 0);
+    warnings.push(`${gaps.length} run(s) of non-finite samples (${Number(seconds.toPrecision(6))} s in all) treated as bad spans`);
+  }
+  const badSpans = [...viewSpans, ...eventSpans, ...gaps].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
   if (!recipe.epoching) return { signal, epoching: null, labels: null, badSpans, warnings };
 
   const continuous = { data: signal.data, channelCount: signal.channels.length, samplingRate: signal.samplingRate };

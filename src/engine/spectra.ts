@@ -6,7 +6,7 @@ import type { ResolvedRecipe } from '../recipes/resolve.js';
 import type { SpectrumRecipe } from '../recipes/schema.js';
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
-import { screenEpochs } from './gaps.js';
+import { gapHandling, screenEpochs } from './gaps.js';
 import type { Estimator, SegmentFilter } from '../methods/method.js';
 import { methodOf } from '../methods/registry.js';
 import type { PreparedInput } from './prepare.js';
@@ -141,7 +141,9 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) 
   const quality: { index: number; channels: ChannelQuality[] }[] | null = qualityOptions ? [] : null;
   const limit = recipe.badSpans.peakToPeak;
   const segmentsLeftOut = methodOf(recipe).leavesOutSegments === true;
-  const { used, skipped } = screenEpochs(signal, recipe.nonFinite, (e): SkippedEpoch | null => {
+  // Gaps as bad spans stay in a continuous signal whose Welch segments go round them (segmentFilterFor).
+  const segmentsAvoidGaps = segmentsLeftOut && recipe.epoching === null && signal.epochCount === 1;
+  const { used, skipped } = screenEpochs(signal, gapHandling(recipe.nonFinite, segmentsAvoidGaps), (e): SkippedEpoch | null => {
     // Without recipe epoching, Welch drops segments (see segmentFilterFor); the other methods drop epochs.
     if (limit !== null && recipe.epoching === null && !segmentsLeftOut) {
       const over = signal.channels.map((name, c) => ({ name, p2p: peakToPeak(channelView(signal, e, c)) })).filter((c) => c.p2p > limit);

@@ -141,9 +141,11 @@ export const commonSettings = {
     .default({ labels: [], peakToPeak: null })
     .describe('time spans left out: a Welch segment or an epoch overlapping one is not averaged'),
   nonFinite: z
-    .enum(['reject', 'skip-epoch'])
+    .enum(['reject', 'skip-epoch', 'bad-span'])
     .default('reject')
-    .describe('what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out'),
+    .describe(
+      'NaN or ±Inf samples (gaps): refuse the job; leave out the epochs holding them; or treat each run of them in a continuous recording as a bad span (Welch segments, or epochs cut by epoching, that overlap it are left out and counted)',
+    ),
 };
 
 export const TapersSchema = z.strictObject({
