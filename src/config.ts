@@ -30,6 +30,7 @@ const EnvSchema = z.object({
   MAX_EPOCHS: int(100_000),
   MAX_SAMPLES: int(64 * 1024 * 1024),
   MAX_SAMPLING_RATE: int(100_000),
+  MIN_SAMPLING_RATE: z.coerce.number().positive().finite().default(0.01),
   MAX_FFT_LENGTH: int(1 << 20),
   MAX_OUTPUT_VALUES: int(64 * 1024 * 1024),
   MAX_STORE_BYTES: int(0, 0),
@@ -144,7 +145,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     jobThreads: e.JOB_THREADS,
     jobAttempts: e.JOB_ATTEMPTS,
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
-    signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE },
+    signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE, minSamplingRate: e.MIN_SAMPLING_RATE },
     recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH, maxOutputValues: e.MAX_OUTPUT_VALUES },
     maxStoreBytes: e.MAX_STORE_BYTES,
     apiKeys: [

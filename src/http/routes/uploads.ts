@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
+import { checkSamplingRate } from '../../signals/validate.js';
 import { ingestFile } from '../../stores/ingest.js';
 import type { AppDeps } from '../app.js';
 import { tenantOf } from '../auth.js';
@@ -88,7 +89,9 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     },
     async (request, reply) => {
       const start = request.body;
-      describeIngest(start, ''); // refuses a float32 upload without samplingRate or channels now, not at completion
+      // Refuses a float32 upload without samplingRate or channels, or with an absurd rate, now, not at completion.
+      describeIngest(start, '');
+      if (start.samplingRate !== undefined) checkSamplingRate(start.samplingRate, deps.config.signalLimits, '/samplingRate');
       const id = `upl_${randomBytes(16).toString('hex')}`;
       const dir = join(await root(), id);
       await mkdir(dir, { recursive: true });
