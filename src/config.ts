@@ -38,6 +38,8 @@ const EnvSchema = z.object({
   API_KEYS_FILE: z.string().min(1).optional(),
   ALLOW_OPEN_MODE: z.enum(['true', 'false', '1', '0']).default('false'),
   RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(0).optional(),
+  AUTH_FAILURES_PER_MINUTE: int(20, 0),
+  METRICS_TOKEN_SHA256: z.string().regex(/^[0-9a-f]{64}$/, 'give the SHA-256 of the token as 64 lowercase hex digits, never the token itself').optional(),
   CORS_ORIGINS: z.string().optional(),
   WORKER_LOCK_MS: int(30_000, 1000),
   WORKER_MAX_STALLED: int(2, 0),
@@ -74,6 +76,10 @@ export interface Config {
   allowOpenMode: boolean;
   /** requests per minute per key (or per address in open mode); 0 = no limit; default 6000 with keys, none in open mode */
   rateLimitPerMinute: number;
+  /** failed authentications per client address and minute before 429; 0 = no limit */
+  authFailuresPerMinute: number;
+  /** SHA-256 of a token that may read /metrics (besides admin keys); null = admin keys only */
+  metricsTokenSha256: string | null;
   corsOrigins: string[];
   workerLockMs: number;
   workerMaxStalled: number;
@@ -155,6 +161,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     allowOpenMode: e.ALLOW_OPEN_MODE === 'true' || e.ALLOW_OPEN_MODE === '1',
     // Per key once keys exist; open mode serves only this machine (or a forced network), so no default limit.
     rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE ?? (e.API_KEYS || e.API_KEYS_FILE ? 6000 : 0),
+    authFailuresPerMinute: e.AUTH_FAILURES_PER_MINUTE,
+    metricsTokenSha256: e.METRICS_TOKEN_SHA256 ?? null,
     corsOrigins: e.CORS_ORIGINS ? e.CORS_ORIGINS.split(',').map((o) => o.trim()).filter(Boolean) : [],
     workerLockMs: e.WORKER_LOCK_MS,
     workerMaxStalled: e.WORKER_MAX_STALLED,
