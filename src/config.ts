@@ -51,6 +51,7 @@ const EnvSchema = z.object({
   FETCH_MAX_REDIRECTS: int(3, 0),
   RETENTION_DAYS: z.coerce.number().min(0).default(0),
   SWEEP_INTERVAL_SECONDS: int(3600),
+  UPLOAD_EXPIRY_SECONDS: int(86_400),
 });
 
 export interface Config {
@@ -95,6 +96,8 @@ export interface Config {
   /** days after which signals, jobs and records are swept; 0 = kept */
   retentionDays: number;
   sweepIntervalSeconds: number;
+  /** seconds without a new part after which a resumable upload is abandoned and removed */
+  uploadExpirySeconds: number;
 }
 
 export const ROLES = ['read', 'submit', 'admin'] as const;
@@ -174,6 +177,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     fetchMaxRedirects: e.FETCH_MAX_REDIRECTS,
     retentionDays: e.RETENTION_DAYS,
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
+    uploadExpirySeconds: e.UPLOAD_EXPIRY_SECONDS,
   };
   return deepFreeze(config);
 }

@@ -8,6 +8,7 @@ import { EmbeddedQueue } from '../jobs/embedded-queue.js';
 import type { JobQueue } from '../jobs/queue.js';
 import { sweepExpired } from '../jobs/retention.js';
 import { createStore } from '../stores/create-store.js';
+import { uploadAreaOf } from '../stores/upload-area.js';
 
 export function createLogger(config: Pick<Config, 'logLevel'>, destination?: NodeJS.WritableStream): Logger {
   const options = { level: config.logLevel, base: { service: 'rhythmetric' }, redact: ['req.headers.authorization'] };
@@ -47,22 +48,31 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
     });
   }
   const app = await buildApp({ config, store, queue, logger, ...(pool ? { poolReady: () => pool!.threads > 0 } : {}) });
-  let sweeper: NodeJS.Timeout | null = null;
-  if (config.retentionDays > 0) {
-    const sweep = () =>
-      sweepExpired(store, queue, config.retentionDays * 86_400_000).then(
-        (removed) => logger.info({ removed, retentionDays: config.retentionDays }, 'retention sweep'),
-        (error: unknown) => logger.warn({ err: error }, 'retention sweep failed'),
+  // Abandoned uploads and temp files of interrupted writes go at start-up and in every sweep, whatever RETENTION_DAYS.
+  const sweepLeftovers = () =>
+    uploadAreaOf(store)
+      .sweep(config.uploadExpirySeconds * 1000)
+      .then(
+        (removed) => logger.info({ removed, uploadExpirySeconds: config.uploadExpirySeconds }, 'leftovers sweep'),
+        (error: unknown) => logger.warn({ err: error }, 'leftovers sweep failed'),
       );
-    sweeper = setInterval(sweep, config.sweepIntervalSeconds * 1000);
-    sweeper.unref();
-  }
+  await sweepLeftovers();
+  const sweep = async () => {
+    await sweepLeftovers();
+    if (config.retentionDays <= 0) return;
+    await sweepExpired(store, queue, config.retentionDays * 86_400_000).then(
+      (removed) => logger.info({ removed, retentionDays: config.retentionDays }, 'retention sweep'),
+      (error: unknown) => logger.warn({ err: error }, 'retention sweep failed'),
+    );
+  };
+  const sweeper = setInterval(() => void sweep(), config.sweepIntervalSeconds * 1000);
+  sweeper.unref();
   return {
     app,
     queue,
     store,
     async close() {
-      if (sweeper) clearInterval(sweeper);
+      clearInterval(sweeper);
       await app.close();
       await queue.close();
       await pool?.close();
