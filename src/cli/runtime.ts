@@ -1,3 +1,4 @@
+import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { pino, type Logger } from 'pino';
 import { ConfigError, isLoopbackHost, type Config } from '../config.js';
 import { buildApp } from '../http/app.js';
@@ -85,6 +86,15 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
 export function startWorker(config: Readonly<Config>, logger: Logger = createLogger(config)) {
   if (!config.redisUrl) throw new Error('rhythmetric worker needs REDIS_URL (embedded mode computes inside the API process)');
   const pool = createComputePool(config.workerThreads, config.jobThreads);
+  // The longest event-loop stall since the last finished job goes into its log line: a stall
+  // longer than the lock renewal margin (WORKER_LOCK_MS / 2) would get the job redelivered.
+  const loop = monitorEventLoopDelay({ resolution: 10 });
+  loop.enable();
+  const withLoop = (detail: Record<string, unknown>) => {
+    const eventLoopMaxMs = Math.round(loop.max / 1e6);
+    loop.reset();
+    return { ...detail, eventLoopMaxMs };
+  };
   const handle = startBullWorker({
     url: config.redisUrl,
     prefix: config.redisPrefix,
@@ -93,11 +103,15 @@ export function startWorker(config: Readonly<Config>, logger: Logger = createLog
     pool,
     lockDurationMs: config.workerLockMs,
     maxStalledCount: config.workerMaxStalled,
-    onEvent: (event, detail) => (event === 'error' || event === 'stalled' ? logger.warn(detail, `worker ${event}`) : logger.info(detail, `job ${event}`)),
+    onEvent: (event, detail) => {
+      if (event === 'error' || event === 'stalled' || event === 'lock-lost') logger.warn(detail, `worker ${event}`);
+      else logger.info(event === 'completed' || event === 'failed' ? withLoop(detail) : detail, `job ${event}`);
+    },
   });
   return {
     worker: handle.worker,
     async close() {
+      loop.disable();
       await handle.close();
       await pool.close();
     },
