@@ -52,6 +52,7 @@ const EnvSchema = z.object({
   RETENTION_DAYS: z.coerce.number().min(0).default(0),
   SWEEP_INTERVAL_SECONDS: int(3600),
   UPLOAD_EXPIRY_SECONDS: int(86_400),
+  RECORD_CACHE_BYTES: int(64 * 1024 * 1024, 0),
 });
 
 export interface Config {
@@ -98,6 +99,8 @@ export interface Config {
   sweepIntervalSeconds: number;
   /** seconds without a new part after which a resumable upload is abandoned and removed */
   uploadExpirySeconds: number;
+  /** bytes of records and attachments the API keeps in memory with STORE=redis (readable while Redis is down); 0 = off */
+  recordCacheBytes: number;
 }
 
 export const ROLES = ['read', 'submit', 'admin'] as const;
@@ -178,6 +181,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     retentionDays: e.RETENTION_DAYS,
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
     uploadExpirySeconds: e.UPLOAD_EXPIRY_SECONDS,
+    recordCacheBytes: e.RECORD_CACHE_BYTES,
   };
   return deepFreeze(config);
 }

@@ -2,6 +2,7 @@ import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { pino, type Logger } from 'pino';
 import { ConfigError, isLoopbackHost, type Config } from '../config.js';
 import { buildApp } from '../http/app.js';
+import { RecordCachingStore } from '../http/record-cache.js';
 import { BullQueue } from '../jobs/bullmq-queue.js';
 import { startBullWorker } from '../jobs/bullmq-worker.js';
 import { createComputePool, type ComputePool } from '../jobs/compute-pool.js';
@@ -31,7 +32,8 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
   } else {
     logger.info({ keys: config.apiKeys.length, tenants: [...new Set(config.apiKeys.map((k) => k.tenant))].length }, 'API keys loaded');
   }
-  const store = createStore(config.store);
+  // Records are immutable, so with STORE=redis the API may keep those it has read: they stay readable while Redis is down.
+  const store = config.store.kind === 'redis' && config.recordCacheBytes > 0 ? new RecordCachingStore(createStore(config.store), config.recordCacheBytes) : createStore(config.store);
   let pool: ComputePool | null = null;
   let queue: JobQueue;
   if (config.redisUrl) {
