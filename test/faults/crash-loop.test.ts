@@ -1,8 +1,8 @@
-import { mkdtemp, rm } from 'node:fs/promises';
+import { mkdtemp, readFile, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cpuTicks, freePort, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, ServiceProcess, until, uploadFloat32 } from './helpers.js';
+import { http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, serveEmbedded, type ServiceProcess, until, uploadFloat32 } from './helpers.js';
 
 const { channels, seconds, samplingRate } = LONG_SIGNAL;
 const ATTEMPTS = 3;
@@ -24,13 +24,7 @@ describe('when a job is running each time the embedded server is killed with SIG
     await rm(dataDir, { recursive: true, force: true });
   });
 
-  async function serve(): Promise<{ child: ServiceProcess; base: string }> {
-    const port = await freePort();
-    const child = new ServiceProcess('serve', { DATA_DIR: dataDir, PORT: String(port), HOST: '127.0.0.1', RATE_LIMIT_PER_MINUTE: '0', JOB_ATTEMPTS: String(ATTEMPTS) });
-    children.push(child);
-    await child.waitForLog('rhythmetric serving', 20_000);
-    return { child, base: `http://127.0.0.1:${port}` };
-  }
+  const serve = () => serveEmbedded(dataDir, children, { JOB_ATTEMPTS: String(ATTEMPTS) });
 
   const jobOf = async (base: string, id: string) => (await http(base, 'GET', `/v1/jobs/${id}`)).body;
 
@@ -47,13 +41,13 @@ describe('when a job is running each time the embedded server is killed with SIG
         return job.state === 'running' ? job : undefined;
       }, 30_000, 50);
       expect(running.attempts).toBe(kill);
-      // The state turns "running" in memory before its write is durable; the computation (CPU
-      // time) starts only after it, so a kill from then on is one the restart must count.
-      await until('the job to compute', async () => {
-        const before = await cpuTicks(server.child.pid);
-        await new Promise((r) => setTimeout(r, 300));
-        return (await cpuTicks(server.child.pid)) - before >= 15 ? true : undefined;
-      }, 30_000, 0);
+      // The state turns "running" in memory a moment before its write is durable; the computation
+      // starts only after that write. Kill once the disk says so, as a crash mid-computation would.
+      await until('the start to be written', async () => {
+        const text = await readFile(join(dataDir, 'jobs', `${id}.json`), 'utf8');
+        const { view } = JSON.parse(text) as { view: { state: string; attempts: number } };
+        return view.state === 'running' && view.attempts === kill ? true : undefined;
+      }, 30_000, 20);
       server.child.kill('SIGKILL');
       expect((await server.child.exited).signal).toBe('SIGKILL');
       server = await serve();

@@ -108,6 +108,18 @@ export class ServiceProcess {
   }
 }
 
+/**
+ * An embedded-mode `rhythmetric serve` child on `dataDir` and a free loopback port, pushed onto
+ * `children` (for afterAll); resolves once it serves.
+ */
+export async function serveEmbedded(dataDir: string, children: ServiceProcess[], env: Record<string, string> = {}): Promise<{ child: ServiceProcess; base: string }> {
+  const port = await freePort();
+  const child = new ServiceProcess('serve', { DATA_DIR: dataDir, PORT: String(port), HOST: '127.0.0.1', RATE_LIMIT_PER_MINUTE: '0', ...env });
+  children.push(child);
+  await child.waitForLog('rhythmetric serving', 20_000);
+  return { child, base: `http://127.0.0.1:${port}` };
+}
+
 export function startWorkerProcess(env: Record<string, string>): ServiceProcess {
   return new ServiceProcess('worker', env);
 }
