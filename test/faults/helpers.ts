@@ -143,6 +143,23 @@ export async function busiest(processes: readonly ServiceProcess[], windowMs = 8
   return { process: live[best]!, ticks };
 }
 
+/**
+ * The process computing a job, once it is clearly computing: a job is "running" as soon as a worker
+ * takes it, but the worker then loads the signal (a 19 MB GET took 0.8 s on the shared test Redis)
+ * before its thread burns CPU, so a single sample taken at once can find every process idle.
+ */
+export async function computing(processes: readonly ServiceProcess[], timeoutMs = 20_000): Promise<{ process: ServiceProcess; ticks: number[] }> {
+  return until(
+    'a process to compute',
+    async () => {
+      const sample = await busiest(processes);
+      return Math.max(...sample.ticks) > 3 * Math.min(...sample.ticks) + 5 ? sample : undefined;
+    },
+    timeoutMs,
+    0,
+  );
+}
+
 /** A redis-server of the test's own on a free loopback port, with AOF in its own directory. */
 export class OwnRedis {
   private child: ChildProcess | null = null;
