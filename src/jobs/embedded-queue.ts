@@ -1,6 +1,7 @@
-import { PROBLEMS, problemType } from '../common/errors.js';
+import { DomainError, toProblem } from '../common/errors.js';
 import type { Store, StoreConfig } from '../stores/store.js';
 import type { ComputePool } from './compute-pool.js';
+import { crashProblem } from './failure.js';
 import type { JobQueue } from './queue.js';
 import { isFinished, newJobView, type JobSpec, type JobState, type JobView } from './spec.js';
 import { waitForJob } from './wait.js';
@@ -81,12 +82,9 @@ export class EmbeddedQueue implements JobQueue {
       if (view.state === 'running' && !stopped) {
         entry.crashes++;
         if (this.attemptsUsed(entry) >= this.maxAttempts) {
-          view.problem = {
-            type: problemType('worker-crashed'),
-            title: PROBLEMS['worker-crashed'].title,
-            status: PROBLEMS['worker-crashed'].status,
-            detail: `the job took the process down ${entry.crashes} time(s) and has used its ${this.maxAttempts} attempt(s) (JOB_ATTEMPTS); it is not started again`,
-          };
+          view.problem = toProblem(
+            new DomainError('worker-crashed', `the job took the process down ${entry.crashes} time(s) and has used its ${this.maxAttempts} attempt(s) (JOB_ATTEMPTS); it is not started again`),
+          ).problem;
           failed.push(entry);
           continue;
         }
@@ -240,12 +238,7 @@ export class EmbeddedQueue implements JobQueue {
         await this.persist(entry);
         this.pending.push(view.id);
       } else {
-        view.problem = {
-          type: problemType('worker-crashed'),
-          title: PROBLEMS['worker-crashed'].title,
-          status: 500,
-          detail: `the computation failed ${view.attempts} time(s); last error: ${error instanceof Error ? error.message : String(error)}`,
-        };
+        view.problem = crashProblem(view.attempts, error);
         await this.finish(entry, 'failed');
       }
     } finally {

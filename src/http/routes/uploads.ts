@@ -25,7 +25,8 @@ const UploadStart = z
     samplingRate: z.number().positive().optional().describe('float32: Hz (required); edf: keep the signals of this rate'),
     channels: z.array(z.string().min(1)).min(1).max(1024).optional().describe('float32: names (required); edf: labels to keep'),
     epochCount: z.number().int().min(1).default(1).describe('float32 only'),
-    unit: z.string().min(1).max(32).optional().describe('float32 only; default uV'),
+    unit: z.string().min(1).max(32).optional().describe('float32 only: nV, uV (µV), mV or V, stored as uV; default uV'),
+    voltage: z.boolean().optional().describe('float32 only: false when the samples are not a voltage (the unit is kept as given)'),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('float32 only'),
     sha256: z.string().regex(/^[0-9a-f]{64}$/).optional().describe('SHA-256 of the whole file (all parts in order); checked when the upload completes'),
   })
