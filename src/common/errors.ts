@@ -26,7 +26,7 @@ export const PROBLEMS = {
   'record-not-ready': { status: 409, title: 'The record is not ready', about: 'The job has not succeeded (yet); poll the job.' },
   'unauthenticated': { status: 401, title: 'Authentication required', about: 'Send a valid API key as "Authorization: Bearer <key>".' },
   'forbidden': { status: 403, title: 'Not allowed for this key', about: "The key's role (read, submit, admin) does not cover this route." },
-  'storage-full': { status: 507, title: 'The store is full', about: 'Storing this signal would exceed MAX_STORE_BYTES; nothing was stored.' },
+  'storage-full': { status: 507, title: 'The store is full', about: 'Storing this signal, or keeping this part of a resumable upload, would exceed MAX_STORE_BYTES; nothing was stored and nothing else was removed.' },
   'not-found': { status: 404, title: 'Not found', about: 'No route matches.' },
   'method-not-allowed': { status: 405, title: 'Method not allowed', about: 'The route exists but not with this method.' },
   'rate-limited': { status: 429, title: 'Too many requests', about: 'Slow down; Retry-After says when.' },

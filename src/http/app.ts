@@ -85,7 +85,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
       maxAge: 600,
     });
   }
-  registerAuth(app, deps.config.apiKeys);
+  registerAuth(app, { keys: deps.config.apiKeys, metricsTokenSha256: deps.config.metricsTokenSha256, failuresPerMinute: deps.config.authFailuresPerMinute });
   if (deps.config.rateLimitPerMinute > 0) {
     await app.register(rateLimit, {
       max: deps.config.rateLimitPerMinute,

@@ -30,7 +30,7 @@ export const metaRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
 
   app.get(
     '/metrics',
-    { schema: { summary: 'Prometheus metrics (text exposition format)', tags: ['operations'] } },
+    { config: { access: 'metrics' }, schema: { summary: 'Prometheus metrics (text exposition format); needs an admin key or the metrics token', tags: ['operations'] } },
     async (_request, reply) => {
       const registry = deps.metrics!.registry;
       return reply.type(registry.contentType).send(await registry.metrics());
