@@ -16,9 +16,10 @@ const ALLOWED: Record<string, string[]> = {
   recipes: ['dsp', 'common'],
   engine: ['dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
+  tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
-  http: ['jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
-  cli: ['http', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  http: ['tables', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
+  cli: ['tables', 'http', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */
