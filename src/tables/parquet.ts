@@ -14,6 +14,23 @@ export function parquetSchema(columns: readonly Column[]): SchemaElement[] {
   return [{ name: 'root', num_children: columns.length }, ...columns.map((c): SchemaElement => ({ name: c.name, repetition_type: 'OPTIONAL', ...PHYSICAL[c.type] }))];
 }
 
+// Thrift compact protocol: field 3 of FileMetaData (num_rows, i64 = 6) holding zigzag 0, then
+// field 4 (row_groups, list = 9) with an empty list header. The writer types an empty list's
+// elements as 0; strict readers (Arrow's) want struct (12) there and refuse the file.
+const EMPTY_ROW_GROUPS = [0x16, 0x00, 0x19, 0x00];
+const STRUCT_ELEMENTS = 0x0c;
+
+/** Makes a file without rows readable everywhere: its empty row-group list gets struct elements. */
+function markEmptyRowGroupList(file: Uint8Array, footer: number): void {
+  for (let i = footer; i + EMPTY_ROW_GROUPS.length <= file.length; i++) {
+    if (EMPTY_ROW_GROUPS.every((b, k) => file[i + k] === b)) {
+      file[i + 3] = STRUCT_ELEMENTS;
+      return;
+    }
+  }
+  throw new Error('the Parquet footer of an empty table has no empty row-group list');
+}
+
 /**
  * Apache Parquet with typed columns (DOUBLE, INT32, UTF8, BOOLEAN), Snappy-compressed. Rows are
  * gathered into row groups of `rowGroupSize`; each full group is encoded and handed out at once,
@@ -34,6 +51,7 @@ export function createParquetWriter(columns: readonly Column[], options: { rowGr
   });
   let group: Cell[][] = columns.map(() => []);
   let rows = 0;
+  let total = 0;
   // Takes what the encoder has written so far and empties its buffer (the file offset runs on).
   const drain = (): Uint8Array => {
     const out = bytes.getBytes().slice();
@@ -51,14 +69,19 @@ export function createParquetWriter(columns: readonly Column[], options: { rowGr
     extension: 'parquet',
     write(row: Row) {
       for (let i = 0; i < row.length; i++) group[i]!.push(row[i]!);
+      total++;
       if (++rows < groupSize) return null;
       flush();
       return drain();
     },
     end() {
+      const empty = total === 0;
       flush();
+      const footer = bytes.index;
       void parquet.finish();
-      return drain();
+      const out = drain();
+      if (empty) markEmptyRowGroupList(out, footer);
+      return out;
     },
   };
 }
