@@ -36,7 +36,7 @@ const c = (name: string, type: ColumnType, unit: string | null, meaning: string)
 export const ENTRY_COLUMN = c('entry', 'string', null, 'the study entry the row comes from (run-level tables only)');
 export const SIGNAL_COLUMN = c('signal', 'string', null, 'id of the stored signal the record was computed from');
 export const LOCATION_COLUMNS: readonly Column[] = [
-  c('scope', 'string', null, '"mean" over every used epoch, "label-mean" over the epochs of one event label, or "epoch" for one epoch'),
+  c('scope', 'string', null, '"mean" over every used epoch, "label-mean" over the epochs of one event or block label, or "epoch" for one epoch'),
   c('epoch', 'integer', null, 'index of the analysed epoch (as in the record); empty for means'),
   c('epochStart', 'double', 's', 'start of the epoch, in seconds from the start of the stored signal; empty for means and for uploaded epochs, which have no time line'),
   c('label', 'string', null, 'event or block label of the epoch (events or blocks epoching), or of a label mean; empty otherwise'),
