@@ -3,7 +3,7 @@ import { deepFreeze } from './common/freeze.js';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { z } from 'zod';
-import type { RecipeLimits } from './recipes/resolve.js';
+import { DEFAULT_MAX_JOB_BYTES, type RecipeLimits } from './recipes/resolve.js';
 import type { SignalLimits } from './signals/limits.js';
 import type { StoreConfig } from './stores/store.js';
 
@@ -32,6 +32,7 @@ const EnvSchema = z.object({
   MAX_SAMPLING_RATE: int(100_000),
   MAX_FFT_LENGTH: int(1 << 20),
   MAX_OUTPUT_VALUES: int(64 * 1024 * 1024),
+  MAX_JOB_BYTES: int(DEFAULT_MAX_JOB_BYTES),
   MAX_STORE_BYTES: int(0, 0),
   API_KEYS: z.string().optional(),
   API_KEYS_FILE: z.string().min(1).optional(),
@@ -145,7 +146,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     jobAttempts: e.JOB_ATTEMPTS,
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
     signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE },
-    recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH, maxOutputValues: e.MAX_OUTPUT_VALUES },
+    recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH, maxOutputValues: e.MAX_OUTPUT_VALUES, maxJobBytes: e.MAX_JOB_BYTES },
     maxStoreBytes: e.MAX_STORE_BYTES,
     apiKeys: [
       ...(e.API_KEYS ? parseApiKeys(e.API_KEYS, 'environment variable API_KEYS') : []),

@@ -61,7 +61,7 @@ export interface DomainErrorOptions {
  * input sat in a larger document prefixes the pointer with {@link DomainError.under}.
  */
 export class DomainError extends Error {
-  override readonly name = 'DomainError';
+  override readonly name: string = 'DomainError';
   readonly pointer: string | null;
   readonly extensions: Record<string, unknown>;
   readonly headers: Record<string, string>;
@@ -85,5 +85,63 @@ export class DomainError extends Error {
     if (this.pointer === null || prefix === '') return this;
     const pointer = this.pointer === '/' ? prefix : prefix + this.pointer;
     return new DomainError(this.code, this.detail, { pointer, extensions: this.extensions, headers: this.headers, cause: this.cause });
+  }
+}
+
+/** RFC 9457 problem details as the service sends them and as a failed job keeps them. */
+export interface Problem {
+  type: string;
+  title: string;
+  status: number;
+  detail: string;
+  /** RFC 6901 JSON pointer of the offending input */
+  pointer?: string;
+  [extension: string]: unknown;
+}
+
+/** A problem ready to answer: body, HTTP status and response headers. */
+export interface Translated {
+  problem: Problem;
+  status: number;
+  headers: Record<string, string>;
+}
+
+function unexpected(): DomainError {
+  return new DomainError('internal', 'an unexpected error occurred; quote the requestId to the operator');
+}
+
+/**
+ * The one translation of an error into a problem, used by the HTTP error handler and by both
+ * queues. A {@link DomainError} carries everything; any other error is first handed to `classify`
+ * (the caller's knowledge of its own foreign errors: fastify's, Redis's, a crashed thread's) and
+ * otherwise becomes `internal`, with no internals in the detail.
+ */
+export function toProblem(error: unknown, classify: (error: unknown) => DomainError | null = () => null): Translated {
+  const domain = error instanceof DomainError ? error : (classify(error) ?? unexpected());
+  const entry = PROBLEMS[domain.code];
+  const problem: Problem = {
+    ...domain.extensions,
+    type: problemType(domain.code),
+    title: entry.title,
+    status: entry.status,
+    detail: domain.detail,
+    ...(domain.pointer ? { pointer: domain.pointer } : {}),
+  };
+  return { problem, status: entry.status, headers: { ...domain.headers } };
+}
+
+/**
+ * Runs `work` (synchronous or not) and locates any domain error it throws under `prefix`, e.g.
+ * `/recipe` for a recipe that sat there in the request.
+ */
+export function locatedUnder<T>(prefix: string, work: () => T): T {
+  const relocate = (error: unknown): never => {
+    throw error instanceof DomainError ? error.under(prefix) : error;
+  };
+  try {
+    const result = work();
+    return (result instanceof Promise ? result.catch(relocate) : result) as T;
+  } catch (error) {
+    return relocate(error);
   }
 }

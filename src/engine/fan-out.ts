@@ -140,7 +140,7 @@ function sharedSamples(data: Float64Array): Float64Array {
 }
 
 function rebuildError(e: { name: string; message: string; code?: string; pointer?: string | null }): Error {
-  if (e.name === 'EngineInputError') return new EngineInputError(e.code as EngineInputError['code'], e.message, e.pointer ?? null);
+  if (e.name === 'EngineInputError') return new EngineInputError(e.code as 'no-usable-epochs' | 'non-finite', e.message, e.pointer ?? null);
   const error = new Error(`time–frequency helper thread: ${e.message}`);
   error.name = e.name;
   return error;

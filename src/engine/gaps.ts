@@ -20,3 +20,22 @@ export function screenGaps(signal: Signal, epoch: number, policy: 'reject' | 'sk
   }
   return null;
 }
+
+/**
+ * The epochs a job uses: each epoch goes through the `nonFinite` policy ({@link screenGaps}) and then,
+ * when it holds only finite samples, through `screen`, which may leave it out for a reason of its
+ * own. Refuses the job when no epoch is left.
+ */
+export function screenEpochs(signal: Signal, policy: 'reject' | 'skip-epoch', screen: (epoch: number) => SkippedEpoch | null = () => null): { used: number[]; skipped: SkippedEpoch[] } {
+  const used: number[] = [];
+  const skipped: SkippedEpoch[] = [];
+  for (let e = 0; e < signal.epochCount; e++) {
+    const left = screenGaps(signal, e, policy) ?? screen(e);
+    if (left) skipped.push(left);
+    else used.push(e);
+  }
+  if (used.length === 0) {
+    throw new EngineInputError('no-usable-epochs', `all ${signal.epochCount} epoch(s) were left out (${[...new Set(skipped.map((s) => s.reason))].join(', ')}); nothing is left to analyze`);
+  }
+  return { used, skipped };
+}

@@ -1,28 +1,12 @@
 import type { FastifyError, FastifyReply, FastifyRequest } from 'fastify';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
-import type { ProblemCode } from '../common/errors.js';
-import { RecipeInputError } from '../recipes/errors.js';
-import { SignalInputError } from '../signals/errors.js';
-import { StorageFullError } from '../stores/store.js';
-import { problemBody, ProblemError } from './problem.js';
+import { DomainError, toProblem, type ProblemCode, type Translated } from '../common/errors.js';
 
 declare module 'fastify' {
   interface FastifyContextConfig {
     /** problem code for schema violations of this route's body (default invalid-request) */
     bodyProblem?: ProblemCode;
-    /** JSON pointer prefix of the recipe inside this route's body */
-    recipePointer?: string;
-    /** JSON pointer prefix of the signal inside this route's body */
-    signalPointer?: string;
   }
-}
-
-interface Mapped {
-  code: ProblemCode;
-  detail: string;
-  pointer: string | null;
-  headers?: Record<string, string>;
-  extra?: Record<string, unknown>;
 }
 
 const LOCATION_PREFIX: Record<string, string> = { body: '', querystring: '/query', params: '/params', headers: '/headers' };
@@ -47,65 +31,59 @@ function isConnectionFault(error: Error): boolean {
   );
 }
 
-/** Maps every error to a problem code; unknown errors become `internal` with no internals exposed. */
-export function mapError(error: FastifyError | Error, request: FastifyRequest): Mapped {
-  if (error instanceof ProblemError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extra };
-  if (error instanceof SignalInputError) {
-    const prefix = error.pointer === null ? '' : (request.routeOptions.config.signalPointer ?? '');
-    return { code: error.code === 'limit' ? 'limit-exceeded' : 'invalid-signal', detail: error.message, pointer: error.pointer === null ? null : prefix + error.pointer };
-  }
-  if (error instanceof StorageFullError) return { code: 'storage-full', detail: error.message, pointer: null };
-  if (error instanceof RecipeInputError) {
-    const code: ProblemCode = error.code === 'limit' ? 'limit-exceeded' : error.code === 'unfit-for-signal' ? 'recipe-unfit' : 'invalid-recipe';
-    const prefix = request.routeOptions.config.recipePointer ?? '';
-    return { code, detail: error.message, pointer: prefix + (error.pointer === '/' ? '' : error.pointer) || '/' };
-  }
+/**
+ * What the HTTP layer knows of errors that are not domain errors: fastify's own, schema
+ * violations, Redis outages. Null leaves the error to be answered as `internal`.
+ */
+export function classifyHttpError(error: unknown, request: FastifyRequest): DomainError | null {
+  if (!(error instanceof Error)) return null;
   if (hasZodFastifySchemaValidationErrors(error)) {
     const issue = error.validation[0]!;
     const context = (error as FastifyError).validationContext ?? 'body';
     const pointer = (LOCATION_PREFIX[context] ?? '') + (issue.instancePath === '/' ? '' : issue.instancePath);
     const code = context === 'body' ? (request.routeOptions.config.bodyProblem ?? 'invalid-request') : 'invalid-request';
-    return { code, detail: `${context === 'querystring' ? 'query parameter' : 'field'} ${pointer || '/'}: ${describeIssue(issue)}`, pointer: pointer || '/' };
+    return new DomainError(code, `${context === 'querystring' ? 'query parameter' : 'field'} ${pointer || '/'}: ${describeIssue(issue)}`, { pointer: pointer || '/' });
   }
   const fastifyCode = (error as FastifyError).code;
   switch (fastifyCode) {
     case 'FST_ERR_CTP_BODY_TOO_LARGE':
-      return { code: 'payload-too-large', detail: `the body exceeds this server's limit of ${request.routeOptions.bodyLimit ?? request.server.initialConfig.bodyLimit} bytes`, pointer: null };
+      return new DomainError('payload-too-large', `the body exceeds this server's limit of ${request.routeOptions.bodyLimit ?? request.server.initialConfig.bodyLimit} bytes`);
     case 'FST_ERR_CTP_INVALID_MEDIA_TYPE':
-      return { code: 'unsupported-media-type', detail: `content type "${request.headers['content-type'] ?? ''}" is not accepted here; send application/json or application/octet-stream`, pointer: null };
+      return new DomainError('unsupported-media-type', `content type "${request.headers['content-type'] ?? ''}" is not accepted here; send application/json or application/octet-stream`);
     case 'FST_ERR_CTP_EMPTY_JSON_BODY':
-      return { code: 'invalid-request', detail: 'the JSON body is empty', pointer: '/' };
+      return new DomainError('invalid-request', 'the JSON body is empty', { pointer: '/' });
     case 'FST_ERR_CTP_INVALID_JSON_BODY':
     case 'FST_ERR_CTP_INVALID_CONTENT_LENGTH':
-      return { code: 'invalid-request', detail: `the body is not valid JSON: ${error.message}`, pointer: '/' };
+      return new DomainError('invalid-request', `the body is not valid JSON: ${error.message}`, { pointer: '/' });
     default:
       break;
   }
   if (isConnectionFault(error)) {
-    return { code: 'queue-unavailable', detail: `Redis cannot be reached (${error.message}); nothing was changed, try again shortly`, pointer: null, headers: { 'retry-after': '5' } };
+    return new DomainError('queue-unavailable', `Redis cannot be reached (${error.message}); nothing was changed, try again shortly`, { headers: { 'retry-after': '5' } });
   }
-  if (error instanceof SyntaxError) return { code: 'invalid-request', detail: `the body is not valid JSON: ${error.message}`, pointer: '/' };
+  if (error instanceof SyntaxError) return new DomainError('invalid-request', `the body is not valid JSON: ${error.message}`, { pointer: '/' });
   const status = (error as FastifyError).statusCode;
-  if (status === 429) return { code: 'rate-limited', detail: error.message, pointer: null };
-  if (status === 413) return { code: 'payload-too-large', detail: error.message, pointer: null };
-  if (status === 415) return { code: 'unsupported-media-type', detail: error.message, pointer: null };
-  if (status !== undefined && status >= 400 && status < 500) return { code: 'invalid-request', detail: error.message, pointer: null };
-  return { code: 'internal', detail: 'an unexpected error occurred; quote the requestId to the operator', pointer: null };
+  const headers = (error as { headers?: Record<string, string> }).headers ?? {};
+  if (status === 429) return new DomainError('rate-limited', error.message, { headers });
+  if (status === 413) return new DomainError('payload-too-large', error.message);
+  if (status === 415) return new DomainError('unsupported-media-type', error.message);
+  if (status !== undefined && status >= 400 && status < 500) return new DomainError('invalid-request', error.message);
+  return null;
+}
+
+/** Sends a problem as application/problem+json; every error answer of the service goes through here. */
+export function sendProblem(reply: FastifyReply, translated: Translated): void {
+  const body = { ...translated.problem, requestId: String(reply.request.id) };
+  void reply.code(translated.status).headers(translated.headers).type('application/problem+json').send(JSON.stringify(body));
 }
 
 export function errorHandler(error: FastifyError, request: FastifyRequest, reply: FastifyReply): void {
-  const mapped = mapError(error, request);
-  const body = problemBody(mapped.code, mapped.detail, mapped.pointer, String(request.id), mapped.extra);
-  if (body.status >= 500) request.log.error({ err: error }, 'request failed');
-  else request.log.info({ problem: mapped.code, pointer: mapped.pointer }, 'request refused');
-  void reply
-    .code(body.status)
-    .headers(mapped.headers ?? {})
-    .type('application/problem+json')
-    .send(JSON.stringify(body));
+  const translated = toProblem(error, (e) => classifyHttpError(e, request));
+  if (translated.status >= 500) request.log.error({ err: error }, 'request failed');
+  else request.log.info({ problem: translated.problem.type, pointer: translated.problem.pointer }, 'request refused');
+  sendProblem(reply, translated);
 }
 
 export function notFoundHandler(request: FastifyRequest, reply: FastifyReply): void {
-  const body = problemBody('not-found', `no route for ${request.method} ${request.url.split('?')[0]}`, null, String(request.id));
-  void reply.code(404).type('application/problem+json').send(JSON.stringify(body));
+  sendProblem(reply, toProblem(new DomainError('not-found', `no route for ${request.method} ${request.url.split('?')[0]}`)));
 }

@@ -1,5 +1,6 @@
 import type { Config } from '../config.js';
-import { createDataRoot, SourceError, type DataRoot } from '../signals/data-root.js';
+import { locatedUnder } from '../common/errors.js';
+import { createDataRoot, type DataRoot } from '../signals/data-root.js';
 import { ingestFile, type IngestDescription } from '../stores/ingest.js';
 import type { SignalMeta, Store } from '../stores/store.js';
 import type { SignalEvent } from '../signals/signal.js';
@@ -15,6 +16,7 @@ export interface FileDescription {
   channels?: string[] | undefined;
   epochCount?: number | undefined;
   unit?: string | undefined;
+  voltage?: boolean | undefined;
   nonFinite?: 'reject' | 'keep' | undefined;
   events?: SignalEvent[] | undefined;
 }
@@ -31,20 +33,20 @@ const roots = new Map<string, Promise<DataRoot>>();
 export async function importSignal(config: Readonly<Config>, store: Store, source: ImportSource, tenant: string, pointer: string): Promise<SignalMeta> {
   const description = describeIngest(source, pointer);
   const options = { tenant, limits: config.signalLimits, maxStoreBytes: config.maxStoreBytes };
-  try {
+  return locatedUnder(pointer, async () => {
     if (source.file !== undefined) {
-      if (!config.dataRoot) throw new ProblemError('source-refused', 'reading files from the server is off; the operator can set DATA_ROOT', `${pointer}/file`);
+      if (!config.dataRoot) throw new ProblemError('source-refused', 'reading files from the server is off; the operator can set DATA_ROOT', '/file');
       let root = roots.get(config.dataRoot);
       if (!root) roots.set(config.dataRoot, (root = createDataRoot(config.dataRoot)));
       const opened = await (await root).open(source.file);
       try {
-        if (opened.size > config.bodyLimitBytes) throw new ProblemError('payload-too-large', `the file has ${opened.size} bytes, over this server's limit of ${config.bodyLimitBytes}`, `${pointer}/file`);
+        if (opened.size > config.bodyLimitBytes) throw new ProblemError('payload-too-large', `the file has ${opened.size} bytes, over this server's limit of ${config.bodyLimitBytes}`, '/file');
         return await ingestFile(store, { handle: opened.handle, size: opened.size }, description, options);
       } finally {
         await opened.handle.close();
       }
     }
-    if (config.fetchAllowedHosts.length === 0) throw new ProblemError('source-refused', 'fetching URLs is off; the operator can set FETCH_ALLOWED_HOSTS', `${pointer}/url`);
+    if (config.fetchAllowedHosts.length === 0) throw new ProblemError('source-refused', 'fetching URLs is off; the operator can set FETCH_ALLOWED_HOSTS', '/url');
     const remote = await openRemote(source.url!, {
       allowedHosts: config.fetchAllowedHosts,
       allowPrivate: config.fetchAllowPrivate,
@@ -58,13 +60,7 @@ export async function importSignal(config: Readonly<Config>, store: Store, sourc
     } finally {
       await raw.remove();
     }
-  } catch (error) {
-    if (error instanceof SourceError) {
-      const code = error.code === 'too-large' ? 'payload-too-large' : error.code === 'not-found' ? 'source-not-found' : error.code === 'timeout' || error.code === 'fetch-failed' ? 'source-failed' : 'source-refused';
-      throw new ProblemError(code, error.message, `${pointer}${error.pointer}`);
-    }
-    throw error;
-  }
+  });
 }
 
 /** The ingest description of a file; a float32 file needs its sampling rate and channel names. */
@@ -76,5 +72,5 @@ export function describeIngest(d: FileDescription, pointer: string): IngestDescr
   if (d.samplingRate === undefined || d.channels === undefined) {
     throw new ProblemError('invalid-signal', 'a float32 file needs samplingRate and channels', `${pointer}/${d.samplingRate === undefined ? 'samplingRate' : 'channels'}`);
   }
-  return { format: 'float32', samplingRate: d.samplingRate, channels: d.channels, epochCount: d.epochCount ?? 1, unit: d.unit, nonFinite: d.nonFinite, events: d.events };
+  return { format: 'float32', samplingRate: d.samplingRate, channels: d.channels, epochCount: d.epochCount ?? 1, unit: d.unit, voltage: d.voltage, nonFinite: d.nonFinite, events: d.events };
 }

@@ -5,6 +5,7 @@ import type { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { Transform } from 'node:stream';
 import { createHash, randomBytes } from 'node:crypto';
+import { DomainError } from '../common/errors.js';
 import { ProblemError } from './problem.js';
 
 /** Binary routes pass the request stream through as the body (see their content-type parser). */
@@ -48,7 +49,9 @@ export async function receiveToFile(body: Readable, dir: string, limit: number, 
     await pipeline(body, meter, createWriteStream(path));
   } catch (error) {
     await rm(path, { force: true });
-    if (error instanceof ProblemError) {
+    // A domain error says whose fault it is: the body over the limit (413), or a remote source
+    // that stalled or broke off (502); only a client's own broken body is the client's 400.
+    if (error instanceof DomainError) {
       body.resume();
       throw error;
     }

@@ -46,7 +46,8 @@ export const SignalUploadSchema = z
   .strictObject({
     samplingRate: z.number().positive().describe('Hz'),
     channels: z.array(z.string()).min(1).describe('channel names, e.g. 10–20 labels'),
-    unit: z.string().min(1).max(32).optional().describe('physical unit of the samples; default uV'),
+    unit: z.string().min(1).max(32).optional().describe('physical unit of the samples: nV, uV (µV), mV or V, stored as uV; any other unit needs "voltage": false; default uV'),
+    voltage: z.boolean().optional().describe('false when the samples are not a voltage: the unit is then kept as given and nothing is converted; default true'),
     data: SampleRows.optional().describe('continuous chunk, channel × sample'),
     epochs: z.array(SampleRows).optional().describe('epoch × channel × sample'),
     events: EventListSchema.optional(),
@@ -72,6 +73,7 @@ export const BinaryUploadQuery = z.strictObject({
     .describe('comma-separated channel names'),
   epochCount: z.coerce.number().int().min(1).default(1),
   unit: z.string().min(1).max(32).optional(),
+  voltage: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
   nonFinite: z.enum(['reject', 'keep']).optional(),
   format: z.literal('float32').optional().describe('binary layout; float32 little-endian [epoch][channel][sample]'),
   events: EventsQuery.optional(),
@@ -95,7 +97,8 @@ export const UploadQueryDoc = z
     samplingRate: z.coerce.number().positive().optional().describe('float32: Hz (required); edf: select the signals of this rate'),
     channels: z.string().optional().describe('float32: comma-separated names (required); edf: labels to keep'),
     epochCount: z.coerce.number().int().min(1).optional().describe('float32: epochs in the body, default 1'),
-    unit: z.string().optional().describe('float32: physical unit, default uV'),
+    unit: z.string().optional().describe('float32: nV, uV (µV), mV or V, stored as uV; any other unit needs voltage=false; default uV'),
+    voltage: z.enum(['true', 'false']).optional().describe('float32: false when the samples are not a voltage; default true'),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('float32: NaN/±Inf samples refused (default) or kept as gaps'),
     events: z
       .string()
@@ -117,6 +120,7 @@ export const SignalInfoSchema = z
     events: z.array(EventSchema),
     bytes: z.number().int(),
     storedAt: z.string(),
+    warnings: z.array(z.string()).optional().describe('what the upload checks noticed but let through, e.g. an amplitude far outside the EEG range for the unit'),
   })
   .meta({ id: 'SignalInfo' });
 
@@ -145,7 +149,8 @@ const importFields = {
   samplingRate: z.number().positive().optional().describe('float32: Hz (required); edf: keep the signals of this rate'),
   channels: z.array(z.string().min(1)).min(1).max(1024).optional().describe('float32: names (required); edf: labels to keep'),
   epochCount: z.number().int().min(1).optional().describe('float32 only; default 1'),
-  unit: z.string().min(1).max(32).optional().describe('float32 only; default uV'),
+  unit: z.string().min(1).max(32).optional().describe('float32 only: nV, uV (µV), mV or V, stored as uV; default uV'),
+  voltage: z.boolean().optional().describe('float32 only: false when the samples are not a voltage (the unit is kept as given)'),
   events: EventListSchema.optional().describe('float32 only: events, as in a JSON upload'),
 };
 
@@ -163,10 +168,25 @@ export const JobRequestSchema = z
   })
   .meta({ id: 'JobRequest' });
 
+/**
+ * The signal of a job request, parsed once into a tagged union: the branches differ by their keys
+ * (an id string; `signal`; `file` or `url`; `samplingRate`), so each is a strict object.
+ */
+export const JobSignalSchema = z.union([
+  z
+    .string()
+    .min(1)
+    .transform((id) => ({ kind: 'stored' as const, id })),
+  SignalReferenceSchema.transform(({ signal, ...view }) => ({ kind: 'view' as const, id: signal, view })),
+  ImportSourceSchema.transform((source) => ({ kind: 'import' as const, source })),
+  SignalUploadEnvelope.transform((upload) => ({ kind: 'upload' as const, upload })),
+]);
+
 export const JobRequestEnvelope = z.strictObject({
-  signal: z.union([z.string().min(1), SignalReferenceSchema, ImportSourceSchema, SignalUploadEnvelope]),
+  signal: JobSignalSchema,
   recipe: z.union([z.string().min(1), z.record(z.string(), z.unknown())]),
 });
+export type JobRequest = z.output<typeof JobRequestEnvelope>;
 
 export const JobViewSchema = z
   .object({

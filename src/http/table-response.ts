@@ -1,6 +1,5 @@
 import { Readable } from 'node:stream';
 import type { FastifyReply } from 'fastify';
-import { DomainError } from '../common/errors.js';
 import type { Column, Row } from '../tables/columns.js';
 import { createTableWriter, encodeTableAsync, TABLE_FORMATS, type TableFormat } from '../tables/writer.js';
 import { ProblemError } from './problem.js';
@@ -34,11 +33,6 @@ export function chooseTableFormat(format: TableFormat | undefined, accept: strin
     throw new ProblemError('not-acceptable', `Accept "${accept}" allows no table format; ask for ${Object.values(MEDIA_TYPES).join(' or ')}, or give ?format=${TABLE_FORMATS.join('|')}`, '/headers/accept', {}, { formats: Object.values(MEDIA_TYPES) });
   }
   return best.format;
-}
-
-/** A DomainError from the tables layer, answered as the problem it names. */
-export function asProblem(error: unknown): unknown {
-  return error instanceof DomainError ? new ProblemError(error.code, error.detail, error.pointer, error.headers, error.extensions) : error;
 }
 
 /**

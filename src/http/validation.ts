@@ -22,15 +22,16 @@ export function validationError(error: z.ZodError, context: 'body' | 'querystrin
 /**
  * A per-route validator that checks some parts with lighter schemas than the documented ones
  * (bulky sample arrays are checked by the decoders) and passes binary bodies through. The parsed
- * value is not substituted, so handlers see the body as sent.
+ * body is not substituted unless `parsedBody` is set (a schema that tags what it parsed), so
+ * handlers otherwise see the body as sent.
  */
-export function zodValidator(parts: Partial<Record<'body' | 'querystring' | 'params', z.ZodType>>): FastifySchemaCompiler<unknown> {
+export function zodValidator(parts: Partial<Record<'body' | 'querystring' | 'params', z.ZodType>>, options: { parsedBody?: boolean } = {}): FastifySchemaCompiler<unknown> {
   return ({ httpPart }) => {
     const schema = parts[httpPart as keyof typeof parts];
     return (data: unknown) => {
       if (!schema || isStream(data)) return { value: data };
       const parsed = schema.safeParse(data);
-      if (parsed.success) return { value: httpPart === 'body' ? data : parsed.data };
+      if (parsed.success) return { value: httpPart === 'body' && !options.parsedBody ? data : parsed.data };
       const issues = createValidationError(parsed.error);
       return { error: Object.assign(new Error(issues[0]?.message ?? 'invalid'), { validation: issues }) };
     };

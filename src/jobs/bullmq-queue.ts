@@ -1,6 +1,6 @@
 import { Queue, QueueEvents, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
-import { PROBLEMS, problemType } from '../common/errors.js';
+import { crashProblem } from './failure.js';
 import type { JobOutcome } from './run-job.js';
 import type { JobQueue } from './queue.js';
 import { newJobView, type JobProblem, type JobSpec, type JobState, type JobView } from './spec.js';
@@ -17,7 +17,14 @@ export interface BullQueueOptions {
   backoffMs?: number;
 }
 
-export const CANCELED_MARK = 'canceled:';
+/**
+ * How a job that will not be retried ended, written by the worker into the job's data before it
+ * fails the job: structured data, so that no one parses a failure message.
+ */
+export type JobEnding = { kind: 'refused'; problem: JobProblem } | { kind: 'canceled' };
+
+/** A job's data in Redis: the spec, and once a worker ended it without success, how. */
+export type QueuedJobData = JobSpec & { ending?: JobEnding };
 
 /** Redis key a worker watches to abandon a running job. */
 export function cancelKey(prefix: string, queueName: string, jobId: string): string {
@@ -213,14 +220,13 @@ export class BullQueue implements JobQueue {
       case 'completed':
         state = 'succeeded';
         break;
-      case 'failed':
-        if (job.failedReason?.startsWith(CANCELED_MARK)) {
-          state = 'canceled';
-        } else {
-          state = 'failed';
-          problem = problemFromReason(job.failedReason ?? 'unknown failure', job.attemptsMade);
-        }
+      case 'failed': {
+        const ending = (job.data as QueuedJobData).ending;
+        state = ending?.kind === 'canceled' ? 'canceled' : 'failed';
+        if (ending?.kind === 'refused') problem = ending.problem;
+        else if (state === 'failed') problem = crashProblem(job.attemptsMade, job.failedReason ?? 'unknown failure');
         break;
+      }
       default:
         state = 'queued';
     }
@@ -241,22 +247,5 @@ function baseView(job: Job, spec: JobSpec): JobView {
     ...newJobView(job.id!, spec, new Date(job.timestamp).toISOString()),
     attempts: job.attemptsMade,
     startedAt: job.processedOn ? new Date(job.processedOn).toISOString() : null,
-  };
-}
-
-/** Workers fail bad-input jobs with the problem as JSON; anything else is a crash after retries. */
-function problemFromReason(reason: string, attempts: number): JobProblem {
-  if (reason.startsWith('{')) {
-    try {
-      return JSON.parse(reason) as JobProblem;
-    } catch {
-      // fall through: not one of ours
-    }
-  }
-  return {
-    type: problemType('worker-crashed'),
-    title: PROBLEMS['worker-crashed'].title,
-    status: 500,
-    detail: `the computation failed ${attempts} time(s); last error: ${reason}`,
   };
 }

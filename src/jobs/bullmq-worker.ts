@@ -1,10 +1,9 @@
 import { UnrecoverableError, Worker, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
 import type { StoreConfig } from '../stores/store.js';
-import { CANCELED_MARK, cancelKey } from './bullmq-queue.js';
+import { cancelKey, type JobEnding, type QueuedJobData } from './bullmq-queue.js';
 import type { ComputePool } from './compute-pool.js';
 import type { JobOutcome } from './run-job.js';
-import type { JobSpec } from './spec.js';
 
 export interface BullWorkerOptions {
   url: string;
@@ -22,6 +21,15 @@ export interface BullWorkerOptions {
 }
 
 /**
+ * Ends a job without retry, with how it ended kept in its data for the queue's view. The message
+ * is for BullMQ's own records only.
+ */
+async function end(job: Job<QueuedJobData, JobOutcome>, ending: JobEnding, message: string): Promise<never> {
+  await job.updateData({ ...job.data, ending });
+  throw new UnrecoverableError(message);
+}
+
+/**
  * A BullMQ worker whose processor hands the spectral work to worker threads, so this process's
  * event loop stays free to renew job locks. Bad input fails without retry (UnrecoverableError);
  * other faults are retried with exponential back-off by BullMQ.
@@ -29,7 +37,7 @@ export interface BullWorkerOptions {
 export function startBullWorker(options: BullWorkerOptions): { worker: Worker; close: () => Promise<void> } {
   const connection = new Redis(options.url, { maxRetriesPerRequest: null });
   connection.on('error', (error) => options.onEvent?.('error', { message: error.message }));
-  const processor = async (job: Job<JobSpec, JobOutcome>): Promise<JobOutcome> => {
+  const processor = async (job: Job<QueuedJobData, JobOutcome>): Promise<JobOutcome> => {
     const abort = new AbortController();
     const key = cancelKey(options.prefix, options.queueName, job.id!);
     const watch = setInterval(() => {
@@ -50,16 +58,16 @@ export function startBullWorker(options: BullWorkerOptions): { worker: Worker; c
         },
         abort.signal,
       );
-      if (!output.ok) throw new UnrecoverableError(JSON.stringify(output.problem));
+      if (!output.ok) return await end(job, { kind: 'refused', problem: output.problem }, output.problem.detail);
       return output.outcome;
     } catch (error) {
-      if (abort.signal.aborted) throw new UnrecoverableError(`${CANCELED_MARK} canceled by request while running`);
+      if (abort.signal.aborted) return await end(job, { kind: 'canceled' }, 'canceled by request while running');
       throw error;
     } finally {
       clearInterval(watch);
     }
   };
-  const worker = new Worker<JobSpec, JobOutcome>(options.queueName, processor, {
+  const worker = new Worker<QueuedJobData, JobOutcome>(options.queueName, processor, {
     connection,
     prefix: options.prefix,
     concurrency: options.concurrency ?? options.pool.threads,

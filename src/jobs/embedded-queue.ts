@@ -1,6 +1,6 @@
-import { PROBLEMS, problemType } from '../common/errors.js';
 import type { Store, StoreConfig } from '../stores/store.js';
 import type { ComputePool } from './compute-pool.js';
+import { crashProblem } from './failure.js';
 import type { JobQueue } from './queue.js';
 import { isFinished, newJobView, type JobSpec, type JobState, type JobView } from './spec.js';
 import { waitForJob } from './wait.js';
@@ -188,12 +188,7 @@ export class EmbeddedQueue implements JobQueue {
         await this.persist(entry);
         this.pending.push(view.id);
       } else {
-        view.problem = {
-          type: problemType('worker-crashed'),
-          title: PROBLEMS['worker-crashed'].title,
-          status: 500,
-          detail: `the computation failed ${view.attempts} time(s); last error: ${error instanceof Error ? error.message : String(error)}`,
-        };
+        view.problem = crashProblem(view.attempts, error);
         await this.finish(entry, 'failed');
       }
     } finally {

@@ -1,7 +1,8 @@
 import type { MessagePort } from 'node:worker_threads';
 import { createStore } from '../stores/create-store.js';
 import type { Store, StoreConfig } from '../stores/store.js';
-import { PermanentJobError, runJob, type JobOutcome } from './run-job.js';
+import { refusalOf } from './failure.js';
+import { runJob, type JobOutcome } from './run-job.js';
 import type { JobProblem, JobSpec } from './spec.js';
 
 /** Input of one worker-thread task. Progress goes back over `port`. */
@@ -41,7 +42,8 @@ export default async function poolTask({ spec, store, mode, jobThreads, port }: 
     }, { threads: jobThreads });
     return { ok: true, outcome };
   } catch (error) {
-    if (error instanceof PermanentJobError) return { ok: false, problem: error.problem };
+    const problem = refusalOf(error);
+    if (problem) return { ok: false, problem };
     throw error;
   } finally {
     port.close();

@@ -1,13 +1,11 @@
-import { PROBLEMS, problemType, type ProblemCode } from '../common/errors.js';
+import { DomainError, locatedUnder } from '../common/errors.js';
 import { canonicalJsonOnce } from '../common/canonical-json.js';
 import { analyze, type ProgressListener } from '../engine/analyze.js';
 import type { FeatureRecord } from '../engine/record.js';
-import { EngineInputError } from '../engine/errors.js';
-import { RecipeInputError } from '../recipes/errors.js';
-import { resolveRecipe } from '../recipes/resolve.js';
+import { resolveRecipe, type ResolvedRecipe } from '../recipes/resolve.js';
+import type { Signal } from '../signals/signal.js';
 import type { Store } from '../stores/store.js';
-import { viewedShape, type JobProblem, type JobSpec } from './spec.js';
-import { SignalInputError } from '../signals/errors.js';
+import { viewedShape, type JobSpec } from './spec.js';
 
 /**
  * The record as stored: `result` as its canonical JSON (the text its hash was taken over), the rest
@@ -17,14 +15,6 @@ export function serializeRecord(record: FeatureRecord): string {
   const { result, ...rest } = record;
   const head = JSON.stringify(rest);
   return `${head.slice(0, -1)},"result":${canonicalJsonOnce(result)}}`;
-}
-
-/** A failure that will fail again on every retry: bad input, not a transient fault. */
-export class PermanentJobError extends Error {
-  override readonly name = 'PermanentJobError';
-  constructor(readonly problem: JobProblem) {
-    super(problem.detail);
-  }
 }
 
 export interface JobOutcome {
@@ -51,43 +41,30 @@ export async function runJob(
     return { recordKey: spec.recordKey, resultHash: (JSON.parse(existing) as { resultHash: string }).resultHash, computed: false };
   }
   const loaded = await store.getSignal(spec.signalId);
-  if (!loaded) {
-    throw new PermanentJobError({ type: problemType('signal-not-found'), title: PROBLEMS['signal-not-found'].title, status: 404, detail: `signal ${spec.signalId} is not in the store` });
+  if (!loaded) throw new DomainError('signal-not-found', `signal ${spec.signalId} is not in the store`, { pointer: '/signal' });
+  const resolved = spec.resolved ?? (await resolveLegacy(spec, loaded.signal));
+  const record = analyze(loaded.signal, resolved, {
+    view: spec.view ?? null,
+    signalId: spec.signalId,
+    sha256: spec.sha256,
+    recipeId: spec.recipeId,
+    mode,
+    onProgress,
+    ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
+    ...(options.threads !== undefined ? { threads: options.threads } : {}),
+  });
+  // Attachments first: once the record exists, everything it names can be fetched.
+  for (const a of record.attachments ?? []) {
+    const data = a.data!;
+    await store.putAttachment(`${spec.recordKey}.${a.name}`, new Uint8Array(data.buffer, data.byteOffset, data.byteLength));
+    delete a.data;
   }
-  try {
-    const resolved = resolveRecipe(spec.recipe, spec.recipeHash, viewedShape(loaded.signal, spec.view ?? null));
-    const record = analyze(loaded.signal, resolved, {
-      view: spec.view ?? null,
-      signalId: spec.signalId,
-      sha256: spec.sha256,
-      recipeId: spec.recipeId,
-      mode,
-      onProgress,
-      ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
-      ...(options.threads !== undefined ? { threads: options.threads } : {}),
-    });
-    // Attachments first: once the record exists, everything it names can be fetched.
-    for (const a of record.attachments ?? []) {
-      const data = a.data!;
-      await store.putAttachment(`${spec.recordKey}.${a.name}`, new Uint8Array(data.buffer, data.byteOffset, data.byteLength));
-      delete a.data;
-    }
-    await store.putDocument('records', spec.recordKey, serializeRecord(record));
-    return { recordKey: spec.recordKey, resultHash: record.resultHash, computed: true };
-  } catch (error) {
-    if (error instanceof SignalInputError) {
-      throw new PermanentJobError({ type: problemType('invalid-signal'), title: PROBLEMS['invalid-signal'].title, status: 422, detail: error.message, ...(error.pointer ? { pointer: `/signal${error.pointer}` } : {}) });
-    }
-    if (error instanceof RecipeInputError || error instanceof EngineInputError) {
-      const code: ProblemCode = error instanceof RecipeInputError ? (error.code === 'limit' ? 'limit-exceeded' : 'recipe-unfit') : error.code;
-      throw new PermanentJobError({
-        type: problemType(code),
-        title: PROBLEMS[code].title,
-        status: PROBLEMS[code].status,
-        detail: error.message,
-        ...(error.pointer ? { pointer: error instanceof RecipeInputError ? `/recipe${error.pointer}` : error.pointer } : {}),
-      });
-    }
-    throw error;
-  }
+  await store.putDocument('records', spec.recordKey, serializeRecord(record));
+  return { recordKey: spec.recordKey, resultHash: record.resultHash, computed: true };
+}
+
+/** Jobs queued before the resolved recipe travelled with the spec are resolved here, as then. */
+async function resolveLegacy(spec: JobSpec, signal: Signal): Promise<ResolvedRecipe> {
+  const shape = await locatedUnder('/signal', () => viewedShape(signal, spec.view ?? null));
+  return locatedUnder('/recipe', () => resolveRecipe(spec.recipe, spec.recipeHash, shape));
 }

@@ -1,15 +1,23 @@
+import { DomainError, type ProblemCode } from '../common/errors.js';
+
+export type RecipeErrorKind = 'invalid' | 'unfit-for-signal' | 'limit';
+
+const RECIPE_PROBLEM: Record<RecipeErrorKind, ProblemCode> = { invalid: 'invalid-recipe', 'unfit-for-signal': 'recipe-unfit', limit: 'limit-exceeded' };
+
 /**
  * A recipe that cannot be used, located by an RFC 6901 JSON pointer relative to the recipe
- * (the HTTP layer prefixes where the recipe sat in the request body).
+ * (callers that know where the recipe sat locate it with `under('/recipe')`). The kind decides the
+ * problem code, the same over HTTP and from a worker.
  */
-export class RecipeInputError extends Error {
+export class RecipeInputError extends DomainError {
   override readonly name = 'RecipeInputError';
   constructor(
-    readonly code: 'invalid' | 'unfit-for-signal' | 'limit',
+    readonly kind: RecipeErrorKind,
     message: string,
-    readonly pointer: string,
+    pointer: string,
+    extensions?: Record<string, unknown>,
   ) {
-    super(message);
+    super(RECIPE_PROBLEM[kind], message, { pointer, ...(extensions ? { extensions } : {}) });
   }
 }
 

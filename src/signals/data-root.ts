@@ -1,8 +1,20 @@
+import { DomainError, type ProblemCode } from '../common/errors.js';
 import type { Stats } from 'node:fs';
 import { constants, type FileHandle, open, realpath, stat } from 'node:fs/promises';
 import { isAbsolute, join, relative, sep } from 'node:path';
 
 export type SourceErrorCode = 'forbidden-path' | 'not-found' | 'not-a-file' | 'forbidden-host' | 'too-large' | 'timeout' | 'fetch-failed';
+
+/** A body over the limit is 413 and a far side that fails or stalls is 502, never the client's 4xx. */
+const SOURCE_PROBLEM: Record<SourceErrorCode, ProblemCode> = {
+  'forbidden-path': 'source-refused',
+  'not-found': 'source-not-found',
+  'not-a-file': 'source-refused',
+  'forbidden-host': 'source-refused',
+  'too-large': 'payload-too-large',
+  timeout: 'source-failed',
+  'fetch-failed': 'source-failed',
+};
 
 /**
  * A recording source the service refuses or cannot reach: a path outside the data root, a URL
@@ -10,15 +22,15 @@ export type SourceErrorCode = 'forbidden-path' | 'not-found' | 'not-a-file' | 'f
  * the offending request field (`/file` or `/url`); `status` is the upstream HTTP status when a
  * remote server answered with an error. The HTTP layer maps `code` to a problem+json answer.
  */
-export class SourceError extends Error {
+export class SourceError extends DomainError {
   override readonly name = 'SourceError';
   constructor(
-    readonly code: SourceErrorCode,
+    readonly reason: SourceErrorCode,
     message: string,
-    readonly pointer: string,
-    readonly status: number | null = null,
+    pointer: string,
+    readonly upstreamStatus: number | null = null,
   ) {
-    super(message);
+    super(SOURCE_PROBLEM[reason], message, { pointer });
   }
 }
 

@@ -1,15 +1,20 @@
+import { DomainError } from '../common/errors.js';
+
+export type SignalErrorKind = 'shape' | 'non-finite' | 'limit' | 'sampling-rate' | 'channels' | 'format';
+
 /**
  * A problem with an uploaded signal, located by an RFC 6901 JSON pointer into the request body
- * (for JSON input) or a descriptive location such as `/query/channels` (for binary input).
- * The HTTP layer turns it into a problem+json 4xx; the signals layer stays free of HTTP.
+ * (for JSON input) or a descriptive location such as `/query/channels` (for binary input). A size
+ * limit is `limit-exceeded`, anything else `invalid-signal`, wherever it is found (upload or worker).
  */
-export class SignalInputError extends Error {
+export class SignalInputError extends DomainError {
   override readonly name = 'SignalInputError';
   constructor(
-    readonly code: 'shape' | 'non-finite' | 'limit' | 'sampling-rate' | 'channels' | 'format',
+    readonly kind: SignalErrorKind,
     message: string,
-    readonly pointer: string | null = null,
+    pointer: string | null = null,
+    extensions?: Record<string, unknown>,
   ) {
-    super(message);
+    super(kind === 'limit' ? 'limit-exceeded' : 'invalid-signal', message, { pointer, ...(extensions ? { extensions } : {}) });
   }
 }

@@ -1,3 +1,4 @@
+import { DomainError } from '../common/errors.js';
 import type { Signal, SignalDescription, SignalEvent } from '../signals/signal.js';
 
 /** What is kept about a stored signal besides its samples. */
@@ -10,6 +11,8 @@ export interface SignalMeta extends SignalDescription {
   events: SignalEvent[];
   /** bytes of float64 samples */
   bytes: number;
+  /** what the upload's checks noticed but let through (e.g. an implausible amplitude for the unit) */
+  warnings?: string[];
   storedAt: string;
 }
 
@@ -73,14 +76,14 @@ export function signalFromParts(meta: SignalMeta, samples: Uint8Array): Signal {
 }
 
 /** Too little room under the configured store limit; nothing was stored. */
-export class StorageFullError extends Error {
+export class StorageFullError extends DomainError {
   override readonly name = 'StorageFullError';
   constructor(
     readonly needed: number,
     readonly used: number,
     readonly limit: number,
   ) {
-    super(`storing ${needed} bytes would exceed this server's limit of ${limit} bytes (${used} in use or reserved); nothing was stored`);
+    super('storage-full', `storing ${needed} bytes would exceed this server's limit of ${limit} bytes (${used} in use or reserved); nothing was stored`);
   }
 }
 

@@ -21,7 +21,7 @@ export function csvField(cell: Cell): string {
 export function csvLine(cells: readonly Cell[]): string {
   let line = '';
   for (let i = 0; i < cells.length; i++) line += (i === 0 ? '' : ',') + csvField(cells[i]!);
-  return line + '\r\n';
+  return `${line}\r\n`;
 }
 
 /**

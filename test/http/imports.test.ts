@@ -89,3 +89,46 @@ describe('when the server reads a recording itself', () => {
     }
   });
 });
+
+describe('when the far side of a URL import fails', () => {
+  let far: Server;
+  let farPort: number;
+  let small: Awaited<ReturnType<typeof startTestApi>>;
+  beforeAll(async () => {
+    far = createServer((request, response) => {
+      if (request.url === '/huge') {
+        // No Content-Length: the limit is found while streaming.
+        response.writeHead(200, { 'content-type': 'application/octet-stream' });
+        response.write(Buffer.alloc(4096));
+        response.end(Buffer.alloc(4096));
+      } else if (request.url === '/stall') {
+        response.writeHead(200, { 'content-type': 'application/octet-stream' });
+        response.write(edf.subarray(0, 256));
+      } else if (request.url === '/reset') {
+        response.writeHead(200, { 'content-type': 'application/octet-stream', 'content-length': '5000' });
+        response.write(edf.subarray(0, 256), () => setTimeout(() => request.socket.destroy(), 20));
+      } else response.writeHead(404).end();
+    });
+    await new Promise<void>((r) => far.listen(0, '127.0.0.1', r));
+    farPort = (far.address() as AddressInfo).port;
+    small = await startTestApi({ FETCH_ALLOWED_HOSTS: '127.0.0.1', FETCH_ALLOW_PRIVATE: 'true', BODY_LIMIT_BYTES: '6000', FETCH_TIMEOUT_MS: '300' });
+  });
+  afterAll(async () => {
+    await small.stop();
+    far.closeAllConnections();
+    await new Promise((r) => far.close(r));
+  });
+
+  // RFC 9110 §15.5.14 (413 Content Too Large) and §15.6.3 (502 Bad Gateway: an invalid response
+  // from an inbound server); the client's request was fine, so 400 would blame the wrong side.
+  it.each([
+    ['a body over the limit', '/huge', 413, '/problems/payload-too-large'],
+    ['a body that stalls', '/stall', 502, '/problems/source-failed'],
+    ['a connection reset mid-body', '/reset', 502, '/problems/source-failed'],
+  ])('should answer %s (%s) with %i, not the client\'s 400', async (_what, path, status, type) => {
+    const res = await importing({ url: `http://127.0.0.1:${farPort}${path}` }, small.app);
+    expect(res.statusCode, res.body).toBe(status);
+    expect(res.headers['content-type']).toContain('application/problem+json');
+    expect(res.json()).toMatchObject({ type, pointer: '/url' });
+  });
+});

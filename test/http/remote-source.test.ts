@@ -162,13 +162,13 @@ describe('when the guarded lookup resolves a host', () => {
   it('should refuse the host when any one address is private, even after public ones (DNS rebinding)', async () => {
     const [error] = await run(false, [...publicOnly, { address: '10.0.0.7', family: 4 }], true);
     expect(error).toBeInstanceOf(SourceError);
-    expect((error as SourceError).code).toBe('forbidden-host');
+    expect((error as SourceError).reason).toBe('forbidden-host');
     expect((error as SourceError).message).toContain('10.0.0.7');
   });
 
   it('should refuse an IPv4-mapped loopback answer', async () => {
     const [error] = await run(false, [{ address: '::ffff:127.0.0.1', family: 6 }], false);
-    expect((error as SourceError).code).toBe('forbidden-host');
+    expect((error as SourceError).reason).toBe('forbidden-host');
   });
 
   it('should hand every address on when all are public and all were asked for', async () => {
@@ -272,7 +272,7 @@ describe('when the URL itself is refused', () => {
     ['http://127.0.0.1.nip.example/x.edf', 'not on this server\'s list'],
   ])('should refuse %s (%s)', async (url, why) => {
     const error = await refusal(url, policy());
-    expect(error.code).toBe('forbidden-host');
+    expect(error.reason).toBe('forbidden-host');
     expect(error.pointer).toBe('/url');
     expect(error.message).toContain(why);
   });
@@ -280,7 +280,7 @@ describe('when the URL itself is refused', () => {
   it('should refuse every URL when the allow-list is empty, without connecting', async () => {
     const server = await serve((_q, res) => res.end('x'));
     const error = await refusal(`http://127.0.0.1:${server.port}/x`, policy({ allowedHosts: [] }));
-    expect(error.code).toBe('forbidden-host');
+    expect(error.reason).toBe('forbidden-host');
     expect(error.message).toContain('turned off');
     expect(server.requests).toBe(0);
   });
@@ -288,7 +288,7 @@ describe('when the URL itself is refused', () => {
   it('should refuse a host not on the list without connecting', async () => {
     const server = await serve((_q, res) => res.end('x'));
     const error = await refusal(`http://localhost:${server.port}/x`, policy({ allowedHosts: ['127.0.0.1'] }));
-    expect(error.code).toBe('forbidden-host');
+    expect(error.reason).toBe('forbidden-host');
     expect(server.requests).toBe(0);
   });
 
@@ -309,7 +309,7 @@ describe('when the host is loopback and private addresses are not allowed', () =
   ])('should refuse %s even though it is allow-listed', async (_what, url, allowedHosts) => {
     const server = await serve((_q, res) => res.end('x'));
     const error = await refusal(url(server.port), policy({ allowPrivate: false, allowedHosts }));
-    expect(error.code).toBe('forbidden-host');
+    expect(error.reason).toBe('forbidden-host');
     expect(error.message).toContain('loopback');
     expect(server.requests).toBe(0);
   });
@@ -362,8 +362,8 @@ describe('when the server answers', () => {
       res.end('nope');
     });
     const error = await refusal(`http://127.0.0.1:${server.port}/x`, policy());
-    expect(error.code).toBe('fetch-failed');
-    expect(error.status).toBe(status);
+    expect(error.reason).toBe('fetch-failed');
+    expect(error.upstreamStatus).toBe(status);
     expect(error.message).toContain(String(status));
   });
 
@@ -373,7 +373,7 @@ describe('when the server answers', () => {
     running.splice(running.indexOf(server), 1);
     await new Promise((resolve) => server.server.close(resolve));
     const error = await refusal(`http://127.0.0.1:${port}/x`, policy());
-    expect(error.code).toBe('fetch-failed');
+    expect(error.reason).toBe('fetch-failed');
     expect(error.message).toContain('ECONNREFUSED');
   });
 });
@@ -397,7 +397,7 @@ describe('when the server redirects', () => {
       res.end();
     });
     const error = await refusal(`http://127.0.0.1:${server.port}/x`, policy());
-    expect(error.code).toBe('forbidden-host');
+    expect(error.reason).toBe('forbidden-host');
     expect(error.message).toContain('another host');
     expect(server.requests).toBe(1);
   });
@@ -409,7 +409,7 @@ describe('when the server redirects', () => {
       res.end();
     });
     const error = await refusal(`http://127.0.0.1:${server.port}/x`, policy());
-    expect(error.code).toBe('forbidden-host');
+    expect(error.reason).toBe('forbidden-host');
     expect(other.requests).toBe(0);
   });
 
@@ -418,7 +418,7 @@ describe('when the server redirects', () => {
       res.writeHead(302, { location: 'ftp://127.0.0.1/x' });
       res.end();
     });
-    expect((await refusal(`http://127.0.0.1:${server.port}/x`, policy())).code).toBe('forbidden-host');
+    expect((await refusal(`http://127.0.0.1:${server.port}/x`, policy())).reason).toBe('forbidden-host');
   });
 
   it('should stop after maxRedirects and say so', async () => {
@@ -427,7 +427,7 @@ describe('when the server redirects', () => {
       res.end();
     });
     const error = await refusal(`http://127.0.0.1:${server.port}/x`, policy({ maxRedirects: 2 }));
-    expect(error.code).toBe('fetch-failed');
+    expect(error.reason).toBe('fetch-failed');
     expect(error.message).toContain('more than 2');
     expect(server.requests).toBe(3);
   });
@@ -438,7 +438,7 @@ describe('when the server redirects', () => {
       res.end();
     });
     const error = await refusal(`http://127.0.0.1:${server.port}/x`, policy({ maxRedirects: 0 }));
-    expect(error.code).toBe('fetch-failed');
+    expect(error.reason).toBe('fetch-failed');
     expect(server.requests).toBe(1);
   });
 });
@@ -450,7 +450,7 @@ describe('when the body is too large', () => {
       res.write(Buffer.alloc(10)); // the rest never comes: only the header can have decided
     });
     const error = await refusal(`http://127.0.0.1:${server.port}/x`, policy({ maxBytes: 1000 }));
-    expect(error.code).toBe('too-large');
+    expect(error.reason).toBe('too-large');
     expect(error.message).toContain('5000');
   });
 
@@ -468,7 +468,7 @@ describe('when the body is too large', () => {
     const body = await openRemote(`http://127.0.0.1:${server.port}/x`, policy({ maxBytes: 1000 }));
     expect(body.contentLength).toBeNull();
     const error = await streamError(body.stream);
-    expect(error.code).toBe('too-large');
+    expect(error.reason).toBe('too-large');
     await serverSideClosed;
     expect(written).toBeGreaterThan(1000);
   });
@@ -478,7 +478,7 @@ describe('when the server is slow', () => {
   it('should time out when the server accepts but never answers', async () => {
     const server = await serve(() => {});
     const error = await refusal(`http://127.0.0.1:${server.port}/x`, policy({ timeoutMs: 200 }));
-    expect(error.code).toBe('timeout');
+    expect(error.reason).toBe('timeout');
     expect(server.requests).toBe(1);
   });
 
@@ -491,7 +491,7 @@ describe('when the server is slow', () => {
     });
     const body = await openRemote(`http://127.0.0.1:${server.port}/x`, policy({ timeoutMs: 200 }));
     const error = await streamError(body.stream);
-    expect(error.code).toBe('timeout');
+    expect(error.reason).toBe('timeout');
     await serverSideClosed;
   });
 
@@ -513,6 +513,6 @@ describe('when the server is slow', () => {
     });
     const body = await openRemote(`http://127.0.0.1:${server.port}/x`, policy({ timeoutMs: 2000 }));
     const error = await streamError(body.stream);
-    expect(error.code).toBe('fetch-failed');
+    expect(error.reason).toBe('fetch-failed');
   });
 });

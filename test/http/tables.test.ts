@@ -105,12 +105,16 @@ describe('when the table cannot be given', () => {
   });
 
   it('should answer 409 for a job that failed, with its reason', async () => {
-    const failed = await submit({ method: 'welch', epoching: { mode: 'events', labels: ['no-such-block'], afterSeconds: 2 } });
+    // A flat channel is flagged in every epoch, and dropFlagged leaves no epoch: known only once the samples are read.
+    const flat = { samplingRate: 128, channels: ['Cz'], data: [Array.from({ length: 512 }, () => 0)] };
+    const res0 = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: flat, recipe: { method: 'welch', features: { quality: { dropFlagged: true } } } } });
+    expect(res0.statusCode, res0.body).toBe(202);
+    const failed = await pollJob(api.app, res0.json().id, 60_000, auth(KEYS.lab));
     expect(failed.state).toBe('failed');
     const res = await get(`/v1/jobs/${failed.id as string}/table`);
     expect(res.statusCode).toBe(409);
     expect(res.json()).toMatchObject({ type: '/problems/record-not-ready' });
-    expect(res.json().detail).toContain('no-such-block');
+    expect(res.json().detail).toContain('left out');
   });
 
   it("should answer 404 for another tenant's job, as for a missing one", async () => {
@@ -133,7 +137,9 @@ describe('when a binary (float32) upload carries events', () => {
   ];
   const body = () => {
     const bytes = Buffer.alloc(channels.length * seconds * fs * 4);
-    rows.flat().forEach((v, i) => bytes.writeFloatLE(v, i * 4));
+    rows.flat().forEach((v, i) => {
+      bytes.writeFloatLE(v, i * 4);
+    });
     return bytes;
   };
   const binary = (query: string) => api.app.inject({ method: 'POST', url: `/v1/signals?samplingRate=${fs}&channels=${channels.join(',')}${query}`, headers: { ...auth(KEYS.lab), 'content-type': 'application/octet-stream' }, payload: body() });
@@ -171,6 +177,13 @@ describe('when a binary (float32) upload carries events', () => {
     const epochs = table.filter((r) => r.scope === 'epoch' && r.channel === 'O1' && r.band === 'alpha');
     // Two 6-s blocks, three 2-s epochs each; the blink marker has no duration and tiles nothing.
     expect(epochs.map((r) => [r.epochStart, r.label])).toEqual([['0', 'eyes-open'], ['2', 'eyes-open'], ['4', 'eyes-open'], ['6', 'eyes-closed'], ['8', 'eyes-closed'], ['10', 'eyes-closed']]);
+  });
+
+  it('should refuse blocks epoching on a label whose events have no duration before queueing, naming the label', async () => {
+    const id = (await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`)).json().id as string;
+    const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: id, recipe: { method: 'welch', epoching: { mode: 'blocks', labels: ['eyes-open', 'blink'], lengthSeconds: 2 } } } });
+    expect(res.statusCode).toBe(422);
+    expect(res.json()).toMatchObject({ type: '/problems/recipe-unfit', pointer: '/recipe/epoching/labels/1' });
   });
 
   it('should refuse events that are not JSON, or an event without a label, pointing into the query', async () => {

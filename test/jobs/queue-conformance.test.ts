@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createRandom } from '../../src/common/random.js';
-import { storeSignal } from '../../src/http/services.js';
+import { storeSignal } from '../../src/stores/signals.js';
 import { BullQueue } from '../../src/jobs/bullmq-queue.js';
 import { startBullWorker } from '../../src/jobs/bullmq-worker.js';
 import { createComputePool, type ComputePool } from '../../src/jobs/compute-pool.js';

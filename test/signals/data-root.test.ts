@@ -100,7 +100,7 @@ describe('when the path text is refused before the disk is touched', () => {
     ['a%252Fb.edf', 'percent-encoded'],
   ])('should refuse %j (%s)', async (requested, why) => {
     const error = await failure(requested);
-    expect(error.code).toBe('forbidden-path');
+    expect(error.reason).toBe('forbidden-path');
     expect(error.pointer).toBe('/file');
     expect(error.message).toContain(why);
   });
@@ -122,13 +122,13 @@ describe('when a symbolic link leads out of the root', () => {
     ['a/dotdot-link.edf', 'a relative link climbing out'],
   ])('should refuse %j (%s)', async (requested) => {
     const error = await failure(requested);
-    expect(error.code).toBe('forbidden-path');
+    expect(error.reason).toBe('forbidden-path');
     expect(error.message).toContain('outside the data root');
   });
 
   it('should refuse a loop of links', async () => {
     const error = await failure('loop1');
-    expect(error.code).toBe('forbidden-path');
+    expect(error.reason).toBe('forbidden-path');
     expect(error.message).toContain('loop');
   });
 });
@@ -136,7 +136,7 @@ describe('when a symbolic link leads out of the root', () => {
 describe('when the file system refuses the name', () => {
   it('should refuse a name longer than the file system allows (NAME_MAX is 255 bytes on Linux, from memory)', async () => {
     const error = await failure(`a/${'x'.repeat(300)}.edf`);
-    expect(error.code).toBe('forbidden-path');
+    expect(error.reason).toBe('forbidden-path');
     expect(error.message).toContain('too long');
   });
 });
@@ -146,21 +146,21 @@ describe('when nothing usable is at the path', () => {
     'should answer not-found for %j',
     async (requested) => {
       const error = await failure(requested);
-      expect(error.code).toBe('not-found');
+      expect(error.reason).toBe('not-found');
       expect(error.pointer).toBe('/file');
     },
   );
 
   it.each([['a'], ['a/deep/'], ['self'], ['self/a']])('should answer not-a-file for the directory %j', async (requested) => {
     const error = await failure(requested);
-    expect(error.code).toBe('not-a-file');
+    expect(error.reason).toBe('not-a-file');
   });
 
   it('should answer not-a-file for a special file (a FIFO is not readable as a recording)', async () => {
     const { execFileSync } = await import('node:child_process');
     execFileSync('mkfifo', [join(root, 'pipe')]);
     const error = await failure('pipe');
-    expect(error.code).toBe('not-a-file');
+    expect(error.reason).toBe('not-a-file');
     expect(error.message).toContain('not a regular file');
   });
 });
@@ -203,7 +203,7 @@ describe('when a file is opened under the root', () => {
   });
 
   it('should refuse to open what it would refuse to resolve', async () => {
-    await expect(openUnderRoot(root, 'hostname-link')).rejects.toMatchObject({ code: 'forbidden-path' });
+    await expect(openUnderRoot(root, 'hostname-link')).rejects.toMatchObject({ reason: 'forbidden-path' });
   });
 
   it('should answer not-found when the file disappears by a rename', async () => {
@@ -213,6 +213,6 @@ describe('when a file is opened under the root', () => {
     await first.handle.close();
     expect(first.size).toBe(1);
     await rename(join(root, 'soon-gone.edf'), join(root, 'gone.edf'));
-    await expect(dataRoot.open('soon-gone.edf')).rejects.toMatchObject({ code: 'not-found' });
+    await expect(dataRoot.open('soon-gone.edf')).rejects.toMatchObject({ reason: 'not-found' });
   });
 });

@@ -116,7 +116,7 @@ describe('when a file mixes sampling rates', () => {
 
   it('should refuse without a selection, listing each rate with its labels', () => {
     const error = thrown(() => toSignal(bytes));
-    expect(error.code).toBe('sampling-rate');
+    expect(error.kind).toBe('sampling-rate');
     expect(error.pointer).toBe('/body');
     expect(error.message).toContain('256 Hz: "Fz", "Cz"');
     expect(error.message).toContain('32 Hz: "Resp"');
@@ -137,13 +137,13 @@ describe('when a file mixes sampling rates', () => {
     const direct = toSignal(bytes, { channels: ['Cz'] });
     expect(Array.from(channelView(signal, 0, 0))).toEqual(Array.from(direct.data));
     const error = thrown(() => toSignal(bytes, { channels: ['Fz', 'Resp'] }));
-    expect(error.code).toBe('sampling-rate');
+    expect(error.kind).toBe('sampling-rate');
     expect(error.pointer).toBe('/query/channels');
   });
 
   it('should refuse a samplingRate no signal has, and a selected channel of another rate', () => {
     const none = thrown(() => toSignal(bytes, { samplingRate: 500 }));
-    expect(none.code).toBe('sampling-rate');
+    expect(none.kind).toBe('sampling-rate');
     expect(none.pointer).toBe('/query/samplingRate');
     expect(none.message).toContain('500 Hz');
     const other = thrown(() => toSignal(bytes, { channels: ['Fz', 'Resp'], samplingRate: 256 }));
@@ -185,7 +185,7 @@ describe('when channels are selected by label', () => {
 
   it('should refuse an unknown label at /query/channels/i, listing the labels that exist', () => {
     const error = thrown(() => toSignal(bytes, { channels: ['F4', 'Fp1'] }));
-    expect(error.code).toBe('channels');
+    expect(error.kind).toBe('channels');
     expect(error.pointer).toBe('/query/channels/1');
     expect(error.message).toContain('"Fp1"');
     expect(error.message).toContain('"F3", "F4"');
@@ -194,13 +194,13 @@ describe('when channels are selected by label', () => {
   it('should not offer the annotations signal as a channel (EDF+ §2.2.1)', () => {
     expect(toSignal(bytes).channels).toEqual(['F3', 'F4']);
     const error = thrown(() => toSignal(bytes, { channels: ['EDF Annotations'] }));
-    expect(error.code).toBe('channels');
+    expect(error.kind).toBe('channels');
     expect(error.message).toContain('annotations');
   });
 
   it('should refuse a label given twice and an empty selection', () => {
-    expect(thrown(() => toSignal(bytes, { channels: ['F3', 'F3'] })).code).toBe('channels');
-    expect(thrown(() => toSignal(bytes, { channels: [] })).code).toBe('channels');
+    expect(thrown(() => toSignal(bytes, { channels: ['F3', 'F3'] })).kind).toBe('channels');
+    expect(thrown(() => toSignal(bytes, { channels: [] })).kind).toBe('channels');
   });
 
   it('should refuse a label two signals share, naming their positions', () => {
@@ -211,7 +211,7 @@ describe('when channels are selected by label', () => {
     const ambiguous = thrown(() => toSignal(twins, { channels: ['EEG'] }));
     expect(ambiguous.message).toContain('signals 1, 2');
     const all = thrown(() => toSignal(twins));
-    expect(all.code).toBe('channels');
+    expect(all.kind).toBe('channels');
     expect(all.pointer).toBe('/body');
   });
 });
@@ -230,7 +230,7 @@ describe('when channels have different physical dimensions', () => {
 
   it('should refuse channels of different units after conversion, naming them', () => {
     const error = thrown(() => toSignal(bytes));
-    expect(error.code).toBe('channels');
+    expect(error.kind).toBe('channels');
     expect(error.message).toContain('"uV": "C3", "C4"');
     expect(error.message).toContain('"%": "SpO2"');
   });
@@ -281,7 +281,7 @@ describe('when the file is EDF+D', () => {
     // Record 3 says +5 s where record 2 ended at 2 s: a gap of 3 s (EDF+ §2.2.4, EDF+D).
     const gappy = rewriteAnnotations(bytes, ['+0\x14\x14\x00', '+1\x14\x14\x00', '+5\x14\x14\x00'], 'EDF+D');
     const error = thrown(() => toSignal(gappy));
-    expect(error.code).toBe('format');
+    expect(error.kind).toBe('format');
     expect(error.pointer).toBe('/body');
     expect(error.message).toContain('1 gap');
     expect(error.message).toContain('after record 2, 2 s to 5 s');
@@ -301,7 +301,7 @@ describe('when the bytes are malformed', () => {
     const bad = good.slice();
     bad.set(ascii('abc     '), 236); // data record count, offset 236 (Kemp et al. 1992 header layout)
     const error = thrown(() => toSignal(bad));
-    expect(error.code).toBe('format');
+    expect(error.kind).toBe('format');
     expect(error.pointer).toBe('/body');
     expect(error.message).toContain('data record count');
     expect(error.message).toContain('offset 236');
@@ -316,10 +316,10 @@ describe('when the bytes are malformed', () => {
 
   it('should refuse a truncated file and a file cut inside the fixed header, with an offset', () => {
     const truncated = thrown(() => toSignal(good.subarray(0, good.length - 3)));
-    expect(truncated.code).toBe('format');
+    expect(truncated.kind).toBe('format');
     expect(truncated.message).toMatch(/offset \d+/);
     const stub = thrown(() => toSignal(good.subarray(0, 100)));
-    expect(stub.code).toBe('format');
+    expect(stub.kind).toBe('format');
     expect(stub.message).toMatch(/offset \d+/);
   });
 
@@ -327,7 +327,7 @@ describe('when the bytes are malformed', () => {
     const plus = edf([{ label: 'Fz', samples: noise(512, 10, 2), samplingRate: 256 }], { annotations: roomy });
     const bad = rewriteAnnotations(plus, ['+0\x14\x14\x00', '1\x14\x14\x00']);
     const error = thrown(() => toSignal(bad));
-    expect(error.code).toBe('format');
+    expect(error.kind).toBe('format');
     expect(error.message).toMatch(/TAL at offset \d+/);
   });
 });
@@ -339,13 +339,13 @@ describe('when the server limits are reached', () => {
   ]);
 
   it('should refuse too many samples or channels before decoding', () => {
-    expect(thrown(() => toSignal(bytes, {}, { ...DEFAULT_SIGNAL_LIMITS, maxSamples: 1023 })).code).toBe('limit');
-    expect(thrown(() => toSignal(bytes, {}, { ...DEFAULT_SIGNAL_LIMITS, maxChannels: 1 })).code).toBe('limit');
+    expect(thrown(() => toSignal(bytes, {}, { ...DEFAULT_SIGNAL_LIMITS, maxSamples: 1023 })).kind).toBe('limit');
+    expect(thrown(() => toSignal(bytes, {}, { ...DEFAULT_SIGNAL_LIMITS, maxChannels: 1 })).kind).toBe('limit');
     expect(toSignal(bytes, { channels: ['Cz'] }, { ...DEFAULT_SIGNAL_LIMITS, maxChannels: 1 }).channels).toEqual(['Cz']);
   });
 
   it('should refuse a rate above the limit', () => {
-    expect(thrown(() => toSignal(bytes, {}, { ...DEFAULT_SIGNAL_LIMITS, maxSamplingRate: 200 })).code).toBe('sampling-rate');
+    expect(thrown(() => toSignal(bytes, {}, { ...DEFAULT_SIGNAL_LIMITS, maxSamplingRate: 200 })).kind).toBe('sampling-rate');
   });
 
   it('should refuse a file that holds annotations only', () => {
@@ -359,7 +359,7 @@ describe('when the server limits are reached', () => {
       '+0\x14\x14\x00+0\x14Marker\x14\x00',
     ];
     const error = thrown(() => toSignal(ascii(fields.join(''))));
-    expect(error.code).toBe('channels');
+    expect(error.kind).toBe('channels');
     expect(error.message).toContain('no ordinary signal');
   });
 });

@@ -103,12 +103,12 @@ describe('when a Welch record with label means, per-epoch spectra and confidence
         expectCell(row.peakFrequency, f.peakFrequency!.frequency, where);
         expectCell(row.peakPower, f.peakFrequency!.power, where);
         expectCell(row.centroid, f.centroid!.frequency, where);
-        f.spectralEdge!.edges.forEach((e) => expectCell(row[`spectralEdge${String(e.percentile).replace('.', '_')}`], e.frequency, where));
+        for (const e of f.spectralEdge!.edges) expectCell(row[`spectralEdge${String(e.percentile).replace('.', '_')}`], e.frequency, where);
         expectCell(row.entropy, f.entropy!.value, where);
         expectCell(row.powerLawSlope, f.powerLaw!.slope, where);
         expectCell(row.powerLawInlierFraction, f.powerLaw!.inlierFraction, where);
         expectCell(row.lineNoiseMaxRatio, f.lineNoise!.maxRatio, where);
-        f.lineNoise!.harmonics.forEach((h) => expectCell(row[`lineNoise${h.frequency}Hz`], h.ratio, where));
+        for (const h of f.lineNoise!.harmonics) expectCell(row[`lineNoise${h.frequency}Hz`], h.ratio, where);
         // Quality flags belong to one epoch: empty on the means.
         const q = s.scope === 'epoch' ? result.quality!.find((x) => String(x.index) === s.epoch)!.channels.find((c) => c.name === ch.name)! : null;
         expectCell(row.flat, q ? q.flat : null, where);

@@ -6,8 +6,12 @@ import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
 import { requireJob as requireJobOf, unavailable } from '../job-access.js';
 import { importSignal } from '../imports.js';
-import { FeatureRecordSchema, ImportSourceSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse } from '../schemas.js';
-import { getRecipe, getSignalMeta, pinRecipe, planJob, storeSignal } from '../services.js';
+import { locatedUnder } from '../../common/errors.js';
+import { getRecipe, pinRecipe, planJob } from '../../jobs/plan.js';
+import { indexedRecordKey, indexJob } from '../../jobs/retention.js';
+import { getSignalMeta, storeSignal } from '../../stores/signals.js';
+import type { SignalMeta } from '../../stores/store.js';
+import { FeatureRecordSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse, type JobRequest } from '../schemas.js';
 import { zodValidator } from '../validation.js';
 import { tenantOf } from '../auth.js';
 import { z } from 'zod';
@@ -20,21 +24,12 @@ function present(job: JobView) {
 export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
   const { store, queue, config } = deps;
 
-  async function indexedRecord(id: string, tenant: string): Promise<string | null> {
-    if (!/^job_[0-9a-f]{32}$/.test(id)) return null;
-    const text = await store.getDocument('job-index', id).catch(() => null);
-    if (!text) return null;
-    const entry = JSON.parse(text) as { tenant: string; recordKey: string };
-    if (entry.tenant !== tenant) return null;
-    return (await store.getDocument('records', entry.recordKey).catch(() => null)) !== null ? entry.recordKey : null;
-  }
-
   const requireJob = (id: string, tenant: string) => requireJobOf(queue, id, tenant);
 
   app.post(
     '/v1/jobs',
     {
-      config: { recipePointer: '/recipe', signalPointer: '/signal', access: 'submit' },
+      config: { access: 'submit' },
       schema: {
         summary: 'Submit an analysis',
         description:
@@ -51,26 +46,30 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
           503: problemResponse('the queue is unavailable; retry after Retry-After seconds'),
         },
       },
-      validatorCompiler: zodValidator({ body: JobRequestEnvelope }),
+      validatorCompiler: zodValidator({ body: JobRequestEnvelope }, { parsedBody: true }),
     },
     async (request, reply) => {
-      const body = request.body as { signal: unknown; recipe: unknown };
+      const { signal, recipe } = request.body as unknown as JobRequest;
       const tenant = tenantOf(request);
       let view: SignalView | null = null;
-      let meta;
-      if (typeof body.signal === 'string') {
-        meta = await getSignalMeta(store, body.signal, tenant, '/signal');
-      } else if (body.signal && typeof body.signal === 'object' && ('file' in body.signal || 'url' in body.signal)) {
-        meta = await importSignal(config, store, ImportSourceSchema.parse(body.signal), tenant, '/signal');
-      } else if (body.signal && typeof body.signal === 'object' && 'signal' in body.signal) {
-        const { signal: id, ...rest } = body.signal as SignalView & { signal: string };
-        meta = await getSignalMeta(store, id, tenant, '/signal/signal');
-        view = rest;
-      } else {
-        meta = await storeSignal(store, decodeJsonSignal(body.signal as Parameters<typeof decodeJsonSignal>[0], config.signalLimits), tenant, config.maxStoreBytes);
+      let meta: SignalMeta;
+      switch (signal.kind) {
+        case 'stored':
+          meta = await getSignalMeta(store, signal.id, tenant, '/signal');
+          break;
+        case 'view':
+          meta = await getSignalMeta(store, signal.id, tenant, '/signal/signal');
+          view = signal.view;
+          break;
+        case 'import':
+          meta = await importSignal(config, store, signal.source, tenant, '/signal');
+          break;
+        case 'upload':
+          meta = await locatedUnder('/signal', () => storeSignal(store, decodeJsonSignal(signal.upload as Parameters<typeof decodeJsonSignal>[0], config.signalLimits), tenant, config.maxStoreBytes));
+          break;
       }
-      const pinned = typeof body.recipe === 'string' ? await getRecipe(store, body.recipe, '/recipe') : await pinRecipe(store, body.recipe);
-      const { jobId, spec } = planJob(config, meta, pinned, view);
+      const pinned = typeof recipe === 'string' ? await getRecipe(store, recipe, '/recipe') : await locatedUnder('/recipe', () => pinRecipe(store, recipe));
+      const { jobId, spec } = planJob(config.recipeLimits, meta, pinned, view);
       let submitted;
       try {
         submitted = await queue.submit(spec, jobId);
@@ -79,11 +78,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
         throw unavailable(error, 'nothing was queued');
       }
       deps.metrics?.jobSubmitted(spec.recipe.method, submitted.created);
-      // Distributed mode: remember where the job's record will be, so that stored records can still
-      // be served while Redis is down (with STORE=filesystem on a shared disk).
-      if (queue.mode === 'distributed' && submitted.created && store.kind === 'filesystem') {
-        await store.putDocument('job-index', jobId, JSON.stringify({ tenant: spec.tenant, recordKey: spec.recordKey }), { durable: false });
-      }
+      if (submitted.created) await indexJob(store, queue, jobId, spec);
       request.log.info({ jobId, created: submitted.created, signalId: meta.id, recipeId: pinned.id }, 'job submitted');
       const status = !submitted.created && submitted.job.state === 'succeeded' ? 200 : 202;
       return reply.code(status).header('location', `/v1/jobs/${jobId}`).send(present(submitted.job));
@@ -195,7 +190,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
         recordKey = job.recordKey;
       } catch (error) {
         // The queue is down: a record that is already stored is still served from the store.
-        const fallback = error instanceof ProblemError && error.code === 'queue-unavailable' ? await indexedRecord(request.params.id, tenant) : null;
+        const fallback = error instanceof ProblemError && error.code === 'queue-unavailable' ? await indexedRecordKey(store, request.params.id, tenant) : null;
         if (!fallback) throw error;
         request.log.info({ jobId: request.params.id }, 'record served from the store while the queue is unavailable');
         recordKey = fallback;

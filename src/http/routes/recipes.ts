@@ -3,7 +3,7 @@ import { z } from 'zod';
 import type { AppDeps } from '../app.js';
 import { IdParams, PinnedRecipeSchema, problemResponse } from '../schemas.js';
 import { RecipeSchema } from '../../recipes/schema.js';
-import { getRecipe, pinRecipe } from '../services.js';
+import { getRecipe, pinRecipe } from '../../jobs/plan.js';
 import { zodValidator } from '../validation.js';
 
 export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {

@@ -3,9 +3,9 @@ import { ingestFile, type IngestDescription } from '../../stores/ingest.js';
 import { isStream, receiveToFile } from '../receive.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
 import { importSignal } from '../imports.js';
-import { deleteRecord } from '../../jobs/retention.js';
+import { deleteSignalCascade } from '../../jobs/retention.js';
 import { BinaryUploadQuery, EdfUploadQuery, IdParams, ImportSourceSchema, UploadQueryDoc, problemResponse, SignalInfoSchema, SignalUploadEnvelope, SignalUploadSchema } from '../schemas.js';
-import { getSignalMeta, storeSignal } from '../services.js';
+import { getSignalMeta, storeSignal } from '../../stores/signals.js';
 import { validationError, zodValidator } from '../validation.js';
 import { tenantOf } from '../auth.js';
 import { z } from 'zod';
@@ -119,14 +119,9 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     },
     async (request) => {
       const meta = await getSignalMeta(deps.store, request.params.id, tenantOf(request));
-      const jobs = await deps.queue.list({ tenant: meta.tenant, signal: meta.id, limit: 100_000 });
-      for (const job of jobs) {
-        await deps.queue.remove(job.id);
-        await deleteRecord(deps.store, job.recordKey);
-      }
-      await deps.store.deleteSignal(meta.id);
-      request.log.info({ signalId: meta.id, jobsDeleted: jobs.length }, 'signal deleted');
-      return { id: meta.id, deleted: true as const, jobsDeleted: jobs.length };
+      const jobsDeleted = await deleteSignalCascade(deps.store, deps.queue, meta);
+      request.log.info({ signalId: meta.id, jobsDeleted }, 'signal deleted');
+      return { id: meta.id, deleted: true as const, jobsDeleted };
     },
   );
 };

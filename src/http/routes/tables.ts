@@ -8,7 +8,7 @@ import type { AppDeps } from '../app.js';
 import { tenantOf } from '../auth.js';
 import { requireRecord } from '../job-access.js';
 import { IdParams, problemResponse } from '../schemas.js';
-import { asProblem, chooseTableFormat, sendTable } from '../table-response.js';
+import { chooseTableFormat, sendTable } from '../table-response.js';
 
 /** Query of the table routes (the run-level table takes the same). */
 export const TableQuery = z.strictObject({
@@ -56,12 +56,7 @@ export const tableRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
       const format = chooseTableFormat(request.query.format, request.headers.accept);
       const record = await requireRecord(queue, store, request.params.id, tenantOf(request), 'its table exists');
       const level = request.query.level ?? tableLevels(record)[0] ?? 'bands';
-      let layout;
-      try {
-        layout = createTableLayout(record, level);
-      } catch (error) {
-        throw asProblem(error);
-      }
+      const layout = createTableLayout(record, level);
       request.log.info({ jobId: request.params.id, level, format }, 'table requested');
       return sendTable(reply, {
         format,
