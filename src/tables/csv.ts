@@ -1,7 +1,7 @@
 import type { Cell, Column, Row } from './columns.js';
 import type { TableWriter } from './writer.js';
 
-// RFC 4180 §2 rule 6: fields holding a comma, a double quote or a line break are enclosed in quotes.
+// RFC 4180 §2 rule 6 (docs/references.md §9): fields holding a comma, a double quote or a line break are enclosed in quotes.
 const NEEDS_QUOTES = /[",\r\n]/;
 
 /** One CSV field: RFC 4180 §2 rules 6–7 for text, shortest round-trip digits for numbers. */

@@ -10,7 +10,7 @@ const columns: Column[] = [
   { name: 'value', type: 'double', unit: null, meaning: '' },
 ];
 
-describe('when text is written as CSV fields (RFC 4180 §2)', () => {
+describe('when text is written as CSV fields (RFC 4180 §2, docs/references.md §9)', () => {
   it('should end every record, the header included, with CRLF (rule 1) and put the header first (rule 3)', () => {
     const text = [...encodeTable(createCsvWriter(columns), [['a', 1]])].join('');
     expect(text).toBe('name,value\r\na,1\r\n');
@@ -42,7 +42,7 @@ describe('when text is written as CSV fields (RFC 4180 §2)', () => {
 });
 
 describe('when numbers are written as CSV fields', () => {
-  it('should write every double so that it reads back to the same double, −0 and subnormals included (ECMA-262 Number::toString is shortest round-trip)', () => {
+  it('should write every double so that it reads back to the same double, −0 and subnormals included (ECMA-262 Number::toString, docs/references.md §9)', () => {
     fc.assert(
       fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), (x) => {
         expect(Object.is(Number(csvField(x)), x)).toBe(true);
