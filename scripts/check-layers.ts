@@ -18,9 +18,10 @@ const ALLOWED: Record<string, string[]> = {
   recipes: ['methods', 'dsp', 'common'],
   engine: ['methods', 'dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
+  tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'methods', 'signals', 'common'],
-  http: ['jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
-  cli: ['http', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  http: ['tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
+  cli: ['tables', 'http', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

@@ -5,6 +5,7 @@ import { decodeJsonSignal } from '../../signals/decode-json.js';
 import type { SignalView } from '../../signals/view.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
+import { requireJob as requireJobOf, unavailable } from '../job-access.js';
 import { importSignal } from '../imports.js';
 import { locatedUnder } from '../../common/errors.js';
 import { getRecipe, pinRecipe, planJob } from '../../jobs/plan.js';
@@ -16,12 +17,6 @@ import { zodValidator } from '../validation.js';
 import { tenantOf } from '../auth.js';
 import { z } from 'zod';
 
-/** A queue fault becomes 503 with Retry-After, never a 500 that hides a transient outage. */
-function unavailable(error: unknown, what = 'try again shortly'): ProblemError {
-  const reason = error instanceof Error ? error.message : String(error);
-  return new ProblemError('queue-unavailable', `the job queue cannot be reached (${reason}); ${what}`, null, { 'retry-after': '5' });
-}
-
 function present(job: JobView) {
   const { recordKey: _key, ...rest } = job;
   return { ...rest, links: { self: `/v1/jobs/${job.id}`, record: `/v1/jobs/${job.id}/record` } };
@@ -30,19 +25,7 @@ function present(job: JobView) {
 export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
   const { store, queue, config } = deps;
 
-  async function requireJob(id: string, tenant: string): Promise<JobView> {
-    let job: JobView | null = null;
-    if (/^job_[0-9a-f]{32}$/.test(id)) {
-      try {
-        job = await queue.get(id);
-      } catch (error) {
-        throw unavailable(error);
-      }
-    }
-    // Another tenant's job answers exactly like a missing one.
-    if (!job || job.tenant !== tenant) throw new ProblemError('job-not-found', `no job with id "${id}"`);
-    return job;
-  }
+  const requireJob = (id: string, tenant: string) => requireJobOf(queue, id, tenant);
 
   /**
    * The record key of the request's job once it has succeeded. While the queue is down, a record

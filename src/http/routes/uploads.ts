@@ -14,7 +14,7 @@ import { tenantOf } from '../auth.js';
 import { describeIngest } from '../imports.js';
 import { ProblemError } from '../problem.js';
 import { isStream, receiveToFile } from '../receive.js';
-import { problemResponse, SignalInfoSchema } from '../schemas.js';
+import { EventListSchema, problemResponse, SignalInfoSchema } from '../schemas.js';
 import { zodValidator } from '../validation.js';
 
 const MAX_PARTS = 10_000;
@@ -28,6 +28,7 @@ const UploadStart = z
     unit: z.string().min(1).max(32).optional().describe('float32 only: nV, uV (µV), mV or V, stored as uV; default uV'),
     voltage: z.boolean().optional().describe('float32 only: false when the samples are not a voltage (the unit is kept as given)'),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('float32 only'),
+    events: EventListSchema.optional().describe('float32 only: events, as in a JSON upload; EDF+ files bring theirs as annotations'),
     sha256: z.string().regex(/^[0-9a-f]{64}$/).optional().describe('SHA-256 of the whole file (all parts in order); checked when the upload completes'),
   })
   .meta({ id: 'UploadStart', description: 'Starts a resumable upload of a large file in numbered parts.' });
