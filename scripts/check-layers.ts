@@ -16,10 +16,11 @@ const ALLOWED: Record<string, string[]> = {
   recipes: ['dsp', 'common'],
   engine: ['dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
+  tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
   studies: ['jobs', 'stores', 'recipes', 'signals', 'common'],
-  http: ['studies', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
-  cli: ['http', 'studies', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  http: ['studies', 'tables', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
+  cli: ['tables', 'http', 'studies', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

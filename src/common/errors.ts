@@ -28,6 +28,7 @@ export const PROBLEMS = {
   'run-finished': { status: 409, title: 'The run has already finished', about: 'Only a run with queued or running entries can be canceled.' },
   'invalid-manifest': { status: 422, title: 'The entries or manifest are refused', about: 'An unknown signal or upload, a duplicate entry, a bad metadata key, a missing column or a value of the wrong type; `row` and `column` (and `pointer`) say where. Nothing was added.' },
   'attachment-not-found': { status: 404, title: 'Attachment not found', about: 'The record lists no binary attachment of that name.' },
+  'table-level-unavailable': { status: 422, title: 'The record cannot give this table level', about: 'Each kind of record gives some levels (spectra: bands, ratios, features, spectra, quality; time–frequency: summary; connectivity: pair-bands, pair-spectra); `levels` lists those this record gives.' },
   'record-not-ready': { status: 409, title: 'The record is not ready', about: 'The job has not succeeded (yet); poll the job.' },
   'unauthenticated': { status: 401, title: 'Authentication required', about: 'Send a valid API key as "Authorization: Bearer <key>".' },
   'forbidden': { status: 403, title: 'Not allowed for this key', about: "The key's role (read, submit, admin) does not cover this route." },
