@@ -18,7 +18,7 @@ const ALLOWED: Record<string, string[]> = {
   stores: ['signals', 'common'],
   tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
-  studies: ['jobs', 'stores', 'recipes', 'signals', 'common'],
+  studies: ['tables', 'jobs', 'stores', 'recipes', 'signals', 'common'],
   http: ['studies', 'tables', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
   cli: ['tables', 'http', 'studies', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],

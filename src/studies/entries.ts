@@ -1,5 +1,6 @@
 import { DomainError } from '../common/errors.js';
 import type { SignalView } from '../signals/view.js';
+import { RESERVED_COLUMN_NAMES } from '../tables/columns.js';
 
 export type MetadataValue = string | number;
 export type Metadata = Record<string, MetadataValue>;
@@ -24,37 +25,10 @@ export const VIEW_COLUMNS = ['signal', 'upload', 'start', 'end', 'channels', 'ba
 
 /**
  * Names the feature tables give their own columns (and the manifest's view columns): a metadata key
- * may not take one, or a table row would hold two columns of the same name. Compared ignoring case.
+ * may not take one, or a table row would hold two columns of the same name. Compared ignoring case,
+ * since spreadsheets and data frames often fold it.
  */
-export const RESERVED_KEYS: ReadonlySet<string> = new Set(
-  [
-    ...VIEW_COLUMNS,
-    'entry',
-    'entryId',
-    'signalId',
-    'epoch',
-    'epochStart',
-    'epochLabel',
-    'label',
-    'channel',
-    'pair',
-    'band',
-    'low',
-    'high',
-    'absolute',
-    'relative',
-    'decibels',
-    'frequency',
-    'psd',
-    'psdLower',
-    'psdUpper',
-    'time',
-    'value',
-    'resultHash',
-    'recipe',
-    'recipeId',
-  ].map((k) => k.toLowerCase()),
-);
+export const RESERVED_KEYS: ReadonlySet<string> = new Set([...VIEW_COLUMNS, ...RESERVED_COLUMN_NAMES].map((k) => k.toLowerCase()));
 
 /** One entry as the caller gives it, before the signal is looked up. */
 export interface EntryInput {

@@ -2,7 +2,10 @@ import { createHash } from 'node:crypto';
 import type { InjectOptions } from 'fastify';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoEpochs, toUploadJson, type DemoCondition, type DemoShift } from '../../src/signals/demo-recording.js';
+import { tableFromIPC } from 'apache-arrow';
+import { readParquet } from 'parquet-wasm/node';
 import { pollJob, startTestApi } from '../helpers/app.js';
+import { csvObjects } from '../tables/csv-parse.js';
 
 type Api = Awaited<ReturnType<typeof startTestApi>>;
 
@@ -245,6 +248,58 @@ describe('when a study is run', () => {
     expect(again).toMatchObject({ state: 'succeeded', counts: { total: 6, succeeded: 6, reused: 6 } });
     // The same jobs, started once: not one of them ran a second time.
     expect((await a.get('/v1/jobs?limit=1000')).json().jobs).toEqual(jobsBefore);
+  });
+
+  it("should give one table of the run whose rows carry each entry's metadata and exactly its record's numbers", async () => {
+    const res = await a.post(`/v1/studies/${study}/runs`, { recipe: RECIPE });
+    const run = await pollRun(a, study, res.json().id);
+    expect(run.state).toBe('succeeded');
+    const entries = (await a.get(`/v1/studies/${study}/entries`)).json().entries as { id: string; signal: string; metadata: Record<string, string> }[];
+    // Each entry's own record, fetched through the single-job path (the same job answers, 200).
+    const records = new Map<string, { result: { channels: { name: string; bands: { name: string; absolute: number; relative: number | null; decibels: number | null }[] }[] }; resultHash: string }>();
+    for (const entry of entries) {
+      const job = await a.post('/v1/jobs', { signal: entry.signal, recipe: RECIPE });
+      expect(job.statusCode).toBe(200);
+      records.set(entry.id, (await a.get(`/v1/jobs/${job.json().id}/record`)).json());
+    }
+
+    const csv = await a.get(`/v1/studies/${study}/runs/${run.id}/table?level=bands`);
+    expect(csv.statusCode).toBe(200);
+    expect(csv.headers['content-type']).toMatch(/^text\/csv/);
+    expect(csv.headers['content-disposition']).toBe(`attachment; filename="${study}-${run.id}-bands.csv"`);
+    const rows = csvObjects(csv.body);
+    // RFC 4180 §2: the header names the columns; entry and metadata lead, provenance closes.
+    expect(Object.keys(rows[0]!).slice(0, 5)).toEqual(['entry', 'subject', 'session', 'condition', 'signal']);
+    // One mean row per entry × channel × band (the recipe asks for no per-epoch rows).
+    expect(rows).toHaveLength(6 * 8 * 2);
+    for (const row of rows) {
+      const entry = entries.find((e) => e.id === row.entry)!;
+      expect(row).toMatchObject({ ...entry.metadata, signal: entry.signal, scope: 'mean' });
+      const record = records.get(entry.id)!;
+      const band = record.result.channels.find((c) => c.name === row.channel)!.bands.find((b) => b.name === row.band)!;
+      // Each number reads back to the very double of the record (ECMAScript Number-to-String is the shortest round trip).
+      expect(Object.is(Number(row.absolute), band.absolute)).toBe(true);
+      expect(Object.is(Number(row.relative), band.relative)).toBe(true);
+      expect(Object.is(Number(row.decibels), band.decibels)).toBe(true);
+      expect(row.resultHash).toBe(record.resultHash);
+    }
+
+    // The same table as Parquet, chosen by Accept, read back by an independent reader (parquet-wasm).
+    const parquet = await api.app.inject({ method: 'GET', url: `/v1/studies/${study}/runs/${run.id}/table?level=bands`, headers: { ...asA, accept: 'text/csv;q=0.5, application/vnd.apache.parquet' } });
+    expect(parquet.statusCode).toBe(200);
+    expect(parquet.headers['content-type']).toBe('application/vnd.apache.parquet');
+    const table = tableFromIPC(readParquet(new Uint8Array(parquet.rawPayload)).intoIPCStream());
+    expect(table.numRows).toBe(rows.length);
+    const subject = table.getChild('subject')!;
+    const absolute = table.getChild('absolute')!;
+    rows.forEach((row, i) => {
+      expect(subject.get(i)).toBe(row.subject);
+      expect(Object.is(absolute.get(i), Number(row.absolute))).toBe(true);
+    });
+
+    const unknownLevel = await a.get(`/v1/studies/${study}/runs/${run.id}/table?level=everything`);
+    expect(unknownLevel.statusCode).toBe(400);
+    expect(unknownLevel.json().pointer).toBe('/query/level');
   });
 
   it('should run only the entries the metadata filter selects', async () => {
