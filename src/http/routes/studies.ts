@@ -232,8 +232,13 @@ export const studyRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
       validatorCompiler: zodValidator({ params: StudyParams }),
     },
     async (request, reply) => {
-      const inputs = typeof request.body === 'string' ? readCsvManifest(request.body) : readJsonEntries(request.body);
-      const added = await studies.addEntries(tenantOf(request), request.params.id, inputs);
+      const tenant = tenantOf(request);
+      // Another tenant's study is 404 whatever the body holds.
+      await studies.require(tenant, request.params.id);
+      const body: unknown = request.body;
+      const csv = typeof body === 'string' && /^text\/csv\b/i.test(request.headers['content-type'] ?? '');
+      const inputs = csv ? readCsvManifest(body) : readJsonEntries(body);
+      const added = await studies.addEntries(tenant, request.params.id, inputs);
       request.log.info({ studyId: request.params.id, added: added.length }, 'study entries added');
       return reply.code(201).send({ added: added.length, entries: added });
     },
