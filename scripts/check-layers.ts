@@ -20,8 +20,9 @@ const ALLOWED: Record<string, string[]> = {
   stores: ['signals', 'common'],
   tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'methods', 'signals', 'common'],
-  http: ['tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
-  cli: ['tables', 'http', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  studies: ['tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'common'],
+  http: ['studies', 'tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
+  cli: ['tables', 'http', 'studies', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

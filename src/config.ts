@@ -54,6 +54,7 @@ const EnvSchema = z.object({
   SWEEP_INTERVAL_SECONDS: int(3600),
   UPLOAD_EXPIRY_SECONDS: int(86_400),
   RECORD_CACHE_BYTES: int(64 * 1024 * 1024, 0),
+  STUDY_RUN_WINDOW: z.coerce.number().int().min(1).optional(),
 });
 
 export interface Config {
@@ -102,6 +103,8 @@ export interface Config {
   uploadExpirySeconds: number;
   /** bytes of records and attachments the API keeps in memory with STORE=redis (readable while Redis is down); 0 = off */
   recordCacheBytes: number;
+  /** jobs of one study run in the queue at once (fairness towards other jobs) */
+  studyRunWindow: number;
 }
 
 export const ROLES = ['read', 'submit', 'admin'] as const;
@@ -183,6 +186,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
     uploadExpirySeconds: e.UPLOAD_EXPIRY_SECONDS,
     recordCacheBytes: e.RECORD_CACHE_BYTES,
+    // A run keeps at most this many of its jobs in the queue at once, so other jobs wait behind a
+    // few of a run's, never behind all of them; by default one per compute thread.
+    studyRunWindow: e.STUDY_RUN_WINDOW ?? e.WORKER_THREADS,
   };
   return deepFreeze(config);
 }
