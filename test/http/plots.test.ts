@@ -7,7 +7,7 @@ import type { JobQueue } from '../../src/jobs/queue.js';
 import { createStore } from '../../src/stores/create-store.js';
 import { demoEpochs, toUploadJson } from '../../src/signals/demo-recording.js';
 import { pollJob, sink, startTestApi } from '../helpers/app.js';
-import { byClass, parseSvg } from '../plots/svg-reader.js';
+import { byClass, labelValue, parseSvg } from '../plots/svg-reader.js';
 
 let api: Awaited<ReturnType<typeof startTestApi>>;
 let welchJob: string;
@@ -56,6 +56,44 @@ describe('when a PSD plot of a succeeded Welch job is asked for', () => {
     expect(res.headers.etag).toBe(first.headers.etag);
     const other = await get(`/v1/jobs/${welchJob}/plots/psd?scale=db`, { 'if-none-match': first.headers.etag as string });
     expect(other.statusCode).toBe(200);
+  });
+});
+
+describe('when a time–frequency plot of a succeeded Morlet job is asked for', () => {
+  it('should read the channel\'s matrix from the store and span the colour bar over it', async () => {
+    const res = await get(`/v1/jobs/${morletJob}/plots/time-frequency?channels=Oz`);
+    expect(res.statusCode, res.body).toBe(200);
+    const record = (await get(`/v1/jobs/${morletJob}/record`)).json();
+    const listed = record.result.timeFrequency.attachments as { name: string; kind: string; channel: string | null }[];
+    const fetch = async (name: string) => (await get(`/v1/jobs/${morletJob}/attachments/${name}`)).rawPayload;
+    const powerBytes = await fetch(listed.find((a) => a.kind === 'power' && a.channel === 'Oz')!.name);
+    const mask = await fetch(listed.find((a) => a.kind === 'edgeMask')!.name);
+    let min = Infinity;
+    let max = -Infinity;
+    for (let i = 0; i < mask.length; i++) {
+      const v = powerBytes.readDoubleLE(i * 8);
+      if (mask[i] !== 1 && Number.isFinite(v)) [min, max] = [Math.min(min, v), Math.max(max, v)];
+    }
+    const doc = parseSvg(res.body);
+    const ends = byClass(doc, 'colour-bar-end').map((t) => labelValue(t.textContent!));
+    expect(Math.abs(ends[0]! - 10 * Math.log10(min))).toBeLessThan(0.01);
+    expect(Math.abs(ends[1]! - 10 * Math.log10(max))).toBeLessThan(0.01);
+    expect(byClass(doc, 'panel').map((p) => p.getAttribute('data-channel'))).toEqual(['Oz']);
+  });
+
+  it('should refuse a time–frequency plot of a Welch record and a bands plot of a Morlet record', async () => {
+    const tf = await get(`/v1/jobs/${welchJob}/plots/time-frequency`);
+    expect(tf.statusCode).toBe(422);
+    expect(tf.json().allowed).toEqual(['psd', 'bands']);
+    const bands = await get(`/v1/jobs/${morletJob}/plots/bands`);
+    expect(bands.statusCode).toBe(422);
+    expect(bands.json().allowed).toEqual(['time-frequency']);
+  });
+
+  it('should draw the bands of a Welch job', async () => {
+    const res = await get(`/v1/jobs/${welchJob}/plots/bands?value=relative&channels=O2`);
+    expect(res.statusCode, res.body).toBe(200);
+    expect(byClass(parseSvg(res.body), 'bar')).toHaveLength(5);
   });
 });
 

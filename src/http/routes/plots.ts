@@ -5,7 +5,7 @@ import { z } from 'zod';
 import { DomainError } from '../../common/errors.js';
 import type { FeatureRecord } from '../../engine/record.js';
 import type { JobQueue } from '../../jobs/queue.js';
-import { checkApplicable, plotKind, PLOT_KIND_NAMES, PLOT_KINDS, type PlotOptions } from '../../plots/index.js';
+import { checkApplicable, plotKind, PLOT_KIND_NAMES, PLOT_KINDS, type PlotAttachments, type PlotOptions } from '../../plots/index.js';
 import type { Store } from '../../stores/store.js';
 import type { AppDeps } from '../app.js';
 import { tenantOf } from '../auth.js';
@@ -25,6 +25,7 @@ export const PlotQuery = z.strictObject({
     .regex(/^\d+(\.\d+)?,\d+(\.\d+)?$/, 'two numbers "low,high" in Hz')
     .optional()
     .describe('"low,high" Hz, both included; default the record\'s frequencies above 0 Hz'),
+  value: z.enum(['absolute', 'relative']).default('absolute').describe('bands: absolute power (unit²) or the fraction of the total over the recipe\'s frequency range'),
   epochs: z.enum(['true', 'false']).default('true').describe('psd: draw per-epoch spectra faintly behind the mean, when the record has them (perEpoch)'),
 });
 type PlotQueryValue = z.output<typeof PlotQuery>;
@@ -33,7 +34,7 @@ const svgResponse = (description: string) => ({ description, content: { 'image/s
 
 /** Query → plot options; the pointers of the plot functions are relative to these options. */
 export function plotOptionsOf(query: PlotQueryValue): PlotOptions {
-  const options: PlotOptions = { width: query.width, height: query.height, scale: query.scale, epochs: query.epochs === 'true' };
+  const options: PlotOptions = { width: query.width, height: query.height, scale: query.scale, value: query.value, epochs: query.epochs === 'true' };
   if (query.channels) options.channels = query.channels.split(',').map((c) => c.trim()).filter((c) => c.length > 0);
   if (query.frequencyRange) {
     const [low, high] = query.frequencyRange.split(',').map(Number) as [number, number];
@@ -52,6 +53,25 @@ export async function succeededRecord(queue: JobQueue, store: Store, id: string,
   const text = await store.getDocument('records', job.recordKey);
   if (text === null) throw new ProblemError('internal', `the record of job ${id} is missing from the store`);
   return { record: JSON.parse(text) as FeatureRecord, recordKey: job.recordKey };
+}
+
+/** Reads the named attachments of a record as typed arrays (little-endian float64, or uint8). */
+export async function readAttachments(store: Store, recordKey: string, record: FeatureRecord, names: string[]): Promise<PlotAttachments> {
+  const out: PlotAttachments = {};
+  for (const name of names) {
+    const entry = record.attachments?.find((a) => a.name === name);
+    const bytes = await store.getAttachment(`${recordKey}.${name}`);
+    if (!entry || !bytes) throw new ProblemError('internal', `attachment "${name}" of the record is missing from the store`);
+    if (entry.dtype === 'uint8') {
+      out[name] = new Uint8Array(bytes);
+    } else {
+      const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+      const values = new Float64Array(bytes.byteLength / 8);
+      for (let i = 0; i < values.length; i++) values[i] = view.getFloat64(i * 8, true);
+      out[name] = values;
+    }
+  }
+  return out;
 }
 
 /** Sends SVG text with a strong ETag over its bytes; a matching If-None-Match answers 304. */
@@ -98,9 +118,11 @@ export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
     async (request, reply) => {
       const kind = plotKind(request.params.kind, '/params/kind');
       const options = underQuery(() => plotOptionsOf(request.query));
-      const { record } = await succeededRecord(queue, store, request.params.id, tenantOf(request));
-      checkApplicable(kind, record.recipe.method, '/params/kind');
-      return sendSvg(request, reply, underQuery(() => kind.render(record, options)));
+      const { record, recordKey } = await succeededRecord(queue, store, request.params.id, tenantOf(request));
+      checkApplicable(kind, record, '/params/kind');
+      const names = underQuery(() => kind.attachments?.(record, options) ?? []);
+      const attachments = await readAttachments(store, recordKey, record, names);
+      return sendSvg(request, reply, underQuery(() => kind.render(record, options, attachments)));
     },
   );
 };
