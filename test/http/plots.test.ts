@@ -12,10 +12,11 @@ import { byClass, labelValue, parseSvg } from '../plots/svg-reader.js';
 let api: Awaited<ReturnType<typeof startTestApi>>;
 let welchJob: string;
 let morletJob: string;
+let openJob: string;
 const signal = toUploadJson(demoEpochs('eyes-closed', 'late', 6, 4, 20261201));
 
-async function submit(recipe: Record<string, unknown>): Promise<string> {
-  const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal, recipe } });
+async function submit(recipe: Record<string, unknown>, body: unknown = signal): Promise<string> {
+  const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal: body, recipe } });
   expect(res.statusCode, res.body).toBeLessThan(300);
   const job = await pollJob(api.app, res.json().id, 60_000);
   expect(job.state, JSON.stringify(job.problem)).toBe('succeeded');
@@ -25,6 +26,7 @@ async function submit(recipe: Record<string, unknown>): Promise<string> {
 beforeAll(async () => {
   api = await startTestApi();
   welchJob = await submit({ method: 'welch', features: { peakFrequency: {} } });
+  openJob = await submit({ method: 'welch' }, toUploadJson(demoEpochs('eyes-open', 'late', 6, 4, 20261201)));
   morletJob = await submit({ method: 'morlet', frequencies: { low: 4, high: 30, count: 12 }, decimation: 8 });
 }, 120_000);
 afterAll(async () => {
@@ -94,6 +96,31 @@ describe('when a time–frequency plot of a succeeded Morlet job is asked for', 
     const res = await get(`/v1/jobs/${welchJob}/plots/bands?value=relative&channels=O2`);
     expect(res.statusCode, res.body).toBe(200);
     expect(byClass(parseSvg(res.body), 'bar')).toHaveLength(5);
+  });
+});
+
+describe('when two jobs are compared', () => {
+  it('should overlay their PSDs of the channel with the given labels, with an ETag', async () => {
+    const url = `/v1/plots/compare?jobs=${welchJob},${openJob}&channel=O1&labels=eyes%20closed,eyes%20open&frequencyRange=1,40`;
+    const res = await get(url);
+    expect(res.statusCode, res.body).toBe(200);
+    expect(byClass(parseSvg(res.body), 'series').map((l) => l.getAttribute('data-series'))).toEqual(['eyes closed', 'eyes open']);
+    expect((await get(url, { 'if-none-match': res.headers.etag as string })).statusCode).toBe(304);
+  });
+
+  it('should point at what is wrong', async () => {
+    const labels = await get(`/v1/plots/compare?jobs=${welchJob},${openJob}&channel=O1&labels=one`);
+    expect(labels.statusCode).toBe(400);
+    expect(labels.json().pointer).toBe('/query/labels');
+    const channel = await get(`/v1/plots/compare?jobs=${welchJob},${openJob}&channel=T7`);
+    expect(channel.statusCode).toBe(400);
+    expect(channel.json().pointer).toBe('/query/channel');
+    const method = await get(`/v1/plots/compare?jobs=${welchJob},${morletJob}&channel=O1`);
+    expect(method.statusCode).toBe(422);
+    expect(method.json().pointer).toBe('/query/jobs');
+    const one = await get(`/v1/plots/compare?jobs=${welchJob}&channel=O1`);
+    expect(one.statusCode).toBe(400);
+    expect(one.json().pointer).toBe('/query/jobs');
   });
 });
 

@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { DomainError } from '../../common/errors.js';
 import type { FeatureRecord } from '../../engine/record.js';
 import type { JobQueue } from '../../jobs/queue.js';
+import { comparePlot } from '../../plots/compare.js';
 import { checkApplicable, plotKind, PLOT_KIND_NAMES, PLOT_KINDS, type PlotAttachments, type PlotOptions } from '../../plots/index.js';
 import type { Store } from '../../stores/store.js';
 import type { AppDeps } from '../app.js';
@@ -29,6 +30,15 @@ export const PlotQuery = z.strictObject({
   epochs: z.enum(['true', 'false']).default('true').describe('psd: draw per-epoch spectra faintly behind the mean, when the record has them (perEpoch)'),
 });
 type PlotQueryValue = z.output<typeof PlotQuery>;
+
+const CompareQuery = PlotQuery.omit({ channels: true, value: true, epochs: true }).extend({
+  jobs: z
+    .string()
+    .regex(/^[^,]+(,[^,]+){1,5}$/, 'two to six comma-separated job ids')
+    .describe('comma-separated ids of two to six succeeded spectral jobs (welch, multitaper, periodogram)'),
+  channel: z.string().min(1).max(200).describe('the channel compared'),
+  labels: z.string().max(2000).optional().describe('comma-separated legend labels, one per job; default the job ids'),
+});
 
 const svgResponse = (description: string) => ({ description, content: { 'image/svg+xml': { schema: z.string() } } });
 
@@ -123,6 +133,43 @@ export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
       const names = underQuery(() => kind.attachments?.(record, options) ?? []);
       const attachments = await readAttachments(store, recordKey, record, names);
       return sendSvg(request, reply, underQuery(() => kind.render(record, options, attachments)));
+    },
+  );
+
+  app.get(
+    '/v1/plots/compare',
+    {
+      schema: {
+        summary: "Several jobs' PSDs of one channel overlaid, as SVG",
+        description: 'For example two conditions of one subject: `?jobs=job_a,job_b&channel=Oz&labels=eyes%20closed,eyes%20open`. Every job must have succeeded with a spectral method. The same records and options give the same bytes; ETag and If-None-Match as for job plots.',
+        tags: ['plots'],
+        querystring: CompareQuery,
+        response: {
+          200: svgResponse('the plot'),
+          304: z.null().describe('the plot has not changed (If-None-Match); no body'),
+          400: problemResponse('a malformed option or a channel a record does not have'),
+          404: problemResponse('an unknown job'),
+          409: problemResponse('a job has not succeeded'),
+          422: problemResponse('a job is not spectral, or the spectra are in different units'),
+        },
+      },
+      serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
+    },
+    async (request, reply) => {
+      const { jobs, channel, labels, ...rest } = request.query;
+      const ids = jobs.split(',').map((j) => j.trim());
+      const names = labels?.split(',').map((l) => l.trim()) ?? ids;
+      if (names.length !== ids.length) throw new DomainError('invalid-request', `${names.length} label(s) for ${ids.length} jobs; give one label per job`, { pointer: '/query/labels' });
+      const options = underQuery(() => plotOptionsOf({ ...rest, value: 'absolute', epochs: 'false' }));
+      const tenant = tenantOf(request);
+      const psd = plotKind('psd');
+      const records: { label: string; record: FeatureRecord }[] = [];
+      for (const [i, id] of ids.entries()) {
+        const { record } = await succeededRecord(queue, store, id, tenant);
+        checkApplicable(psd, record, '/query/jobs');
+        records.push({ label: names[i]!, record });
+      }
+      return sendSvg(request, reply, underQuery(() => comparePlot(records, { ...options, channel })));
     },
   );
 };
