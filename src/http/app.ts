@@ -20,6 +20,7 @@ import { metaRoutes } from './routes/meta.js';
 import { plotRoutes } from './routes/plots.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
+import { studyRoutes } from './routes/studies.js';
 
 export interface AppDeps {
   config: Readonly<Config>;
@@ -109,6 +110,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
         { name: 'recipes', description: 'Pin analysis recipes' },
         { name: 'jobs', description: 'Submit analyses and fetch feature records' },
         { name: 'plots', description: 'Records drawn as SVG' },
+        { name: 'studies', description: 'Recordings with their metadata, grouped in studies; one recipe run over a whole study' },
         { name: 'operations', description: 'Health, readiness and documentation' },
       ],
     },
@@ -122,6 +124,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
   await app.register(plotRoutes(deps));
+  await app.register(studyRoutes(deps));
   await app.ready();
   return app;
 }
