@@ -124,6 +124,32 @@ describe('when two jobs are compared', () => {
   });
 });
 
+describe('when a study run is drawn per condition', () => {
+  it('should draw one mean with its spread per condition over the run\'s succeeded entries', async () => {
+    const post = (url: string, payload: unknown) => api.app.inject({ method: 'POST', url, payload: payload as Record<string, unknown> });
+    const entries = [];
+    for (const [i, condition] of (['eyes-closed', 'eyes-open', 'eyes-closed', 'eyes-open'] as const).entries()) {
+      const res = await post('/v1/signals', toUploadJson(demoEpochs(condition, 'early', 2, 4, 700 + i)));
+      expect(res.statusCode, res.body).toBe(201);
+      entries.push({ signal: res.json().id, metadata: { subject: `p0${1 + (i >> 1)}`, condition } });
+    }
+    const study = (await post('/v1/studies', { name: 'plot study' })).json().id as string;
+    expect((await post(`/v1/studies/${study}/entries`, { entries })).statusCode).toBe(201);
+    const run = (await post(`/v1/studies/${study}/runs`, { recipe: { method: 'welch' } })).json().id as string;
+    const deadline = Date.now() + 60_000;
+    while ((await get(`/v1/studies/${study}/runs/${run}`)).json().state === 'running' && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
+    const res = await get(`/v1/studies/${study}/runs/${run}/plots/psd?channel=Oz`);
+    expect(res.statusCode, res.body).toBe(200);
+    const doc = parseSvg(res.body);
+    expect(byClass(doc, 'series').map((l) => l.getAttribute('data-series'))).toEqual(['eyes-closed (n = 2)', 'eyes-open (n = 2)']);
+    expect(byClass(doc, 'spread')).toHaveLength(2);
+    const key = await get(`/v1/studies/${study}/runs/${run}/plots/psd?channel=Oz&by=shift`);
+    expect(key.statusCode).toBe(400);
+    expect(key.json().pointer).toBe('/query/by');
+    expect(key.json().allowed).toEqual(['condition', 'subject']);
+  });
+});
+
 describe('when a plot request is wrong', () => {
   it('should list the kinds for an unknown kind', async () => {
     const res = await get(`/v1/jobs/${welchJob}/plots/histogram`);

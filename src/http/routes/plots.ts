@@ -5,7 +5,9 @@ import { z } from 'zod';
 import { DomainError } from '../../common/errors.js';
 import type { FeatureRecord } from '../../engine/record.js';
 import type { JobQueue } from '../../jobs/queue.js';
-import { comparePlot } from '../../plots/compare.js';
+import { comparePlot, groupSpectraPlot } from '../../plots/compare.js';
+import { runKey, type Run } from '../../studies/runs.js';
+import { createStudyStore } from '../../studies/study-store.js';
 import { checkApplicable, plotKind, PLOT_KIND_NAMES, PLOT_KINDS, type PlotAttachments, type PlotOptions } from '../../plots/index.js';
 import type { Store } from '../../stores/store.js';
 import type { AppDeps } from '../app.js';
@@ -102,8 +104,14 @@ export function underQuery<T>(draw: () => T): T {
   }
 }
 
+const RunPlotQuery = PlotQuery.omit({ channels: true, value: true, epochs: true }).extend({
+  channel: z.string().min(1).max(200).describe('the channel drawn'),
+  by: z.string().regex(/^[a-z][a-z0-9_]{0,63}$/i).default('condition').describe('the metadata key whose values group the entries'),
+});
+
 export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
   const { store, queue } = deps;
+  const studies = createStudyStore(store);
 
   app.get(
     '/v1/jobs/:id/plots/:kind',
@@ -170,6 +178,58 @@ export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
         records.push({ label: names[i]!, record });
       }
       return sendSvg(request, reply, underQuery(() => comparePlot(records, { ...options, channel })));
+    },
+  );
+
+  app.get(
+    '/v1/studies/:id/runs/:runId/plots/psd',
+    {
+      schema: {
+        summary: "A study run's mean PSD of one channel per condition (or another metadata key), with its spread, as SVG",
+        description:
+          'Groups the run\'s succeeded entries by the value of the metadata key `by` and draws, per group, the geometric mean PSD of the channel with ± 1 standard deviation of log power across the entries shaded. Entries without the key form the group "(none)". ETag and If-None-Match as for job plots.',
+        tags: ['plots'],
+        params: z.object({ id: z.string().min(1).max(200), runId: z.string().min(1).max(200) }),
+        querystring: RunPlotQuery,
+        response: {
+          200: svgResponse('the plot'),
+          304: z.null().describe('the plot has not changed (If-None-Match); no body'),
+          400: problemResponse('a malformed option, an unknown metadata key or a channel the records do not have'),
+          404: problemResponse('unknown study or run'),
+          409: problemResponse('no entry of the run has succeeded yet'),
+          422: problemResponse("the run's recipe is not spectral"),
+        },
+      },
+      serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
+    },
+    async (request, reply) => {
+      const { channel, by, ...rest } = request.query;
+      const options = underQuery(() => plotOptionsOf({ ...rest, value: 'absolute', epochs: 'false' }));
+      const tenant = tenantOf(request);
+      const { id, runId } = request.params;
+      await studies.require(tenant, id);
+      const text = await store.getDocument('runs', runKey(tenant, id, runId));
+      if (text === null) throw new DomainError('run-not-found', `study ${id} has no run with id "${runId}"`);
+      const run = JSON.parse(text) as Run;
+      const psd = plotKind('psd');
+      if (!(psd.methods as readonly string[]).includes(run.recipe.method)) {
+        throw new DomainError('plot-not-applicable', `run ${runId} used ${run.recipe.method}; a PSD per condition needs a spectral recipe (${psd.methods.join(', ')})`, { pointer: '/params/runId' });
+      }
+      const items = run.items.filter((i) => i.status === 'succeeded');
+      if (!items.some((i) => i.metadata[by] !== undefined)) {
+        const keys = [...new Set(run.items.flatMap((i) => Object.keys(i.metadata)))].sort();
+        throw new DomainError('invalid-request', `no entry of run ${runId} has the metadata key "${by}"; the keys are ${keys.join(', ')}`, { pointer: '/query/by', extensions: { allowed: keys } });
+      }
+      const groups = new Map<string, FeatureRecord[]>();
+      for (const item of items) {
+        const record = await store.getDocument('records', item.recordKey);
+        if (record === null) continue;
+        const label = item.metadata[by] === undefined ? '(none)' : String(item.metadata[by]);
+        groups.set(label, [...(groups.get(label) ?? []), JSON.parse(record) as FeatureRecord]);
+      }
+      if (groups.size === 0) throw new DomainError('record-not-ready', `run ${runId} has no succeeded entry with a stored record yet; poll the run`);
+      const ordered = [...groups.entries()].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)).map(([label, records]) => ({ label, records }));
+      return sendSvg(request, reply, underQuery(() => groupSpectraPlot(ordered, { ...options, channel, groupedBy: by })));
     },
   );
 };
