@@ -30,7 +30,8 @@ export function bandsPlot(record: FeatureRecord, options: BandsPlotOptions): str
   const read = (b: { absolute: number; relative: number | null }) => (value === 'absolute' ? b.absolute : b.relative);
   let max = 0;
   for (const c of channels) for (const b of c.bands) max = Math.max(max, read(b) ?? 0);
-  const area = plotArea(options, { left: 78, bottom: 46, right: 150 });
+  const legendWidth = 24 + Math.max(0, ...(channels[0]?.bands ?? []).map((b) => `${b.name} ${b.low}–${b.high} Hz`.length)) * 7.5 + 10;
+  const area = plotArea(options, { left: 78, bottom: 46, right: legendWidth + 16 });
   const [, top] = niceDomain(0, max > 0 ? max : 1, 6);
   const ys = linearScale([0, top], [area.top + area.height, area.top]);
   const unit = prettyUnit(result.units.power);

@@ -103,7 +103,7 @@ export interface LegendEntry {
 export function legend(area: Area, entries: LegendEntry[], outside = false): string {
   if (entries.length === 0) return '';
   const rowHeight = 16;
-  const width = 24 + Math.max(...entries.map((e) => e.label.length)) * 7 + 10;
+  const width = 24 + Math.max(...entries.map((e) => e.label.length)) * 7.5 + 10;
   const x = outside ? area.left + area.width + 8 : area.left + area.width - width - 6;
   const y = area.top + 6;
   const rows = entries.map((e, i) => {
