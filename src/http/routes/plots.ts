@@ -42,7 +42,17 @@ const CompareQuery = PlotQuery.omit({ channels: true, value: true, epochs: true 
   labels: z.string().max(2000).optional().describe('comma-separated legend labels, one per job; default the job ids'),
 });
 
-const svgResponse = (description: string) => ({ description, content: { 'image/svg+xml': { schema: z.string() } } });
+/** The answers every plot route gives besides its problems: the SVG, or 304 for a matching ETag. */
+function svgResponses<T extends Record<number, unknown>>(problems: T) {
+  return {
+    200: { description: 'the plot', content: { 'image/svg+xml': { schema: z.string() } } },
+    304: z.null().describe('the plot has not changed (If-None-Match); no body'),
+    ...problems,
+  };
+}
+
+/** SVG text and problem JSON strings go out as they are. */
+const sendAsIs = () => (data: unknown) => (typeof data === 'string' ? data : JSON.stringify(data));
 
 /** Query → plot options; the pointers of the plot functions are relative to these options. */
 export function plotOptionsOf(query: PlotQueryValue): PlotOptions {
@@ -122,16 +132,14 @@ export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
         tags: ['plots'],
         params: z.object({ id: z.string().min(1).max(200), kind: z.string().min(1).max(64).describe(`one of ${PLOT_KIND_NAMES.join(', ')}`) }),
         querystring: PlotQuery,
-        response: {
-          200: svgResponse('the plot'),
-          304: z.null().describe('the plot has not changed (If-None-Match); no body'),
+        response: svgResponses({
           400: problemResponse('a malformed option or a channel the record does not have'),
           404: problemResponse('unknown job or plot kind'),
           409: problemResponse('the job has not succeeded'),
           422: problemResponse("the kind does not fit the record's method"),
-        },
+        }),
       },
-      serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
+      serializerCompiler: sendAsIs,
     },
     async (request, reply) => {
       const kind = plotKind(request.params.kind, '/params/kind');
@@ -152,16 +160,14 @@ export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
         description: 'For example two conditions of one subject: `?jobs=job_a,job_b&channel=Oz&labels=eyes%20closed,eyes%20open`. Every job must have succeeded with a spectral method. The same records and options give the same bytes; ETag and If-None-Match as for job plots.',
         tags: ['plots'],
         querystring: CompareQuery,
-        response: {
-          200: svgResponse('the plot'),
-          304: z.null().describe('the plot has not changed (If-None-Match); no body'),
+        response: svgResponses({
           400: problemResponse('a malformed option or a channel a record does not have'),
           404: problemResponse('an unknown job'),
           409: problemResponse('a job has not succeeded'),
           422: problemResponse('a job is not spectral, or the spectra are in different units'),
-        },
+        }),
       },
-      serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
+      serializerCompiler: sendAsIs,
     },
     async (request, reply) => {
       const { jobs, channel, labels, ...rest } = request.query;
@@ -191,16 +197,14 @@ export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
         tags: ['plots'],
         params: z.object({ id: z.string().min(1).max(200), runId: z.string().min(1).max(200) }),
         querystring: RunPlotQuery,
-        response: {
-          200: svgResponse('the plot'),
-          304: z.null().describe('the plot has not changed (If-None-Match); no body'),
+        response: svgResponses({
           400: problemResponse('a malformed option, an unknown metadata key or a channel the records do not have'),
           404: problemResponse('unknown study or run'),
           409: problemResponse('no entry of the run has succeeded yet'),
           422: problemResponse("the run's recipe is not spectral"),
-        },
+        }),
       },
-      serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
+      serializerCompiler: sendAsIs,
     },
     async (request, reply) => {
       const { channel, by, ...rest } = request.query;
