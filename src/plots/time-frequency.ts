@@ -145,7 +145,42 @@ function level(position: number): number {
   return Math.min(LEVELS - 1, Math.max(0, Math.floor(position * LEVELS)));
 }
 
-/** Heat-map cells of one panel; runs of equal colour along time are merged into one rect. */
+/**
+ * Time columns narrower than a pixel cannot be seen: past `columns` times, neighbouring times are
+ * pooled into `columns` columns, each the mean of its display values (dB, log10 or the value) and an
+ * edge column when any of its cells is an edge cell. Otherwise every time is its own column.
+ */
+export function poolColumns(display: Float64Array, mask: Uint8Array | null, T: number, F: number, tEdges: number[], columns: number): { display: Float64Array; mask: Uint8Array | null; T: number; tEdges: number[] } {
+  if (T <= columns) return { display, mask, T, tEdges };
+  const C = Math.max(1, Math.floor(columns));
+  const out = new Float64Array(C * F);
+  const outMask = mask ? new Uint8Array(C * F) : null;
+  const edges: number[] = [];
+  for (let c = 0; c < C; c++) {
+    const from = Math.floor((c * T) / C);
+    const to = Math.floor(((c + 1) * T) / C);
+    edges.push(tEdges[from]!);
+    for (let f = 0; f < F; f++) {
+      let sum = 0;
+      let n = 0;
+      let edge = 0;
+      for (let t = from; t < to; t++) {
+        const v = display[t * F + f]!;
+        if (Number.isFinite(v)) {
+          sum += v;
+          n++;
+        }
+        if (mask && mask[t * F + f] === 1) edge = 1;
+      }
+      out[c * F + f] = n > 0 ? sum / n : Number.NaN;
+      if (outMask) outMask[c * F + f] = edge;
+    }
+  }
+  edges.push(tEdges[T]!);
+  return { display: out, mask: outMask, T: C, tEdges: edges };
+}
+
+/** Heat-map cells of one panel (display values); runs of equal colour along time are merged into one rect. */
 function heatMap(matrix: Float64Array, T: number, F: number, tEdges: number[], fEdges: number[], xs: Scale, ys: Scale, axis: ColourAxis): string[] {
   const rects: string[] = [];
   for (let f = 0; f < F; f++) {
@@ -158,9 +193,9 @@ function heatMap(matrix: Float64Array, T: number, F: number, tEdges: number[], f
         t++;
         continue;
       }
-      const lv = level(positionOf(axis, axis.display(v)));
+      const lv = level(positionOf(axis, v));
       let end = t + 1;
-      while (end < T && Number.isFinite(matrix[end * F + f]!) && level(positionOf(axis, axis.display(matrix[end * F + f]!))) === lv) end++;
+      while (end < T && Number.isFinite(matrix[end * F + f]!) && level(positionOf(axis, matrix[end * F + f]!)) === lv) end++;
       const x0 = xs(tEdges[t]!);
       const x1 = xs(tEdges[end]!);
       // A hair of overlap hides the anti-aliasing seams between neighbouring cells.
@@ -264,7 +299,8 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
     `${tf.method === 'morlet' ? 'Morlet wavelet' : 'Spectrogram'} power of ${names.join(', ')} from ${formatValue(times[0]!)} to ${formatValue(times[T - 1]!)} s ` +
     `(${tf.timeOrigin === 'event' ? 'relative to the event' : 'from the epoch start'}) and ${formatValue(frequencies[0]!)} to ${formatValue(frequencies[F - 1]!)} Hz on a ${log ? 'logarithmic' : 'linear'} frequency axis; ` +
     `colour: ${axis.label}, from ${axis.endLabels[0]} to ${axis.endLabels[1]}${axis.diverging ? ', diverging around no change' : ''}` +
-    `${mask ? '; hatched cells are edge cells, where the wavelet reaches past the epoch' : ''}. Signal ${record.input.signal}, result ${record.resultHash.slice(0, 12)}.`;
+    `${mask ? '; hatched cells are edge cells, where the wavelet reaches past the epoch' : ''}` +
+    `${T > Math.floor(outer.width) ? `; the ${T} times are averaged into ${Math.floor(outer.width)} columns, one per pixel` : ''}. Signal ${record.input.signal}, result ${record.resultHash.slice(0, 12)}.`;
   const idBase = idBaseOf(title, description, String(options.width), String(options.height));
   const hatch = `${idBase}-hatch`;
   const defs = [el('pattern', { id: hatch, patternUnits: 'userSpaceOnUse', width: 6, height: 6 }, el('path', { d: 'M0,6 L6,0 M-1,1 L1,-1 M5,7 L7,5', stroke: '#ffffff', 'stroke-width': 1.2, 'stroke-opacity': 0.85 }))];
@@ -276,6 +312,7 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
     const xs = linearScale([tEdges[0]!, tEdges[T]!], [area.left, area.left + area.width]);
     const ys = log ? logScale([fEdges[0]!, fEdges[F]!], [area.top + area.height, area.top]) : linearScale([fEdges[0]!, fEdges[F]!], [area.top + area.height, area.top]);
     const yTicks = log ? logTicksDense(fEdges[0]!, fEdges[F]!) : linearTicks(fEdges[0]!, fEdges[F]!, 6);
+    const shown = poolColumns(matrices.power[name]!.map(axis.display), mask, T, F, tEdges, area.width);
     panels.push(
       el(
         'g',
@@ -283,8 +320,8 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
         el('rect', { x: area.left, y: area.top, width: area.width, height: area.height, fill: GRID }),
         yAxis(area, ys, yTicks, 'Frequency (Hz)', 46),
         xAxis(area, xs, linearTicks(tEdges[0]!, tEdges[T]!, 8), i < names.length - 1 ? '' : tf.timeOrigin === 'event' ? 'Time from event (s)' : 'Time from epoch start (s)'),
-        el('g', { class: 'heat-map', 'clip-path': `url(#${clip})` }, ...heatMap(matrices.power[name]!, T, F, tEdges, fEdges, xs, ys, axis)),
-        mask ? el('g', { class: 'edge-cells', 'clip-path': `url(#${clip})` }, ...edgeCells(mask, T, F, tEdges, fEdges, xs, ys, `url(#${hatch})`)) : '',
+        el('g', { class: 'heat-map', 'clip-path': `url(#${clip})` }, ...heatMap(shown.display, shown.T, F, shown.tEdges, fEdges, xs, ys, axis)),
+        shown.mask ? el('g', { class: 'edge-cells', 'clip-path': `url(#${clip})` }, ...edgeCells(shown.mask, shown.T, F, shown.tEdges, fEdges, xs, ys, `url(#${hatch})`)) : '',
         textEl('text', { class: 'panel-title', x: area.left + 4, y: area.top - 5, 'font-weight': 'bold' }, name),
       ),
     );

@@ -135,3 +135,30 @@ describe('when a spectrogram is drawn', () => {
     expect(byClass(doc, 'edge-cell')).toHaveLength(0);
   });
 });
+
+describe('when a matrix has more times than the panel has pixels', () => {
+  const record = timeFrequency(demoRecord({ method: 'morlet', frequencies: { low: 4, high: 30, count: 8 } }, 'eyes-closed', 'late', 1, 4));
+  const m = matrices(record, ['Oz']);
+  const svg = timeFrequencyPlot(record, { width: 400, height: 300 }, m);
+  const doc = parseSvg(svg);
+  const T = record.result.timeFrequency!.times.length;
+
+  it('should average the times into one column per pixel, keeping the colour bar on the full data range', () => {
+    expect(T).toBe(1024);
+    const panel = byClass(doc, 'panel')[0]!;
+    const x = readAxis(panel, 'x');
+    const starts = new Set(all(byClass(panel, 'heat-map')[0]!, 'rect').map((r) => attr(r, 'x')));
+    const areaWidth = 400 - 72 - 120;
+    expect(starts.size).toBeLessThanOrEqual(areaWidth);
+    const { min, max } = range([m.power.Oz!], m.edgeMask);
+    const { ends } = colourBar(doc);
+    expect(Math.abs(ends[0] - dB(min))).toBeLessThan(0.01);
+    expect(Math.abs(ends[1] - dB(max))).toBeLessThan(0.01);
+    expect(all(doc, 'desc')[0]!.textContent).toContain(`the ${T} times are averaged into ${areaWidth} columns`);
+    // The pooled columns still tile the whole time range.
+    const times = record.result.timeFrequency!.times;
+    const firstEdge = Math.min(...starts);
+    expect(Math.abs(x.invert(firstEdge) - (times[0]! - (times[1]! - times[0]!) / 2))).toBeLessThan(PX * x.perPixel(0));
+    expect(svg.length).toBeLessThan(600_000);
+  });
+});
