@@ -32,6 +32,7 @@ export const PROBLEMS = {
   'plot-not-applicable': { status: 422, title: 'The plot does not fit the record', about: "The record's method has no plot of this kind (for example a time–frequency plot of a Welch record); `allowed` lists the kinds it has." },
   'unknown-channel': { status: 400, title: 'Unknown channel', about: 'A channel named in the query is not in the record; `channels` lists the record\'s channels.' },
   'table-level-unavailable': { status: 422, title: 'The record cannot give this table level', about: 'Each kind of record gives some levels (spectra: bands, ratios, features, spectra, quality; time–frequency: summary; connectivity: pair-bands, pair-spectra); `levels` lists those this record gives.' },
+  'not-acceptable': { status: 406, title: 'No acceptable representation', about: 'The Accept header allows none of the formats this route gives; `formats` lists them (a `format` query parameter also chooses).' },
   'record-not-ready': { status: 409, title: 'The record is not ready', about: 'The job has not succeeded (yet); poll the job.' },
   'unauthenticated': { status: 401, title: 'Authentication required', about: 'Send a valid API key as "Authorization: Bearer <key>".' },
   'forbidden': { status: 403, title: 'Not allowed for this key', about: "The key's role (read, submit, admin) does not cover this route." },

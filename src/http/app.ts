@@ -21,6 +21,7 @@ import { plotRoutes } from './routes/plots.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
 import { studyRoutes } from './routes/studies.js';
+import { tableRoutes } from './routes/tables.js';
 
 export interface AppDeps {
   config: Readonly<Config>;
@@ -121,6 +122,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(signalRoutes(deps));
   await app.register(recipeRoutes(deps));
   await app.register(jobRoutes(deps));
+  await app.register(tableRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
   await app.register(plotRoutes(deps));

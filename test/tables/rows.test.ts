@@ -142,6 +142,20 @@ describe('when a Welch record with label means, per-epoch spectra and confidence
   });
 });
 
+describe('when epochs are cut inside labelled blocks', () => {
+  it('should tile each eyes-closed block with 2-s epochs every 1 s and label every row with its block', () => {
+    const record = recordOf(recording(), { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-closed/early', 'eyes-closed/late'], lengthSeconds: 2, stepSeconds: 1 } });
+    // demoRecording(6): eyes-closed blocks at 6, 18 (early) and 30, 42 s (late); a 6-s block holds epochs at +0, +1, +2, +3, +4 s.
+    const expected = [6, 18, 30, 42].flatMap((onset) => [0, 1, 2, 3, 4].map((k) => [onset + k, `eyes-closed/${onset < 24 ? 'early' : 'late'}`]));
+    const { rows } = csvTable(record, 'bands');
+    const epochs = rows.filter((r) => r.scope === 'epoch' && r.channel === 'Oz' && r.band === 'alpha');
+    expect(epochs.map((r) => [Number(r.epochStart), r.label])).toEqual(expected);
+    const labelMeans = rows.filter((r) => r.scope === 'label-mean' && r.channel === 'Oz' && r.band === 'alpha').map((r) => r.label);
+    expect(labelMeans).toEqual(['eyes-closed/early', 'eyes-closed/late']);
+    expect((record.result as FeatureResult).groups!.map((g) => g.epochs)).toEqual([10, 10]);
+  });
+});
+
 describe('when the record comes from part of a stored signal or from uploaded epochs', () => {
   it('should count epoch starts from the start of the stored signal, not of the view', () => {
     const record = recordOf(recording(), { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'fixed', lengthSeconds: 2 } }, { start: 12, end: 20 });

@@ -4,7 +4,7 @@ import { decodeJsonSignal } from '../../signals/decode-json.js';
 import type { SignalView } from '../../signals/view.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
-import { requireJob as findJob, unavailable } from '../job-access.js';
+import { requireJob as requireJobOf, unavailable } from '../job-access.js';
 import { importSignal } from '../imports.js';
 import { FeatureRecordSchema, ImportSourceSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse } from '../schemas.js';
 import { getRecipe, getSignalMeta, pinRecipe, planJob, storeSignal } from '../services.js';
@@ -29,7 +29,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     return (await store.getDocument('records', entry.recordKey).catch(() => null)) !== null ? entry.recordKey : null;
   }
 
-  const requireJob = (id: string, tenant: string): Promise<JobView> => findJob(queue, id, tenant);
+  const requireJob = (id: string, tenant: string) => requireJobOf(queue, id, tenant);
 
   app.post(
     '/v1/jobs',

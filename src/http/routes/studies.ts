@@ -12,11 +12,10 @@ import { IdParams, problemResponse, ProblemSchema, SignalReferenceSchema } from 
 import { getRecipe, getSignalMeta, pinRecipe, planJob } from '../services.js';
 import { zodValidator } from '../validation.js';
 import { RecipeSchema } from '../../recipes/schema.js';
-import { Readable } from 'node:stream';
 import type { FeatureRecord } from '../../engine/record.js';
-import { TABLE_LEVELS } from '../../tables/columns.js';
-import { createTableLayout, metadataColumns, tableRows } from '../../tables/rows.js';
-import { createTableWriter, encodeTableAsync, TABLE_FORMATS, type TableFormat } from '../../tables/writer.js';
+import { createTableLayout, metadataColumns, tableLevels, tableRows } from '../../tables/rows.js';
+import { chooseTableFormat, sendTable } from '../table-response.js';
+import { TABLE_DESCRIPTION, TABLE_RESPONSE, TableQuery } from './tables.js';
 
 const MetadataSchema = z
   .record(z.string().regex(/^[a-z][a-z0-9_]{0,63}$/i), z.union([z.string().max(STUDY_LIMITS.valueLength), z.number()]))
@@ -112,10 +111,6 @@ function presentStudy(study: Study) {
   const self = `/v1/studies/${study.id}`;
   const { tenant: _tenant, entries, ...rest } = study;
   return { ...rest, entryCount: entries.length, links: { self, entries: `${self}/entries`, runs: `${self}/runs` } };
-}
-
-function presentEntry(entry: StudyEntry) {
-  return entry;
 }
 
 async function presentRun(driver: RunDriver, run: Run) {
@@ -237,10 +232,15 @@ export const studyRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
       validatorCompiler: zodValidator({ params: StudyParams }),
     },
     async (request, reply) => {
-      const inputs = typeof request.body === 'string' ? readCsvManifest(request.body) : readJsonEntries(request.body);
-      const added = await studies.addEntries(tenantOf(request), request.params.id, inputs);
+      const tenant = tenantOf(request);
+      // Another tenant's study is 404 whatever the body holds.
+      await studies.require(tenant, request.params.id);
+      const body: unknown = request.body;
+      const csv = typeof body === 'string' && /^text\/csv\b/i.test(request.headers['content-type'] ?? '');
+      const inputs = csv ? readCsvManifest(body) : readJsonEntries(body);
+      const added = await studies.addEntries(tenant, request.params.id, inputs);
       request.log.info({ studyId: request.params.id, added: added.length }, 'study entries added');
-      return reply.code(201).send({ added: added.length, entries: added.map(presentEntry) });
+      return reply.code(201).send({ added: added.length, entries: added });
     },
   );
 
@@ -261,7 +261,7 @@ export const studyRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
       const from = after === undefined ? 0 : study.entries.findIndex((e) => e.id === after) + 1;
       if (after !== undefined && from === 0) throw new DomainError('invalid-request', `cursor "${after}" names no entry of this study`, { pointer: '/query/after' });
       const page = study.entries.slice(from, from + limit);
-      return { entries: page.map(presentEntry), next: from + limit < study.entries.length ? page[page.length - 1]!.id : null };
+      return { entries: page, next: from + limit < study.entries.length ? page[page.length - 1]!.id : null };
     },
   );
 
@@ -413,16 +413,15 @@ export const studyRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
     {
       schema: {
         summary: "One table over every succeeded entry of a run, each row carrying its entry's metadata columns",
-        description:
-          'Streams the feature table (see GET /v1/jobs/{id}/table for the levels and their columns) of each succeeded entry in the order of the run, after an `entry` column and one column per metadata key (a key numeric in every entry is a double column, else text). CSV (RFC 4180) or Parquet, by `format` or by `Accept` (text/csv, application/vnd.apache.parquet); CSV when neither says.',
+        description: `Every succeeded entry's table, in the order of the run, each row led by an \`entry\` column and one column per metadata key (a key numeric in every entry is a double column, else text).\n\n${TABLE_DESCRIPTION}`,
         tags: ['studies'],
         params: RunParams,
-        querystring: z.strictObject({
-          level: z.enum(TABLE_LEVELS).default('bands').describe('the grain of one row'),
-          format: z.enum(TABLE_FORMATS).optional().describe('csv or parquet; overrides Accept'),
-        }),
+        querystring: TableQuery,
         response: {
+          200: TABLE_RESPONSE,
+          400: problemResponse('unknown level or format'),
           404: problemResponse('unknown study or run'),
+          406: problemResponse('Accept allows neither CSV nor Parquet'),
           409: problemResponse('no entry of the run has succeeded yet'),
           422: problemResponse('the records of this recipe cannot give the level'),
         },
@@ -434,7 +433,7 @@ export const studyRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
       await studies.require(tenant, id);
       const run = await driver.require(tenant, id, runId);
       const items = run.items.filter((i) => i.status === 'succeeded');
-      const format = request.query.format ?? acceptedFormat(request.headers.accept);
+      const format = chooseTableFormat(request.query.format, request.headers.accept);
       const records = (async function* () {
         for (const item of items) {
           const text = await store.getDocument('records', item.recordKey);
@@ -445,35 +444,20 @@ export const studyRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
       const first = await records.next();
       if (first.done) throw new DomainError('record-not-ready', `run ${run.id} has no succeeded entry with a stored record yet (${runState(run)}); poll the run`);
       const columns = metadataColumns(items.map((i) => i.metadata));
-      const layout = createTableLayout(first.value.record, request.query.level, { metadata: columns, entry: true });
+      const level = request.query.level ?? tableLevels(first.value.record)[0] ?? 'bands';
+      const layout = createTableLayout(first.value.record, level, { metadata: columns, entry: true });
       const text = new Set(columns.filter((c) => c.type === 'string').map((c) => c.name));
       const rowsOf = ({ item, record }: { item: RunItem; record: FeatureRecord }) =>
         tableRows(layout, record, { entryId: item.entryId, metadata: Object.fromEntries(Object.entries(item.metadata).map(([k, v]) => [k, text.has(k) ? String(v) : v])) });
-      const writer = createTableWriter(format, layout.columns);
       async function* batches() {
         yield rowsOf(first.value!);
         for await (const next of records) yield rowsOf(next);
       }
-      request.log.info({ studyId: id, runId, level: request.query.level, format, entries: items.length }, 'run table streamed');
-      return reply
-        .type(writer.mediaType)
-        .header('content-disposition', `attachment; filename="${id}-${runId}-${request.query.level}.${writer.extension}"`)
-        .send(Readable.from(encodeTableAsync(writer, batches())) as never);
+      request.log.info({ studyId: id, runId, level, format, entries: items.length }, 'run table streamed');
+      return sendTable(reply, { format, columns: layout.columns, fileStem: `${id}-${runId}-${level}`, batches: batches() });
     },
   );
 };
-
-/** `Accept` negotiation between the two table formats; CSV unless Parquet is preferred. */
-function acceptedFormat(accept: string | undefined): TableFormat {
-  let best: { format: TableFormat; q: number } = { format: 'csv', q: 0 };
-  for (const part of (accept ?? '').split(',')) {
-    const [type = '', ...params] = part.trim().toLowerCase().split(';');
-    const q = Number(params.map((p) => p.trim()).find((p) => p.startsWith('q='))?.slice(2) ?? 1);
-    const format: TableFormat | null = type === 'application/vnd.apache.parquet' ? 'parquet' : type === 'text/csv' ? 'csv' : null;
-    if (format && q > best.q) best = { format, q };
-  }
-  return best.format;
-}
 
 /** A run's item as the entry it was taken from (a retry runs the entries as they were then). */
 function itemAsEntry(item: RunItem): StudyEntry {
