@@ -20,9 +20,10 @@ const ALLOWED: Record<string, string[]> = {
   stores: ['signals', 'common'],
   tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'methods', 'signals', 'common'],
+  plots: ['engine', 'recipes', 'methods', 'common'],
   studies: ['tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'common'],
-  http: ['studies', 'tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
-  cli: ['tables', 'http', 'studies', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  http: ['studies', 'tables', 'plots', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
+  cli: ['tables', 'plots', 'http', 'studies', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

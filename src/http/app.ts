@@ -17,6 +17,7 @@ import { eventRoutes } from './routes/events.js';
 import { jobRoutes } from './routes/jobs.js';
 import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
+import { plotRoutes } from './routes/plots.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
 import { studyRoutes } from './routes/studies.js';
@@ -109,6 +110,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
         { name: 'signals', description: 'Upload and describe signals' },
         { name: 'recipes', description: 'Pin analysis recipes' },
         { name: 'jobs', description: 'Submit analyses and fetch feature records' },
+        { name: 'plots', description: 'Records drawn as SVG' },
         { name: 'studies', description: 'Recordings with their metadata, grouped in studies; one recipe run over a whole study' },
         { name: 'operations', description: 'Health, readiness and documentation' },
       ],
@@ -123,6 +125,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(tableRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
+  await app.register(plotRoutes(deps));
   await app.register(studyRoutes(deps));
   await app.ready();
   return app;
