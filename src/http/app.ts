@@ -8,7 +8,8 @@ import type { Config } from '../config.js';
 import { ENGINE_VERSION } from '../engine/version.js';
 import type { JobQueue } from '../jobs/queue.js';
 import type { Store } from '../stores/store.js';
-import { errorHandler, notFoundHandler } from './error-handler.js';
+import { errorHandler } from './error-handler.js';
+import { buildClientErrorHandler, buildNotFoundHandler, createRouteTable, frameworkErrors, SECURITY_HEADERS } from './early-errors.js';
 import cors from '@fastify/cors';
 import rateLimit from '@fastify/rate-limit';
 import { registerAuth } from './auth.js';
@@ -45,7 +46,10 @@ export const API_DESCRIPTION = [
 
 /** Builds the app without listening, so tests drive it with `inject()`. */
 export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
+  const routes = createRouteTable();
   const app = Fastify({
+    frameworkErrors,
+    clientErrorHandler: buildClientErrorHandler(routes, deps.logger),
     loggerInstance: deps.logger as unknown as FastifyBaseLogger,
     bodyLimit: deps.config.bodyLimitBytes,
     // A client that trickles its body is cut off instead of holding a connection for ever. Node
@@ -66,14 +70,14 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   app.setValidatorCompiler(validatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
   app.setErrorHandler(errorHandler);
-  app.setNotFoundHandler(notFoundHandler);
+  app.setNotFoundHandler(buildNotFoundHandler(routes));
+  app.addHook('onRoute', (route) => routes.add(route.method, route.url));
+  // A JSON body sent as text/plain is refused as 415 naming the accepted types, not parsed as a
+  // string and then refused as a malformed recipe or signal.
+  app.removeContentTypeParser('text/plain');
   app.addHook('onSend', async (request, reply) => {
     reply.header('x-request-id', request.id);
-    reply.header('x-content-type-options', 'nosniff');
-    reply.header('x-frame-options', 'DENY');
-    reply.header('referrer-policy', 'no-referrer');
-    reply.header('content-security-policy', "default-src 'none'; frame-ancestors 'none'");
-    reply.header('cross-origin-resource-policy', 'same-site');
+    reply.headers(SECURITY_HEADERS);
     if (!reply.hasHeader('cache-control')) reply.header('cache-control', 'no-store');
   });
   if (deps.config.corsOrigins.length > 0) {

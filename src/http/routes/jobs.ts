@@ -46,7 +46,14 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
   app.post(
     '/v1/jobs',
     {
-      config: { access: 'submit' },
+      config: {
+        access: 'submit',
+        unionForms: {
+          '/signal':
+            'a stored signal id (string), a reference {signal, start?, end?, channels?, badSpans?}, an import {file or url, format?, …} or an upload {samplingRate, channels, data or epochs}',
+          '/recipe': 'a pinned recipe id (string) or a recipe object with a "method"',
+        },
+      },
       schema: {
         summary: 'Submit an analysis',
         description:
