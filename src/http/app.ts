@@ -8,6 +8,7 @@ import type { Config } from '../config.js';
 import { ENGINE_VERSION } from '../engine/version.js';
 import type { JobQueue } from '../jobs/queue.js';
 import type { Store } from '../stores/store.js';
+import { documentRoute, finishDocument } from './contract.js';
 import { errorHandler } from './error-handler.js';
 import { buildClientErrorHandler, buildNotFoundHandler, createRouteTable, frameworkErrors, SECURITY_HEADERS } from './early-errors.js';
 import cors from '@fastify/cors';
@@ -71,7 +72,10 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   app.setSerializerCompiler(serializerCompiler);
   app.setErrorHandler(errorHandler);
   app.setNotFoundHandler(buildNotFoundHandler(routes));
-  app.addHook('onRoute', (route) => routes.add(route.method, route.url));
+  app.addHook('onRoute', (route) => {
+    routes.add(route.method, route.url);
+    documentRoute(route);
+  });
   // A JSON body sent as text/plain is refused as 415 naming the accepted types, not parsed as a
   // string and then refused as a malformed recipe or signal.
   app.removeContentTypeParser('text/plain');
@@ -107,6 +111,14 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
     openapi: {
       openapi: '3.1.0',
       info: { title: 'rhythmetric', version: ENGINE_VERSION, description: API_DESCRIPTION, license: { name: 'Apache-2.0', identifier: 'Apache-2.0' } },
+      // Relative: the document is served by the service it describes, wherever that runs.
+      servers: [{ url: '/', description: 'the service that serves this document' }],
+      components: {
+        securitySchemes: {
+          bearer: { type: 'http', scheme: 'bearer', description: 'An API key with the role read, submit or admin, as "Authorization: Bearer <key>". Without configured keys the service runs in an announced open mode.' },
+        },
+      },
+      security: [{ bearer: [] }],
       tags: [
         { name: 'signals', description: 'Upload and describe signals' },
         { name: 'recipes', description: 'Pin analysis recipes' },
@@ -115,7 +127,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
       ],
     },
     transform: jsonSchemaTransform,
-    transformObject: jsonSchemaTransformObject,
+    transformObject: (input) => finishDocument(jsonSchemaTransformObject(input)),
   });
   await app.register(metaRoutes(deps));
   await app.register(signalRoutes(deps));

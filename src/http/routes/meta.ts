@@ -30,7 +30,13 @@ export const metaRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
 
   app.get(
     '/metrics',
-    { schema: { summary: 'Prometheus metrics (text exposition format)', tags: ['operations'] } },
+    {
+      schema: {
+        summary: 'Prometheus metrics (text exposition format)',
+        tags: ['operations'],
+        response: { 200: { description: 'metrics in the Prometheus text exposition format 0.0.4', content: { 'text/plain': { schema: z.string() } } } },
+      },
+    },
     async (_request, reply) => {
       const registry = deps.metrics!.registry;
       return reply.type(registry.contentType).send(await registry.metrics());
