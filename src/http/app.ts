@@ -8,7 +8,9 @@ import type { Config } from '../config.js';
 import { ENGINE_VERSION } from '../engine/version.js';
 import type { JobQueue } from '../jobs/queue.js';
 import type { Store } from '../stores/store.js';
-import { errorHandler, notFoundHandler } from './error-handler.js';
+import { documentRoute, finishDocument } from './contract.js';
+import { errorHandler } from './error-handler.js';
+import { buildClientErrorHandler, buildNotFoundHandler, createRouteTable, frameworkErrors, SECURITY_HEADERS } from './early-errors.js';
 import cors from '@fastify/cors';
 import rateLimit from '@fastify/rate-limit';
 import { registerAuth } from './auth.js';
@@ -48,7 +50,10 @@ export const API_DESCRIPTION = [
 
 /** Builds the app without listening, so tests drive it with `inject()`. */
 export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
+  const routes = createRouteTable();
   const app = Fastify({
+    frameworkErrors,
+    clientErrorHandler: buildClientErrorHandler(routes, deps.logger),
     loggerInstance: deps.logger as unknown as FastifyBaseLogger,
     bodyLimit: deps.config.bodyLimitBytes,
     // A client that trickles its body is cut off instead of holding a connection for ever. Node
@@ -69,14 +74,17 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   app.setValidatorCompiler(validatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
   app.setErrorHandler(errorHandler);
-  app.setNotFoundHandler(notFoundHandler);
+  app.setNotFoundHandler(buildNotFoundHandler(routes));
+  app.addHook('onRoute', (route) => {
+    routes.add(route.method, route.url);
+    documentRoute(route);
+  });
+  // A JSON body sent as text/plain is refused as 415 naming the accepted types, not parsed as a
+  // string and then refused as a malformed recipe or signal.
+  app.removeContentTypeParser('text/plain');
   app.addHook('onSend', async (request, reply) => {
     reply.header('x-request-id', request.id);
-    reply.header('x-content-type-options', 'nosniff');
-    reply.header('x-frame-options', 'DENY');
-    reply.header('referrer-policy', 'no-referrer');
-    reply.header('content-security-policy', "default-src 'none'; frame-ancestors 'none'");
-    reply.header('cross-origin-resource-policy', 'same-site');
+    reply.headers(SECURITY_HEADERS);
     if (!reply.hasHeader('cache-control')) reply.header('cache-control', 'no-store');
   });
   if (deps.config.corsOrigins.length > 0) {
@@ -106,6 +114,14 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
     openapi: {
       openapi: '3.1.0',
       info: { title: 'rhythmetric', version: ENGINE_VERSION, description: API_DESCRIPTION, license: { name: 'Apache-2.0', identifier: 'Apache-2.0' } },
+      // Relative: the document is served by the service it describes, wherever that runs.
+      servers: [{ url: '/', description: 'the service that serves this document' }],
+      components: {
+        securitySchemes: {
+          bearer: { type: 'http', scheme: 'bearer', description: 'An API key with the role read, submit or admin, as "Authorization: Bearer <key>". Without configured keys the service runs in an announced open mode.' },
+        },
+      },
+      security: [{ bearer: [] }],
       tags: [
         { name: 'signals', description: 'Upload and describe signals' },
         { name: 'recipes', description: 'Pin analysis recipes' },
@@ -116,7 +132,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
       ],
     },
     transform: jsonSchemaTransform,
-    transformObject: jsonSchemaTransformObject,
+    transformObject: (input) => finishDocument(jsonSchemaTransformObject(input)),
   });
   await app.register(metaRoutes(deps));
   await app.register(signalRoutes(deps));

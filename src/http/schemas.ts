@@ -3,15 +3,17 @@ import { JOB_STATES } from '../jobs/spec.js';
 import { RecipeSchema } from '../recipes/schema.js';
 
 export const ProblemSchema = z
-  .object({
+  .looseObject({
     type: z.string().describe('stable URI of the problem kind, e.g. /problems/invalid-recipe (GET it for documentation)'),
     title: z.string(),
     status: z.number().int(),
     detail: z.string().describe('what is wrong, in words'),
     pointer: z.string().optional().describe('RFC 6901 JSON pointer to the offending input (/query/… for query parameters)'),
-    requestId: z.string().optional(),
+    requestId: z.string().optional().describe('the x-request-id of the answer'),
+    accepted: z.array(z.string()).optional().describe('unsupported-media-type: the content types the route reads'),
+    allowed: z.array(z.string()).optional().describe('method-not-allowed: the methods the path answers (also in Allow)'),
   })
-  .meta({ id: 'Problem', description: 'RFC 9457 problem details.' });
+  .meta({ id: 'Problem', description: 'RFC 9457 problem details; further members (extensions) may appear, as RFC 9457 §3.2 allows.' });
 
 export function problemResponse(description: string) {
   return { description, content: { 'application/problem+json': { schema: ProblemSchema } } };
@@ -201,6 +203,7 @@ export const JobViewSchema = z
     startedAt: z.string().nullable(),
     finishedAt: z.string().nullable(),
     problem: ProblemSchema.nullable().describe('why a failed job failed'),
+    tenant: z.string().optional().describe('the tenant the job belongs to (sent by the event stream)'),
     links: z.object({ self: z.string(), record: z.string() }),
   })
   .meta({ id: 'Job' });
@@ -239,6 +242,20 @@ export const FeatureRecordSchema = z
       warnings: z.array(z.string()),
     }),
     resultHash: z.string().describe('SHA-256 of the canonical JSON of result'),
+    attachments: z
+      .array(
+        z.object({
+          name: z.string().describe('GET /v1/jobs/{id}/attachments/{name}'),
+          kind: z.string().describe('what it holds, e.g. power, trialPower, phaseConsistency, edgeMask'),
+          channel: z.string().nullable(),
+          shape: z.array(z.number().int()).describe('row-major dimensions, e.g. [times, frequencies]'),
+          dtype: z.enum(['float64-le', 'uint8']),
+          bytes: z.number().int(),
+          sha256: z.string(),
+        }),
+      )
+      .optional()
+      .describe('time–frequency records: the binary matrices, fetched separately; their hashes are inside result'),
     provenance: z.looseObject({}),
   })
   .meta({ id: 'FeatureRecord' });

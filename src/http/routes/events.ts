@@ -3,6 +3,7 @@ import { isFinished, type JobView } from '../../jobs/spec.js';
 import type { AppDeps } from '../app.js';
 import { tenantOf } from '../auth.js';
 import { ProblemError } from '../problem.js';
+import { z } from 'zod';
 import { IdParams, problemResponse } from '../schemas.js';
 
 const POLL_MS = 200;
@@ -21,7 +22,14 @@ export const eventRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
         summary: 'Job state and progress as server-sent events (text/event-stream)',
         tags: ['jobs'],
         params: IdParams,
-        response: { 404: problemResponse('unknown job') },
+        response: {
+          200: {
+            description:
+              'A stream of `event: state` messages (RFC: the WHATWG HTML "server-sent events" format) whose `data` is the job as GET /v1/jobs/{id} answers it, sent on every change of state or progress; it ends after the finished state. Comment lines keep idle proxies from closing it.',
+            content: { 'text/event-stream': { schema: z.string().describe('lines "id: <n>", "event: state", "data: <Job as JSON>", then a blank line; Job is #/components/schemas/Job') } },
+          },
+          404: problemResponse('unknown job'),
+        },
       },
     },
     async (request, reply) => {

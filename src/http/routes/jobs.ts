@@ -48,7 +48,14 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
   app.post(
     '/v1/jobs',
     {
-      config: { access: 'submit' },
+      config: {
+        access: 'submit',
+        unionForms: {
+          '/signal':
+            'a stored signal id (string), a reference {signal, start?, end?, channels?, badSpans?}, an import {file or url, format?, …} or an upload {samplingRate, channels, data or epochs}',
+          '/recipe': 'a pinned recipe id (string) or a recipe object with a "method"',
+        },
+      },
       schema: {
         summary: 'Submit an analysis',
         description:
@@ -166,7 +173,14 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
         description: 'Little-endian float64 (or uint8 for masks), row-major with the shape in the x-rhythmetric-shape header (e.g. "200,40" for times × frequencies).',
         tags: ['jobs'],
         params: z.object({ id: z.string().min(1).max(200), name: z.string().regex(/^[a-z0-9-]{1,64}$/) }),
-        response: { 404: problemResponse('unknown job or attachment'), 409: problemResponse('the job has not succeeded') },
+        response: {
+          200: {
+            description: 'the matrix as raw bytes (its headers are documented in the OpenAPI document)',
+            content: { 'application/octet-stream': { schema: z.string().meta({ format: 'binary' }) } },
+          },
+          404: problemResponse('unknown job or attachment'),
+          409: problemResponse('the job has not succeeded'),
+        },
       },
     },
     async (request, reply) => {
