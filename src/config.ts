@@ -3,7 +3,7 @@ import { deepFreeze } from './common/freeze.js';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { z } from 'zod';
-import type { RecipeLimits } from './recipes/resolve.js';
+import { DEFAULT_MAX_JOB_BYTES, type RecipeLimits } from './recipes/resolve.js';
 import type { SignalLimits } from './signals/limits.js';
 import type { StoreConfig } from './stores/store.js';
 
@@ -30,13 +30,17 @@ const EnvSchema = z.object({
   MAX_EPOCHS: int(100_000),
   MAX_SAMPLES: int(64 * 1024 * 1024),
   MAX_SAMPLING_RATE: int(100_000),
+  MIN_SAMPLING_RATE: z.coerce.number().positive().finite().default(0.01),
   MAX_FFT_LENGTH: int(1 << 20),
   MAX_OUTPUT_VALUES: int(64 * 1024 * 1024),
+  MAX_JOB_BYTES: int(DEFAULT_MAX_JOB_BYTES),
   MAX_STORE_BYTES: int(0, 0),
   API_KEYS: z.string().optional(),
   API_KEYS_FILE: z.string().min(1).optional(),
   ALLOW_OPEN_MODE: z.enum(['true', 'false', '1', '0']).default('false'),
   RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(0).optional(),
+  AUTH_FAILURES_PER_MINUTE: int(20, 0),
+  METRICS_TOKEN_SHA256: z.string().regex(/^[0-9a-f]{64}$/, 'give the SHA-256 of the token as 64 lowercase hex digits, never the token itself').optional(),
   CORS_ORIGINS: z.string().optional(),
   WORKER_LOCK_MS: int(30_000, 1000),
   WORKER_MAX_STALLED: int(2, 0),
@@ -48,6 +52,8 @@ const EnvSchema = z.object({
   FETCH_MAX_REDIRECTS: int(3, 0),
   RETENTION_DAYS: z.coerce.number().min(0).default(0),
   SWEEP_INTERVAL_SECONDS: int(3600),
+  UPLOAD_EXPIRY_SECONDS: int(86_400),
+  RECORD_CACHE_BYTES: int(64 * 1024 * 1024, 0),
 });
 
 export interface Config {
@@ -73,6 +79,10 @@ export interface Config {
   allowOpenMode: boolean;
   /** requests per minute per key (or per address in open mode); 0 = no limit; default 6000 with keys, none in open mode */
   rateLimitPerMinute: number;
+  /** failed authentications per client address and minute before 429; 0 = no limit */
+  authFailuresPerMinute: number;
+  /** SHA-256 of a token that may read /metrics (besides admin keys); null = admin keys only */
+  metricsTokenSha256: string | null;
   corsOrigins: string[];
   workerLockMs: number;
   workerMaxStalled: number;
@@ -88,6 +98,10 @@ export interface Config {
   /** days after which signals, jobs and records are swept; 0 = kept */
   retentionDays: number;
   sweepIntervalSeconds: number;
+  /** seconds without a new part after which a resumable upload is abandoned and removed */
+  uploadExpirySeconds: number;
+  /** bytes of records and attachments the API keeps in memory with STORE=redis (readable while Redis is down); 0 = off */
+  recordCacheBytes: number;
 }
 
 export const ROLES = ['read', 'submit', 'admin'] as const;
@@ -144,8 +158,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     jobThreads: e.JOB_THREADS,
     jobAttempts: e.JOB_ATTEMPTS,
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
-    signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE },
-    recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH, maxOutputValues: e.MAX_OUTPUT_VALUES },
+    signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE, minSamplingRate: e.MIN_SAMPLING_RATE },
+    recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH, maxOutputValues: e.MAX_OUTPUT_VALUES, maxJobBytes: e.MAX_JOB_BYTES },
     maxStoreBytes: e.MAX_STORE_BYTES,
     apiKeys: [
       ...(e.API_KEYS ? parseApiKeys(e.API_KEYS, 'environment variable API_KEYS') : []),
@@ -154,6 +168,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     allowOpenMode: e.ALLOW_OPEN_MODE === 'true' || e.ALLOW_OPEN_MODE === '1',
     // Per key once keys exist; open mode serves only this machine (or a forced network), so no default limit.
     rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE ?? (e.API_KEYS || e.API_KEYS_FILE ? 6000 : 0),
+    authFailuresPerMinute: e.AUTH_FAILURES_PER_MINUTE,
+    metricsTokenSha256: e.METRICS_TOKEN_SHA256 ?? null,
     corsOrigins: e.CORS_ORIGINS ? e.CORS_ORIGINS.split(',').map((o) => o.trim()).filter(Boolean) : [],
     workerLockMs: e.WORKER_LOCK_MS,
     workerMaxStalled: e.WORKER_MAX_STALLED,
@@ -165,6 +181,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     fetchMaxRedirects: e.FETCH_MAX_REDIRECTS,
     retentionDays: e.RETENTION_DAYS,
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
+    uploadExpirySeconds: e.UPLOAD_EXPIRY_SECONDS,
+    recordCacheBytes: e.RECORD_CACHE_BYTES,
   };
   return deepFreeze(config);
 }

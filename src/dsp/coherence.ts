@@ -16,8 +16,8 @@ import { welchDegreesOfFreedom } from './dof.js';
 import { complexFftPlan } from './fft.js';
 import { phaseConsistencyNull, type PhaseConsistencyNull } from './phase-consistency.js';
 import { requireDetrend, requireRate } from './checks.js';
-import { resolveTapers, splitRealPair, taperSegment, type SpectrogramOptions } from './spectrogram.js';
-import { segmentCount, welchFrequencies } from './welch.js';
+import type { SpectrogramOptions } from './spectrogram.js';
+import { binFrequencies, resolveTapers, segmentCount, splitRealPair, taperSegment } from './spectral-core.js';
 
 /** A frequency band, half-open: low ≤ f < high (Hz), as DESIGN.md's band power. */
 export interface ConnectivityBand {
@@ -77,6 +77,22 @@ export interface ConnectivityResult {
   alpha: number;
   /** the phase-locking value's expectation under no locking, over epochs; undefined with one epoch */
   phaseLockingNull: PhaseConsistencyNull | undefined;
+  /**
+   * channels that vanish in every analysed segment (constant with detrend mean or linear, zero with
+   * none): their pairs' values are 0/0 and come out NaN, never rounding noise
+   */
+  flatChannels: number[];
+}
+
+/**
+ * Whether the detrended segment is exactly zero in exact arithmetic: constant samples with a mean or
+ * linear detrend, zeros without one. Such a segment's spectrum is set to exact zeros, because the
+ * paired real FFT would otherwise lend it rounding noise from its partner channel.
+ */
+function segmentVanishes(x: Float64Array, start: number, length: number, detrend: string): boolean {
+  const first = detrend === 'none' ? 0 : x[start]!;
+  for (let t = start; t < start + length; t++) if (x[t] !== first) return false;
+  return true;
 }
 
 function checkEpochs(epochs: readonly (readonly Float64Array[])[]): { channels: number; length: number } {
@@ -109,7 +125,12 @@ function resolvePairs(pairs: ConnectivityOptions['pairs'], channels: number): [n
   });
 }
 
-/** Mean of each pair's per-bin values over low ≤ f < high. */
+function zeroSpectrum(spectra: { re: Float64Array; im: Float64Array }, channel: number, bins: number): void {
+  spectra.re.fill(0, channel * bins, (channel + 1) * bins);
+  spectra.im.fill(0, channel * bins, (channel + 1) * bins);
+}
+
+/** Mean of each pair's per-bin values over low ≤ f < high; NaN when a bin's value is undefined. */
 function bandMeans(values: Float64Array[], first: number, end: number): Float64Array {
   return Float64Array.from(values, (v) => {
     let sum = 0;
@@ -151,7 +172,7 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
   if (!(alpha > 0 && alpha < 1)) throw new RangeError(`alpha must be in (0, 1), got ${alpha}`);
   const { tapers } = resolveTapers(segmentSamples, options.window, options.tukeyRatio, options.tapers);
   const pairs = resolvePairs(options.pairs, channels);
-  const frequencies = welchFrequencies(fftLength, samplingRate);
+  const frequencies = binFrequencies(fftLength, samplingRate);
   const bins = frequencies.length;
   const bands = (options.bands ?? []).map((band, b) => {
     if (!(band.low < band.high)) throw new RangeError(`bands[${b}].low must be < high, got ${band.low} and ${band.high}`);
@@ -169,12 +190,17 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
   const auto = new Float64Array(channels * bins);
   const crossRe = new Float64Array(P * bins), crossIm = new Float64Array(P * bins);
   const epochRe = new Float64Array(P * bins), epochIm = new Float64Array(P * bins);
-  const lockRe = new Float64Array(P * bins), lockIm = new Float64Array(P * bins);
+  const lockRe = new Float64Array(P * bins), lockIm = new Float64Array(P * bins), lockCount = new Float64Array(P * bins);
   const step = segmentSamples - overlapSamples;
+  const vanishes = new Uint8Array(channels), live = new Uint8Array(channels);
 
   for (const epoch of epochs) {
     epochRe.fill(0); epochIm.fill(0);
     for (let s = 0; s < perEpoch; s++) {
+      for (let c = 0; c < channels; c++) {
+        vanishes[c] = segmentVanishes(epoch[c]!, s * step, segmentSamples, detrend) ? 1 : 0;
+        if (!vanishes[c]) live[c] = 1;
+      }
       for (const taper of tapers) {
         for (let c = 0; c < channels; c += 2) {
           taperSegment(epoch[c]!, s * step, taper, detrend, scratch, re);
@@ -183,6 +209,8 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
           else im.fill(0);
           fft.transform(re, im);
           splitRealPair(re, im, fftLength, bins, spectra, c * bins, paired ? spectra : undefined, (c + 1) * bins);
+          if (vanishes[c]) zeroSpectrum(spectra, c, bins);
+          if (paired && vanishes[c + 1]) zeroSpectrum(spectra, c + 1, bins);
         }
         for (let i = 0; i < channels * bins; i++) auto[i] = auto[i]! + spectra.re[i]! ** 2 + spectra.im[i]! ** 2;
         pairs.forEach(([a, b], p) => {
@@ -200,9 +228,11 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
       crossRe[i] = crossRe[i]! + epochRe[i]!;
       crossIm[i] = crossIm[i]! + epochIm[i]!;
       const magnitude = Math.hypot(epochRe[i]!, epochIm[i]!);
+      // An epoch whose cross-spectrum vanishes (a flat channel) has no phase: it is left out.
       if (magnitude > 0) {
         lockRe[i] = lockRe[i]! + epochRe[i]! / magnitude;
         lockIm[i] = lockIm[i]! + epochIm[i]! / magnitude;
+        lockCount[i] = lockCount[i]! + 1;
       }
     }
   }
@@ -215,7 +245,7 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
       const denominator = auto[a * bins + k]! * auto[b * bins + k]!;
       c[k] = (crossRe[i]! ** 2 + crossIm[i]! ** 2) / denominator;
       ic[k] = crossIm[i]! / Math.sqrt(denominator);
-      plv[k] = Math.hypot(lockRe[i]!, lockIm[i]!) / E;
+      plv[k] = lockCount[i]! > 0 ? Math.hypot(lockRe[i]!, lockIm[i]!) / lockCount[i]! : Number.NaN;
     }
     coherence.push(c); imaginaryCoherency.push(ic); locking.push(plv);
   });
@@ -236,5 +266,6 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
     coherenceThreshold: effectiveSegments > 1 ? 1 - Math.pow(alpha, 1 / (effectiveSegments - 1)) : 1,
     alpha,
     phaseLockingNull: E >= 2 ? phaseConsistencyNull(E) : undefined,
+    flatChannels: Array.from(live.keys()).filter((c) => !live[c]),
   };
 }

@@ -202,7 +202,7 @@ const cache = new Map<string, DpssTapers>();
  * The shared cached tapers for (length, timeBandwidth, taperCount). Internal to src/dsp: callers
  * must not write into the arrays.
  */
-/** K = ⌊2·NW⌋ − 1 (at least 1), the usual taper count (Percival & Walden 1993; from memory, see REFERENCES.md §3). */
+/** K = ⌊2·NW⌋ − 1 (at least 1), the usual taper count (Percival & Walden 1993; from memory, see docs/references.md §3). */
 export function defaultTaperCount(timeBandwidth: number): number {
   return Math.max(1, Math.floor(2 * timeBandwidth) - 1);
 }

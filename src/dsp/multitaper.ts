@@ -5,8 +5,8 @@ import { detrendInto, type DetrendKind } from './detrend.js';
 import { weightedDegreesOfFreedom } from './dof.js';
 import { cachedDpss } from './dpss.js';
 import { complexFftPlan, type ComplexFftPlan } from './fft.js';
-import { oneSidedDensityScale, welchFrequencies } from './welch.js';
-import { requireRate } from './checks.js';
+import { binFrequencies, oneSidedDensityScale } from './spectral-core.js';
+import { requireDetrend, requireFftLength, requireOptions, requireRate, requireSamples } from './checks.js';
 import { defaultTaperCount } from './dpss.js';
 
 export const TAPER_WEIGHTINGS = ['equal', 'eigenvalue', 'adaptive'] as const;
@@ -65,6 +65,7 @@ export interface MultitaperPlan {
 
 function checkOptions(length: number, options: MultitaperOptions): Required<MultitaperOptions> {
   if (!Number.isInteger(length) || length < 2) throw new RangeError(`length must be an integer ≥ 2, got ${length}`);
+  requireOptions(options);
   const { samplingRate, timeBandwidth } = options;
   requireRate(samplingRate);
   if (!(timeBandwidth > 0) || !Number.isFinite(timeBandwidth)) throw new RangeError(`timeBandwidth must be a finite number > 0, got ${timeBandwidth}`);
@@ -72,9 +73,9 @@ function checkOptions(length: number, options: MultitaperOptions): Required<Mult
   const weighting = options.weighting ?? 'adaptive';
   if (!TAPER_WEIGHTINGS.includes(weighting)) throw new TypeError(`weighting must be one of ${TAPER_WEIGHTINGS.join(', ')}, got ${String(weighting)}`);
   const fftLength = options.fftLength ?? length;
-  if (!Number.isInteger(fftLength) || fftLength < length) {
-    throw new RangeError(`fftLength must be an integer ≥ the signal length ${length}, got ${fftLength}`);
-  }
+  requireFftLength(fftLength, length, 'the signal length');
+  const detrend = options.detrend ?? 'mean';
+  requireDetrend(detrend);
   const adaptiveTolerance = options.adaptiveTolerance ?? 1e-8;
   if (!(adaptiveTolerance > 0)) throw new RangeError(`adaptiveTolerance must be > 0, got ${adaptiveTolerance}`);
   const adaptiveMaxIterations = options.adaptiveMaxIterations ?? 100;
@@ -82,7 +83,7 @@ function checkOptions(length: number, options: MultitaperOptions): Required<Mult
     throw new RangeError(`adaptiveMaxIterations must be an integer ≥ 1, got ${adaptiveMaxIterations}`);
   }
   return {
-    samplingRate, timeBandwidth, taperCount, weighting, fftLength, detrend: options.detrend ?? 'mean',
+    samplingRate, timeBandwidth, taperCount, weighting, fftLength, detrend,
     adaptiveTolerance, adaptiveMaxIterations,
   };
 }
@@ -113,7 +114,7 @@ class MultitaperPlanImpl implements MultitaperPlan {
     this.length = length;
     this.fftLength = fftLength;
     this.binCount = (fftLength >> 1) + 1;
-    this.frequencies = welchFrequencies(fftLength, samplingRate);
+    this.frequencies = binFrequencies(fftLength, samplingRate);
     this.taperCount = taperCount;
     this.tapers = tapers;
     this.concentrations = concentrations.slice();
@@ -135,7 +136,7 @@ class MultitaperPlanImpl implements MultitaperPlan {
   }
 
   compute(x: Float64Array): MultitaperResult {
-    if (x.length !== this.length) throw new RangeError(`x must have ${this.length} samples, got ${x.length}`);
+    requireSamples(x, this.length);
     const y = detrendInto(x, this.settings.detrend, this.detrended);
     this.eigenspectra(y);
     const bins = this.binCount;

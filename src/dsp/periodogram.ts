@@ -4,9 +4,9 @@
 import { detrendInto, type DetrendKind } from './detrend.js';
 import { perBinDegreesOfFreedom } from './dof.js';
 import { realFftPlan, type RealFftPlan } from './fft.js';
-import { oneSidedDensityScale, welchFrequencies } from './welch.js';
+import { requireDetrend, requireFftLength, requireOptions, requireRate, requireSamples } from './checks.js';
+import { binFrequencies, oneSidedDensityScale, requireWindowEnergy } from './spectral-core.js';
 import { makeWindow, type WindowName } from './windows.js';
-import { windowEnergy } from './windows.js';
 
 export interface PeriodogramOptions {
   /** Hz, finite and > 0 */
@@ -52,20 +52,21 @@ class PeriodogramPlanImpl implements PeriodogramPlan {
 
   constructor(length: number, options: PeriodogramOptions) {
     if (!Number.isInteger(length) || length < 1) throw new RangeError(`length must be an integer ≥ 1, got ${length}`);
+    requireOptions(options);
+    requireRate(options.samplingRate);
     const fftLength = options.fftLength ?? length;
-    if (!Number.isInteger(fftLength) || fftLength < length) {
-      throw new RangeError(`fftLength must be an integer ≥ the signal length ${length}, got ${fftLength}`);
-    }
+    requireFftLength(fftLength, length, 'the signal length');
     const windowOptions = options.tukeyRatio === undefined ? undefined : { tukeyRatio: options.tukeyRatio };
     this.window = makeWindow(options.window ?? 'rectangular', length, windowOptions);
-    const energy = windowEnergy(this.window);
+    const energy = requireWindowEnergy(this.window);
     this.length = length;
     this.fftLength = fftLength;
-    this.frequencies = welchFrequencies(fftLength, options.samplingRate);
+    this.frequencies = binFrequencies(fftLength, options.samplingRate);
     this.scale = oneSidedDensityScale(fftLength, options.samplingRate, energy);
     this.fft = realFftPlan(fftLength);
     this.dof = perBinDegreesOfFreedom(2, fftLength);
     this.detrend = options.detrend ?? 'mean';
+    requireDetrend(this.detrend);
     this.work = new Float64Array(length);
     const bins = (fftLength >> 1) + 1;
     this.re = new Float64Array(bins);
@@ -73,7 +74,7 @@ class PeriodogramPlanImpl implements PeriodogramPlan {
   }
 
   compute(x: Float64Array): PeriodogramResult {
-    if (x.length !== this.length) throw new RangeError(`x must have ${this.length} samples, got ${x.length}`);
+    requireSamples(x, this.length);
     const y = detrendInto(x, this.detrend, this.work);
     for (let t = 0; t < this.length; t++) y[t] = y[t]! * this.window[t]!;
     this.fft.forward(y, this.re, this.im);

@@ -6,22 +6,16 @@
  * scipy.signal.spectrogram(x, fs, window, nperseg, noverlap, nfft, detrend, scaling='density',
  * mode='psd'), so results can be checked against it.
  */
-import { detrendInto, type DetrendKind } from './detrend.js';
-import { cachedDpss } from './dpss.js';
+import type { DetrendKind } from './detrend.js';
 import { complexFftPlan, type ComplexFftPlan } from './fft.js';
-import { oneSidedDensityScale, segmentCount, welchFrequencies } from './welch.js';
-import { makeWindow, WINDOW_NAMES, type WindowName } from './windows.js';
-import { requireDetrend, requireRate } from './checks.js';
-import { defaultTaperCount } from './dpss.js';
-import { windowEnergy } from './windows.js';
+import type { WindowName } from './windows.js';
+import { requireDetrend, requireFftLength, requireOptions, requireRate, requireSamples } from './checks.js';
+import {
+  binFrequencies, oneSidedDensityScale, resolveTapers, segmentCount, splitRealPair, taperSegment, type ResolvedTapers, type TaperSpec,
+} from './spectral-core.js';
 
 /** DPSS tapers for a multitaper spectrogram. */
-export interface SpectrogramTapers {
-  /** NW over one window of segmentSamples; the half-bandwidth is NW·samplingRate/segmentSamples Hz */
-  timeBandwidth: number;
-  /** K. @defaultValue max(1, floor(2·NW) − 1) */
-  taperCount?: number;
-}
+export type SpectrogramTapers = TaperSpec;
 
 export interface SpectrogramOptions {
   /** Hz, finite and > 0 */
@@ -69,79 +63,6 @@ export interface SpectrogramPlan {
   compute(x: Float64Array, out?: Float64Array): SpectrogramResult;
 }
 
-/**
- * Complex one-sided spectra of two real sequences that were loaded as re (first) and im (second)
- * and transformed together: A_k = (Z_k + conj Z_{n−k})/2, B_k = (Z_k − conj Z_{n−k})/(2i).
- * Writes bins 0..bins−1 of A at a[aOffset…] and, when `b` is given, of B at b[bOffset…].
- *
- * @internal shared with coherence.ts
- */
-export function splitRealPair(
-  re: Float64Array, im: Float64Array, n: number, bins: number,
-  a: { re: Float64Array; im: Float64Array }, aOffset: number,
-  b?: { re: Float64Array; im: Float64Array }, bOffset = 0,
-): void {
-  for (let k = 0; k < bins; k++) {
-    const m = k === 0 ? 0 : n - k;
-    const zr = re[k]!, zi = im[k]!, yr = re[m]!, yi = im[m]!;
-    a.re[aOffset + k] = 0.5 * (zr + yr);
-    a.im[aOffset + k] = 0.5 * (zi - yi);
-    if (b !== undefined) {
-      b.re[bOffset + k] = 0.5 * (zi + yi);
-      b.im[bOffset + k] = 0.5 * (yr - zr);
-    }
-  }
-}
-
-/**
- * x[start..start+taper.length) detrended (over that window alone), multiplied by the taper and
- * zero-padded to target.length. `scratch` holds at least taper.length samples.
- *
- * @internal shared with coherence.ts
- */
-export function taperSegment(x: Float64Array, start: number, taper: Float64Array, detrend: DetrendKind, scratch: Float64Array, target: Float64Array): void {
-  const len = taper.length;
-  const segment = detrendInto(x.subarray(start, start + len), detrend, scratch);
-  for (let j = 0; j < len; j++) target[j] = segment[j]! * taper[j]!;
-  target.fill(0, len);
-}
-
-/** Tapers resolved from the options: a single window or K DPSS tapers, each with energy Σw². */
-export interface ResolvedTapers {
-  tapers: Float64Array[];
-  /** Σw² of each taper (all equal: 1 for DPSS) */
-  energy: number;
-  concentrations: Float64Array;
-}
-
-/**
- * The window or DPSS tapers named by `window` / `tapers` for segments of `segmentSamples`.
- *
- * @internal shared with coherence.ts
- */
-export function resolveTapers(segmentSamples: number, window: WindowName | Float64Array | undefined, tukeyRatio: number | undefined, tapers: SpectrogramTapers | undefined): ResolvedTapers {
-  if (tapers !== undefined) {
-    if (window !== undefined) throw new TypeError('give either window or tapers, not both');
-    if (tapers === null || typeof tapers !== 'object') throw new TypeError('tapers must be an object { timeBandwidth, taperCount? }');
-    const { timeBandwidth } = tapers;
-    const count = tapers.taperCount ?? defaultTaperCount(timeBandwidth);
-    const set = cachedDpss(segmentSamples, timeBandwidth, count);
-    return { tapers: set.tapers, energy: 1, concentrations: set.concentrations.slice() };
-  }
-  let w: Float64Array;
-  if (window instanceof Float64Array) {
-    if (window.length !== segmentSamples) throw new RangeError(`window length must equal segmentSamples (${segmentSamples}), got ${window.length}`);
-    w = window.slice();
-  } else {
-    const name = window ?? 'hann';
-    if (!(WINDOW_NAMES as readonly string[]).includes(name)) throw new TypeError(`window must be one of ${WINDOW_NAMES.join(', ')} or a Float64Array, got ${String(name)}`);
-    w = makeWindow(name, segmentSamples, tukeyRatio === undefined ? undefined : { tukeyRatio });
-  }
-  const energy = windowEnergy(w);
-  if (!Number.isFinite(energy) || energy <= 0) throw new RangeError(`window must have finite, non-zero energy Σw², got ${energy}`);
-  return { tapers: [w], energy, concentrations: new Float64Array(0) };
-}
-
 class SpectrogramPlanImpl implements SpectrogramPlan {
   readonly length: number;
   readonly times: Float64Array;
@@ -161,16 +82,14 @@ class SpectrogramPlanImpl implements SpectrogramPlan {
   private readonly spectra: { re: Float64Array; im: Float64Array };
 
   constructor(length: number, options: SpectrogramOptions) {
-    if (options === null || typeof options !== 'object') throw new TypeError('options must be an object');
+    requireOptions(options);
     const { samplingRate, segmentSamples, overlapSamples } = options;
     requireRate(samplingRate);
     if (!Number.isInteger(length) || length < 1) throw new RangeError(`length must be an integer ≥ 1, got ${length}`);
     const count = segmentCount(length, segmentSamples, overlapSamples);
     if (count === 0) throw new RangeError(`segmentSamples (${segmentSamples}) must not exceed the signal length (${length})`);
     const fftLength = options.fftLength ?? segmentSamples;
-    if (!Number.isInteger(fftLength) || fftLength < segmentSamples) {
-      throw new RangeError(`fftLength must be an integer ≥ segmentSamples (${segmentSamples}), got ${fftLength}`);
-    }
+    requireFftLength(fftLength, segmentSamples, 'segmentSamples');
     this.detrend = options.detrend ?? 'mean';
     requireDetrend(this.detrend);
     this.resolved = resolveTapers(segmentSamples, options.window, options.tukeyRatio, options.tapers);
@@ -180,7 +99,7 @@ class SpectrogramPlanImpl implements SpectrogramPlan {
     this.fftLength = fftLength;
     this.timeCount = count;
     this.frequencyCount = (fftLength >> 1) + 1;
-    this.frequencies = welchFrequencies(fftLength, samplingRate);
+    this.frequencies = binFrequencies(fftLength, samplingRate);
     this.times = new Float64Array(count);
     for (let s = 0; s < count; s++) this.times[s] = (s * this.step + segmentSamples / 2) / samplingRate;
     this.scale = oneSidedDensityScale(fftLength, samplingRate, this.resolved.energy);
@@ -192,8 +111,7 @@ class SpectrogramPlanImpl implements SpectrogramPlan {
   }
 
   compute(x: Float64Array, out?: Float64Array): SpectrogramResult {
-    if (!(x instanceof Float64Array)) throw new TypeError('x must be a Float64Array');
-    if (x.length !== this.length) throw new RangeError(`x must have ${this.length} samples, got ${x.length}`);
+    requireSamples(x, this.length);
     const bins = this.frequencyCount;
     const size = this.timeCount * bins;
     if (out !== undefined && (!(out instanceof Float64Array) || out.length < size)) {

@@ -7,21 +7,13 @@
  * scipy.signal.welch with scaling='density', so results can be checked against it.
  */
 
-import { lineFit, type DetrendKind } from './detrend.js';
+import type { DetrendKind } from './detrend.js';
 import { complexFftPlan, type ComplexFftPlan } from './fft.js';
-import { requireDetrend, requireRate } from './checks.js';
-import { windowEnergy } from './windows.js';
+import { requireDetrend, requireFftLength, requireInteger, requireOptions, requireRate, requireSegmenting } from './checks.js';
+import { binFrequencies, NoSegmentsLeftError, oneSidedDensityScale, requireWindowEnergy, taperSegmentPair } from './spectral-core.js';
 
-/**
- * The segment filter refused every segment, so there is nothing to average. A type of its own so
- * that callers recognise the case without reading the wording.
- */
-export class NoSegmentsLeftError extends RangeError {
-  override readonly name = 'NoSegmentsLeftError';
-  constructor(readonly total: number) {
-    super(`acceptSegment rejected all ${total} segments: nothing to average`);
-  }
-}
+// The shared spectral core, under the names this module has always exported.
+export { binFrequencies as welchFrequencies, NoSegmentsLeftError, oneSidedDensityScale, segmentCount } from './spectral-core.js';
 
 export type AverageKind = 'mean' | 'median';
 const AVERAGE_KINDS: readonly AverageKind[] = ['mean', 'median'];
@@ -71,74 +63,6 @@ export interface WelchPlan {
   compute(x: Float64Array, out?: Float64Array): { psd: Float64Array; segmentCount: number; rejectedSegments: number };
 }
 
-function requireInteger(value: number, name: string, min: number): void {
-  if (!Number.isInteger(value) || value < min) {
-    throw new RangeError(`${name} must be an integer ≥ ${min}, got ${value}`);
-  }
-}
-
-/**
- * Frequencies of the one-sided DFT bins.
- *
- * @param fftLength - DFT length n, integer ≥ 1
- * @param samplingRate - Hz, finite and > 0
- * @returns f_k = k·samplingRate/n in Hz for k = 0..floor(n/2) (as scipy.fft.rfftfreq)
- * @throws RangeError for a bad `fftLength` or `samplingRate`
- */
-export function welchFrequencies(fftLength: number, samplingRate: number): Float64Array {
-  requireInteger(fftLength, 'fftLength', 1);
-  requireRate(samplingRate);
-  const f = new Float64Array((fftLength >> 1) + 1);
-  for (let k = 0; k < f.length; k++) f[k] = (k * samplingRate) / fftLength;
-  return f;
-}
-
-/**
- * Number of whole segments in a record.
- *
- * @param length - samples in the record, integer ≥ 0
- * @param segmentSamples - samples per segment, integer ≥ 1
- * @param overlapSamples - integer in [0, segmentSamples)
- * @returns floor((length − overlap)/(segmentSamples − overlap)) when length ≥ segmentSamples, else 0;
- *   trailing samples that do not fill a segment are dropped, as scipy.signal.welch does
- * @throws RangeError for non-integer or out-of-range arguments
- */
-export function segmentCount(length: number, segmentSamples: number, overlapSamples: number): number {
-  requireInteger(length, 'length', 0);
-  requireInteger(segmentSamples, 'segmentSamples', 1);
-  requireInteger(overlapSamples, 'overlapSamples', 0);
-  if (overlapSamples >= segmentSamples) {
-    throw new RangeError(`overlapSamples must be less than segmentSamples (${segmentSamples}), got ${overlapSamples}`);
-  }
-  if (length < segmentSamples) return 0;
-  return Math.floor((length - overlapSamples) / (segmentSamples - overlapSamples));
-}
-
-/**
- * Per-bin factor turning |X_k|² into a one-sided power spectral density.
- *
- * @param fftLength - DFT length n, integer ≥ 1
- * @param samplingRate - Hz, finite and > 0
- * @param windowEnergy - Σw² of the taper, finite and > 0
- * @returns for k = 0..floor(n/2): 2/(fs·Σw²) for 0 < k < n/2 and 1/(fs·Σw²) at DC and, for even n,
- *   at Nyquist; for odd n every k ≥ 1 is doubled (no Nyquist bin), as scipy.signal.welch
- * @throws RangeError for bad arguments
- * @see Welch (1967); scipy.signal.welch, scaling='density'
- */
-export function oneSidedDensityScale(fftLength: number, samplingRate: number, windowEnergy: number): Float64Array {
-  requireInteger(fftLength, 'fftLength', 1);
-  requireRate(samplingRate);
-  if (!Number.isFinite(windowEnergy) || windowEnergy <= 0) {
-    throw new RangeError(`windowEnergy must be a finite number > 0, got ${windowEnergy}`);
-  }
-  const bins = (fftLength >> 1) + 1;
-  const single = 1 / (samplingRate * windowEnergy);
-  const scale = new Float64Array(bins).fill(2 * single);
-  scale[0] = single;
-  if (fftLength % 2 === 0) scale[bins - 1] = single;
-  return scale;
-}
-
 /**
  * Bias of the sample median of `count` independent χ²₂/2 (exponential) periodogram values,
  * relative to their mean: b(n) = 1 + Σ_{i=1}^{⌊(n−1)/2⌋} (1/(2i+1) − 1/(2i)).
@@ -158,18 +82,11 @@ export function medianBias(count: number): number {
 }
 
 function validate(options: WelchOptions): void {
-  if (options === null || typeof options !== 'object') throw new TypeError('options must be an object');
+  requireOptions(options);
   const { samplingRate, segmentSamples, overlapSamples, fftLength, window, detrend, average, acceptSegment } = options;
   requireRate(samplingRate);
-  requireInteger(segmentSamples, 'segmentSamples', 1);
-  requireInteger(overlapSamples, 'overlapSamples', 0);
-  if (overlapSamples >= segmentSamples) {
-    throw new RangeError(`overlapSamples must be less than segmentSamples (${segmentSamples}), got ${overlapSamples}`);
-  }
-  requireInteger(fftLength, 'fftLength', 1);
-  if (fftLength < segmentSamples) {
-    throw new RangeError(`fftLength must be ≥ segmentSamples (${segmentSamples}), got ${fftLength}`);
-  }
+  requireSegmenting(segmentSamples, overlapSamples);
+  requireFftLength(fftLength, segmentSamples, 'segmentSamples');
   if (!(window instanceof Float64Array)) throw new TypeError('window must be a Float64Array');
   if (window.length !== segmentSamples) {
     throw new RangeError(`window length must equal segmentSamples (${segmentSamples}), got ${window.length}`);
@@ -248,15 +165,12 @@ class WelchPlanImpl implements WelchPlan {
     this.fftLength = fftLength;
     // a private copy: later changes to the caller's array must not change this plan's results
     this.window = options.window.slice();
-    const energy = windowEnergy(this.window);
-    if (!Number.isFinite(energy) || energy <= 0) {
-      throw new RangeError(`window must have finite, non-zero energy Σw², got ${energy}`);
-    }
+    const energy = requireWindowEnergy(this.window);
     this.detrend = options.detrend;
     this.average = options.average;
     this.acceptSegment = options.acceptSegment;
     this.binCount = (fftLength >> 1) + 1;
-    this.frequencies = welchFrequencies(fftLength, samplingRate);
+    this.frequencies = binFrequencies(fftLength, samplingRate);
     this.scale = oneSidedDensityScale(fftLength, samplingRate, energy);
     this.fft = complexFftPlan(fftLength);
     this.re = new Float64Array(fftLength);
@@ -335,44 +249,9 @@ class WelchPlanImpl implements WelchPlan {
     for (let k = 0; k < bins; k++) psd[k] = median(stored, k * count, count);
   }
 
-  /**
-   * Detrend and taper segment a into `re` and segment b into `im` (zeros when b < 0), zero-padded to
-   * fftLength. Both segments share each loop, which halves the loop overhead of the hot path.
-   */
+  /** Segment a into `re` and segment b into `im` (zeros when b < 0), detrended, tapered and zero-padded. */
   private taperPair(x: Float64Array, a: number, b: number): void {
-    const len = this.segmentSamples;
-    const { window: w, re, im } = this;
-    const single = b < 0;
-    const bb = single ? a : b;
-    let meanA = 0, meanB = 0, slopeA = 0, slopeB = 0;
-    if (this.detrend === 'mean') {
-      let sumA = 0, sumB = 0;
-      for (let j = 0; j < len; j++) { sumA += x[a + j]!; sumB += x[bb + j]!; }
-      meanA = sumA / len;
-      meanB = sumB / len;
-    } else if (this.detrend === 'linear') {
-      const fit = this.fit;
-      lineFit(x, a, len, fit);
-      meanA = fit[0]!; slopeA = fit[1]!;
-      lineFit(x, bb, len, fit);
-      meanB = fit[0]!; slopeB = fit[1]!;
-    }
-    if (slopeA === 0 && slopeB === 0) {
-      for (let j = 0; j < len; j++) {
-        const wj = w[j]!;
-        re[j] = (x[a + j]! - meanA) * wj;
-        im[j] = (x[bb + j]! - meanB) * wj;
-      }
-    } else {
-      const centre = (len - 1) / 2;
-      for (let j = 0; j < len; j++) {
-        const wj = w[j]!, t = j - centre;
-        re[j] = (x[a + j]! - meanA - slopeA * t) * wj;
-        im[j] = (x[bb + j]! - meanB - slopeB * t) * wj;
-      }
-    }
-    re.fill(0, len, this.fftLength);
-    im.fill(0, single ? 0 : len, this.fftLength);
+    taperSegmentPair(x, a, b, this.window, this.detrend, this.fit, this.re, this.im);
   }
 }
 
@@ -384,7 +263,8 @@ class WelchPlanImpl implements WelchPlan {
  *   returning the one-sided PSD in unit²/Hz (x in unit), the number of averaged segments and the
  *   number rejected by `acceptSegment`
  * @throws RangeError for out-of-range numbers, a window whose length is not segmentSamples, a
- *   signal shorter than segmentSamples, or (from compute) when every segment is rejected
+ *   signal shorter than segmentSamples, or (from compute, as {@link NoSegmentsLeftError}) when every
+ *   segment is rejected
  * @throws TypeError for a window that is not a Float64Array, or an unknown detrend or average
  * @see Welch (1967), IEEE Trans. Audio Electroacoust. AU-15(2):70–73; scipy.signal.welch
  */

@@ -9,10 +9,10 @@
  */
 import { sha256Hex } from '../common/hash.js';
 import { baselineNormalize } from '../dsp/baseline.js';
-import { createMorletPlan, POWER_FACTOR } from '../dsp/morlet.js';
 import { phaseConsistency } from '../dsp/phase-consistency.js';
-import { createSpectrogramPlan } from '../dsp/spectrogram.js';
-import type { ConnectivityRecipe, SpectrogramRecipe, TimeFrequencyRecipe } from '../recipes/schema.js';
+import type { TrialTransform } from '../methods/method.js';
+import { methodOf } from '../methods/registry.js';
+import type { TimeFrequencyRecipe } from '../recipes/schema.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
 import type { Attachment, TimeFrequencyResult } from './record.js';
 
@@ -34,18 +34,9 @@ export interface ChannelSetup {
 }
 
 /** The transform of one trial and the axes it produces, built once per thread and job. */
-export interface ChannelWork {
-  times: Float64Array;
+export interface ChannelWork extends TrialTransform {
   /** times relative to the event (events epoching) or the epoch start */
   shifted: Float64Array;
-  frequencies: Float64Array;
-  edgeMask: Uint8Array | null;
-  extra: Partial<TimeFrequencyBlock>;
-  /**
-   * One trial's power. Given `sum`, the transform may add the power into it and return `sum` as
-   * `power`; otherwise `power` is the trial's own matrix.
-   */
-  transform: (x: Float64Array, sum?: Float64Array) => { power: Float64Array; re?: Float64Array; im?: Float64Array };
 }
 
 export interface ChannelOutcome {
@@ -79,56 +70,14 @@ function canonicalizeNaN(data: Float64Array): void {
   }
 }
 
-/** DPSS tapers when the recipe names them, else its window (spectrogram and connectivity alike). */
-export function taperOptions(recipe: SpectrogramRecipe | ConnectivityRecipe) {
-  if (recipe.tapers) return { tapers: { timeBandwidth: recipe.tapers.timeBandwidth, ...(recipe.tapers.taperCount !== null ? { taperCount: recipe.tapers.taperCount } : {}) } };
-  return { window: recipe.window, ...(recipe.tukeyRatio !== undefined ? { tukeyRatio: recipe.tukeyRatio } : {}) };
-}
-
 /** The plan of the recipe's method, its axes, and the per-trial transform. */
 export function createChannelWork(setup: ChannelSetup): ChannelWork {
-  const { recipe, samplingRate: fs, samplesPerEpoch: n } = setup;
+  const { recipe } = setup;
+  const method = methodOf(recipe);
+  if (!method.createTrialTransform) throw new TypeError(`method "${recipe.method}" gives no time–frequency transform`);
+  const work = method.createTrialTransform(recipe, setup.derived, setup.samplingRate, setup.samplesPerEpoch);
   // Times are given relative to the event for events epoching, else to the epoch start.
   const origin = recipe.epoching?.mode === 'events' ? recipe.epoching.beforeSeconds : 0;
-  let work: Omit<ChannelWork, 'shifted'>;
-  if (recipe.method === 'morlet') {
-    const plan = createMorletPlan(n, { samplingRate: fs, frequencies: recipe.frequencies, cycles: recipe.cycles, decimation: recipe.decimation });
-    // One set of convolutions gives both; summaries never use the coefficients.
-    const withPhase = recipe.phaseConsistency && recipe.output === 'matrix';
-    work = {
-      times: plan.times,
-      frequencies: plan.frequencies,
-      edgeMask: plan.edgeMask,
-      extra: { edgeSigmas: plan.edgeSigmas, powerFactor: POWER_FACTOR, cycles: Array.from(plan.cycles) },
-      transform: withPhase ? (x) => plan.powerAndCoefficients(x) : (x, sum) => ({ power: sum ? plan.power(x, sum, true) : plan.power(x) }),
-    };
-  } else {
-    const d = setup.derived;
-    const plan = createSpectrogramPlan(n, {
-      samplingRate: fs,
-      segmentSamples: d.segmentSamples,
-      overlapSamples: d.overlapSamples,
-      fftLength: d.fftLength,
-      detrend: recipe.detrend,
-      ...taperOptions(recipe),
-    });
-    const [lo, hi] = d.frequencyRange;
-    const columns = Array.from(plan.frequencies.keys()).filter((k) => plan.frequencies[k]! >= lo && plan.frequencies[k]! <= hi);
-    const full = plan.frequencyCount;
-    work = {
-      times: plan.times,
-      frequencies: Float64Array.from(columns, (k) => plan.frequencies[k]!),
-      edgeMask: null,
-      extra: {},
-      transform: (x) => {
-        const p = plan.compute(x).power;
-        if (columns.length === full) return { power: p };
-        const out = new Float64Array(plan.timeCount * columns.length);
-        for (let t = 0; t < plan.timeCount; t++) columns.forEach((k, j) => (out[t * columns.length + j] = p[t * full + k]!));
-        return { power: out };
-      },
-    };
-  }
   return { ...work, shifted: Float64Array.from(work.times, (t) => t - origin) };
 }
 

@@ -4,29 +4,17 @@ import type { ConnectivityRecipe, TimeFrequencyRecipe } from '../recipes/schema.
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
 import { computeChannels } from './fan-out.js';
-import { screenGaps } from './gaps.js';
+import { gapHandling, screenEpochs } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
-import type { Attachment, SkippedEpoch, TimeFrequencyResult } from './record.js';
-import { attachment, createChannelWork, NULL_ALPHA, taperOptions, type ChannelSetup } from './tf-channels.js';
+import type { Attachment, TimeFrequencyResult } from './record.js';
+import { taperOptions } from '../methods/settings.js';
+import { attachment, createChannelWork, NULL_ALPHA, type ChannelSetup } from './tf-channels.js';
 
 interface Context {
   onProgress?: (fraction: number) => void;
   checkpoint?: () => void;
   /** threads this job may use for its channels, its own included. @defaultValue 1 */
   threads?: number;
-}
-
-/** Epochs with gaps are left out (or refuse the job), as for spectra. */
-function usableEpochs(signal: Signal, policy: 'reject' | 'skip-epoch'): { used: number[]; skipped: SkippedEpoch[] } {
-  const used: number[] = [];
-  const skipped: SkippedEpoch[] = [];
-  for (let e = 0; e < signal.epochCount; e++) {
-    const gap = screenGaps(signal, e, policy);
-    if (gap) skipped.push(gap);
-    else used.push(e);
-  }
-  if (used.length === 0) throw new EngineInputError('no-usable-epochs', `all ${signal.epochCount} epoch(s) hold non-finite samples`);
-  return { used, skipped };
 }
 
 /**
@@ -40,10 +28,14 @@ export function analyzeTimeFrequency(
   context: Context,
 ): { result: TimeFrequencyResult; attachments: Attachment[]; threads?: number } {
   const { recipe } = resolved;
-  const { used, skipped } = usableEpochs(signal, recipe.nonFinite);
+  const { used, skipped } = screenEpochs(signal, gapHandling(recipe.nonFinite, false));
   const warnings = [...resolved.warnings, ...prepared.warnings];
   const base = { estimate: { method: recipe.method, epochsUsed: used.length, epochsSkipped: skipped }, warnings };
-  if (recipe.method === 'connectivity') return { result: connectivity(signal, resolved as ResolvedRecipe<ConnectivityRecipe>, used, base), attachments: [] };
+  if (recipe.method === 'connectivity') {
+    // Resolving refuses a signal with one epoch; epochs left out for gaps or bad spans can still leave one.
+    if (used.length < 2) throw new EngineInputError('no-usable-epochs', `connectivity needs at least 2 epochs (phase locking is measured across epochs); ${used.length} is left after screening`, '/recipe/epoching');
+    return { result: connectivity(signal, resolved as ResolvedRecipe<ConnectivityRecipe>, used, base), attachments: [] };
+  }
 
   const setup: ChannelSetup = {
     recipe,
@@ -106,7 +98,13 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
   });
   const [lo, hi] = derived.frequencyRange;
   const keep = Array.from(r.frequencies.keys()).filter((k) => r.frequencies[k]! >= lo && r.frequencies[k]! <= hi);
-  const pick = (v: Float64Array) => keep.map((k) => (Number.isFinite(v[k]!) ? v[k]! : null));
+  // 0/0 (a flat channel) is undefined: null in the record, never rounding noise and never NaN.
+  const finite = (x: number | undefined) => (x !== undefined && Number.isFinite(x) ? x : null);
+  const pick = (v: Float64Array) => keep.map((k) => finite(v[k]));
+  const warnings = [...base.warnings];
+  for (const c of r.flatChannels) {
+    warnings.push(`channel ${signal.channels[c]} is flat (${recipe.detrend === 'none' ? 'zero' : 'constant'}) in every analysed segment: its coherence, imaginary coherency and phase locking are undefined (0/0) and reported as null`);
+  }
   return {
     units: { coherence: '1', frequency: 'Hz' },
     frequencies: keep.map((k) => r.frequencies[k]!),
@@ -117,7 +115,7 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
       segmentCount: r.segmentCount,
       taperCount: r.taperCount,
       effectiveSegments: r.effectiveSegments,
-      // Under independence E[MSC] ≈ 1/n and the level-α threshold is 1 − α^{1/(n−1)} (Carter et al. 1973; REFERENCES.md §7).
+      // Under independence E[MSC] ≈ 1/n and the level-α threshold is 1 − α^{1/(n−1)} (Carter et al. 1973; docs/references.md §7).
       coherenceBias: r.coherenceBias,
       coherenceThreshold: r.coherenceThreshold,
       alpha: r.alpha,
@@ -127,9 +125,10 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
         coherence: pick(r.coherence[p]!),
         imaginaryCoherency: pick(r.imaginaryCoherency[p]!),
         ...(r.phaseLocking ? { phaseLocking: pick(r.phaseLocking[p]!) } : {}),
-        bands: r.bands.map((band) => ({ name: band.name, low: band.low, high: band.high, bins: band.binCount, coherence: band.coherence[p] ?? null, imaginaryCoherency: band.imaginaryCoherency[p] ?? null, phaseLocking: band.phaseLocking?.[p] ?? null })),
+        bands: r.bands.map((band) => ({ name: band.name, low: band.low, high: band.high, bins: band.binCount, coherence: finite(band.coherence[p]), imaginaryCoherency: finite(band.imaginaryCoherency[p]), phaseLocking: finite(band.phaseLocking?.[p]) })),
       })),
     },
     ...base,
+    warnings,
   };
 }

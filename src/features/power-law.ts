@@ -30,8 +30,11 @@ export interface PowerLawFit {
 
 // Bisquare tuning constant: 95 % Gaussian efficiency (common practice in robust regression).
 const BISQUARE = 4.685;
-// 1/Φ⁻¹(3/4): makes the median absolute deviation a consistent scale for Gaussian residuals.
+// 1/Φ⁻¹(3/4): makes the median absolute residual a consistent scale for Gaussian residuals.
 const MAD_SCALE = 1.482602218505602;
+// With the scale at 1.4826·median|r|, every bin below the median residual keeps a weight, so at least
+// half of the bins always count; a line resting on fewer than two thirds of them is reported.
+const MIN_INLIER_FRACTION = 2 / 3;
 
 function median(values: Float64Array): number {
   const sorted = values.slice().sort();
@@ -95,13 +98,15 @@ export function fitPowerLaw(frequencies: Float64Array, psd: Float64Array, option
   const w = new Float64Array(n).fill(1);
   let line = weightedLine(x, y, w)!;
   const residual = new Float64Array(n);
+  let collapsed = false;
   if (robust) {
     for (let iteration = 0; iteration < maxIterations; iteration++) {
       for (let i = 0; i < n; i++) residual[i] = y[i]! - line.intercept - line.slope * x[i]!;
-      const centre = median(residual);
-      const deviations = residual.map((r) => Math.abs(r - centre));
-      // A floor keeps an exact power law (zero MAD) from turning rounding noise into outliers.
-      const scale = Math.max(MAD_SCALE * median(deviations), 1e-9);
+      // The scale is taken about zero, like the residuals the weights divide. Taken about the median
+      // residual instead, a line lifted evenly by one peak (every other residual the same offset)
+      // has a near-zero scale, and every bin, the offset ones included, was weighted to zero.
+      // A floor keeps an exact power law (zero residuals) from turning rounding noise into outliers.
+      const scale = Math.max(MAD_SCALE * median(residual.map(Math.abs)), 1e-9);
       let change = 0;
       for (let i = 0; i < n; i++) {
         const u = residual[i]! / (BISQUARE * scale);
@@ -110,7 +115,10 @@ export function fitPowerLaw(frequencies: Float64Array, psd: Float64Array, option
         w[i] = weight;
       }
       const next = weightedLine(x, y, w);
-      if (next === null) break;
+      if (next === null) {
+        collapsed = true;
+        break;
+      }
       line = next;
       if (change < 1e-10) break;
     }
@@ -123,6 +131,11 @@ export function fitPowerLaw(frequencies: Float64Array, psd: Float64Array, option
     ssRes += r * r;
     ssTot += (y[i]! - meanY) ** 2;
     if (w[i]! > 0) inliers++;
+  }
+  if (collapsed) {
+    warnings.push('the robust power-law fit weighted too few bins to draw a line; the line is the last one it could draw');
+  } else if (robust && inliers < MIN_INLIER_FRACTION * n) {
+    warnings.push(`the robust power-law fit kept only ${inliers} of ${n} bins (fewer than two thirds): the spectrum is far from a power law in [${options.range[0]}, ${options.range[1]}] Hz`);
   }
   return {
     intercept: line.intercept,

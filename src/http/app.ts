@@ -21,6 +21,7 @@ import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
+import { tableRoutes } from './routes/tables.js';
 
 export interface AppDeps {
   config: Readonly<Config>;
@@ -93,7 +94,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
       maxAge: 600,
     });
   }
-  registerAuth(app, deps.config.apiKeys);
+  registerAuth(app, { keys: deps.config.apiKeys, metricsTokenSha256: deps.config.metricsTokenSha256, failuresPerMinute: deps.config.authFailuresPerMinute });
   if (deps.config.rateLimitPerMinute > 0) {
     await app.register(rateLimit, {
       max: deps.config.rateLimitPerMinute,
@@ -133,6 +134,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(signalRoutes(deps));
   await app.register(recipeRoutes(deps));
   await app.register(jobRoutes(deps));
+  await app.register(tableRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
   await app.ready();

@@ -19,11 +19,27 @@ export function problemResponse(description: string) {
   return { description, content: { 'application/problem+json': { schema: ProblemSchema } } };
 }
 
-const EventSchema = z.strictObject({
+export const EventSchema = z.strictObject({
   onset: z.number().describe('seconds from the start'),
   duration: z.number().min(0).nullable().describe('seconds, or null for a marker'),
   label: z.string().min(1).max(200),
 });
+
+/** Events of a signal, as every upload form takes them. */
+export const EventListSchema = z.array(EventSchema).max(100_000);
+
+/** A binary upload's events: the same list as in a JSON upload, as JSON text in one query parameter. */
+const EventsQuery = z
+  .string()
+  .transform((text, ctx) => {
+    try {
+      return JSON.parse(text) as unknown;
+    } catch (error) {
+      ctx.addIssue({ code: 'custom', message: `events must be a JSON array of {onset, duration, label}: ${(error as Error).message}` });
+      return z.NEVER;
+    }
+  })
+  .pipe(EventListSchema);
 
 const SampleRows = z.array(z.array(z.number().nullable()));
 
@@ -32,10 +48,11 @@ export const SignalUploadSchema = z
   .strictObject({
     samplingRate: z.number().positive().describe('Hz'),
     channels: z.array(z.string()).min(1).describe('channel names, e.g. 10–20 labels'),
-    unit: z.string().min(1).max(32).optional().describe('physical unit of the samples; default uV'),
+    unit: z.string().min(1).max(32).optional().describe('physical unit of the samples: nV, uV (µV), mV or V, stored as uV; any other unit needs "voltage": false; default uV'),
+    voltage: z.boolean().optional().describe('false when the samples are not a voltage: the unit is then kept as given and nothing is converted; default true'),
     data: SampleRows.optional().describe('continuous chunk, channel × sample'),
     epochs: z.array(SampleRows).optional().describe('epoch × channel × sample'),
-    events: z.array(EventSchema).max(100_000).optional(),
+    events: EventListSchema.optional(),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('null samples: refuse (default) or keep as gaps'),
   })
   .meta({ id: 'SignalUpload' });
@@ -58,8 +75,10 @@ export const BinaryUploadQuery = z.strictObject({
     .describe('comma-separated channel names'),
   epochCount: z.coerce.number().int().min(1).default(1),
   unit: z.string().min(1).max(32).optional(),
+  voltage: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
   nonFinite: z.enum(['reject', 'keep']).optional(),
   format: z.literal('float32').optional().describe('binary layout; float32 little-endian [epoch][channel][sample]'),
+  events: EventsQuery.optional(),
 });
 
 /** Query of an EDF/EDF+ upload: optional selection of channels (by label) or of one sampling rate. */
@@ -80,8 +99,13 @@ export const UploadQueryDoc = z
     samplingRate: z.coerce.number().positive().optional().describe('float32: Hz (required); edf: select the signals of this rate'),
     channels: z.string().optional().describe('float32: comma-separated names (required); edf: labels to keep'),
     epochCount: z.coerce.number().int().min(1).optional().describe('float32: epochs in the body, default 1'),
-    unit: z.string().optional().describe('float32: physical unit, default uV'),
+    unit: z.string().optional().describe('float32: nV, uV (µV), mV or V, stored as uV; any other unit needs voltage=false; default uV'),
+    voltage: z.enum(['true', 'false']).optional().describe('float32: false when the samples are not a voltage; default true'),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('float32: NaN/±Inf samples refused (default) or kept as gaps'),
+    events: z
+      .string()
+      .optional()
+      .describe('float32: the events as a URL-encoded JSON array [{"onset": s, "duration": s or null, "label": "…"}], as in a JSON upload (EDF+ files bring theirs as annotations); for lists too long for a URL, start a resumable upload with `events` in its body'),
   })
   .describe('describes a binary (application/octet-stream) body');
 
@@ -98,6 +122,7 @@ export const SignalInfoSchema = z
     events: z.array(EventSchema),
     bytes: z.number().int(),
     storedAt: z.string(),
+    warnings: z.array(z.string()).optional().describe('what the upload checks noticed but let through, e.g. an amplitude far outside the EEG range for the unit'),
   })
   .meta({ id: 'SignalInfo' });
 
@@ -126,7 +151,9 @@ const importFields = {
   samplingRate: z.number().positive().optional().describe('float32: Hz (required); edf: keep the signals of this rate'),
   channels: z.array(z.string().min(1)).min(1).max(1024).optional().describe('float32: names (required); edf: labels to keep'),
   epochCount: z.number().int().min(1).optional().describe('float32 only; default 1'),
-  unit: z.string().min(1).max(32).optional().describe('float32 only; default uV'),
+  unit: z.string().min(1).max(32).optional().describe('float32 only: nV, uV (µV), mV or V, stored as uV; default uV'),
+  voltage: z.boolean().optional().describe('float32 only: false when the samples are not a voltage (the unit is kept as given)'),
+  events: EventListSchema.optional().describe('float32 only: events, as in a JSON upload'),
 };
 
 export const ImportSourceSchema = z

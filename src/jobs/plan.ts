@@ -30,7 +30,7 @@ export function planJob(limits: RecipeLimits, meta: SignalMeta, pinned: PinnedRe
   const shape = locatedUnder('/signal', () => viewedShape(meta, view));
   const resolved = locatedUnder('/recipe', () => resolveRecipe(pinned.recipe, pinned.hash, shape, limits));
   if (meta.nonFiniteSamples > 0 && pinned.recipe.nonFinite === 'reject') {
-    throw new DomainError('non-finite', `signal ${meta.id} holds ${meta.nonFiniteSamples} non-finite sample(s); set the recipe's "nonFinite": "skip-epoch" to leave those epochs out`, {
+    throw new DomainError('non-finite', `signal ${meta.id} holds ${meta.nonFiniteSamples} non-finite sample(s); set the recipe's "nonFinite": "skip-epoch" to leave those epochs out, or "bad-span" to leave out only what overlaps the gaps`, {
       pointer: '/recipe/nonFinite',
     });
   }

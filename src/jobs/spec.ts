@@ -2,7 +2,7 @@ import { hashCanonical, sha256Hex } from '../common/hash.js';
 import type { ResolvedRecipe, SignalShape } from '../recipes/resolve.js';
 import type { Problem } from '../common/errors.js';
 import { resolveView } from '../signals/view.js';
-import type { SignalDescription } from '../signals/signal.js';
+import type { SignalDescription, SignalEvent } from '../signals/signal.js';
 import { ENGINE_VERSION } from '../engine/version.js';
 import type { Recipe } from '../recipes/schema.js';
 import type { SignalView } from '../signals/view.js';
@@ -59,10 +59,11 @@ export function recordKeyOf(tenant: string, sha256: string, recipeHash: string, 
 }
 
 /** What the recipe is resolved against: the signal as the view leaves it. */
-export function viewedShape(meta: SignalDescription, view: SignalView | null): SignalShape {
-  if (!view) return meta;
+export function viewedShape(meta: SignalDescription & { events?: SignalEvent[] | undefined }, view: SignalView | null): SignalShape {
+  const events = meta.events ? { events: meta.events } : {};
+  if (!view) return { samplingRate: meta.samplingRate, epochCount: meta.epochCount, samplesPerEpoch: meta.samplesPerEpoch, channels: meta.channels, ...events };
   const resolved = resolveView(meta, view);
-  return { samplingRate: meta.samplingRate, epochCount: meta.epochCount, samplesPerEpoch: resolved.endSample - resolved.startSample, channels: meta.channels };
+  return { samplingRate: meta.samplingRate, epochCount: meta.epochCount, samplesPerEpoch: resolved.endSample - resolved.startSample, channels: meta.channels, ...events };
 }
 
 /** Job ids follow from the record key (which names the tenant), so an identical submission finds the existing job. */

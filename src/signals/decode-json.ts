@@ -1,6 +1,7 @@
 import { SignalInputError } from './errors.js';
 import type { SignalLimits } from './limits.js';
 import type { Signal, SignalEvent } from './signal.js';
+import { resolveUploadUnit, shiftDecimal } from './units.js';
 import { checkSignalShape } from './validate.js';
 
 /** The JSON upload body, already shape-checked by the HTTP schema (types only). */
@@ -8,6 +9,8 @@ export interface JsonSignalBody {
   samplingRate: number;
   channels: string[];
   unit?: string | undefined;
+  /** false when the samples are not a voltage; voltages are stored in µV */
+  voltage?: boolean | undefined;
   data?: (number | null)[][] | undefined;
   epochs?: (number | null)[][][] | undefined;
   events?: SignalEvent[] | undefined;
@@ -38,6 +41,7 @@ export function decodeJsonSignal(body: JsonSignalBody, limits: SignalLimits): Si
     limits,
     { samplingRate: '/samplingRate', channels: '/channels', samples: pointer(0, 0) },
   );
+  const { unit, exponent } = resolveUploadUnit(body.unit, body.voltage, '/unit');
   const keep = body.nonFinite === 'keep';
   const data = new Float64Array(epochs.length * channelCount * samplesPerEpoch);
   let offset = 0;
@@ -54,7 +58,8 @@ export function decodeJsonSignal(body: JsonSignalBody, limits: SignalLimits): Si
           }
           data[offset++] = Number.NaN;
         } else {
-          data[offset++] = v;
+          // On the decimal digits, so 0.00001234 V and 12.34 µV give the same double (and the same id).
+          data[offset++] = exponent === 0 ? v : shiftDecimal(v, exponent);
         }
       }
     });
@@ -62,7 +67,7 @@ export function decodeJsonSignal(body: JsonSignalBody, limits: SignalLimits): Si
   const signal: Signal = {
     samplingRate: body.samplingRate,
     channels: [...body.channels],
-    unit: body.unit ?? 'uV',
+    unit,
     epochCount: epochs.length,
     samplesPerEpoch,
     data,

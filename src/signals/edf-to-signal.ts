@@ -2,7 +2,7 @@ import { ANNOTATION_LABEL, EdfFormatError, decodeEdfRecords, parseEdf, type EdfF
 import { SignalInputError } from './errors.js';
 import type { SignalLimits } from './limits.js';
 import type { Signal, SignalEvent } from './signal.js';
-import { voltageScaleToMicrovolts } from './units.js';
+import { shiftDecimal, voltageScaleToMicrovolts } from './units.js';
 import { checkSignalShape } from './validate.js';
 
 export interface EdfUploadOptions {
@@ -262,10 +262,4 @@ export function planEdfSignal(header: EdfHeader, options: EdfUploadOptions, limi
     samplingRate: chosen[0]!.samplingRate,
     samplesPerEpoch,
   };
-}
-
-/** value·10^exponent computed on the decimal digits, exactly as if the field had been written in the new unit. */
-function shiftDecimal(value: number, exponent: number): number {
-  const [mantissa, power = '0'] = String(value).split('e');
-  return Number(`${mantissa}e${Number(power) + exponent}`);
 }

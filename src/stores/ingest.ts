@@ -7,11 +7,12 @@ import { discontinuityError, formatError, planEdfSignal } from '../signals/edf-t
 import { SignalInputError } from '../signals/errors.js';
 import type { SignalLimits } from '../signals/limits.js';
 import type { SignalEvent } from '../signals/signal.js';
+import { AmplitudeSurvey, resolveUploadUnit } from '../signals/units.js';
 import { checkSignalShape } from '../signals/validate.js';
 import { withStorageReservation, type SignalMeta, type Store } from './store.js';
 
 export type IngestDescription =
-  | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; nonFinite?: 'reject' | 'keep' | undefined }
+  | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; voltage?: boolean | undefined; nonFinite?: 'reject' | 'keep' | undefined; events?: SignalEvent[] | undefined }
   | { format: 'edf'; channels?: string[] | undefined; samplingRate?: number | undefined };
 
 export interface IngestOptions {
@@ -53,6 +54,7 @@ export async function ingestFile(store: Store, raw: string | RawFile, descriptio
       events: decoded.description.events ?? [],
       bytes,
       storedAt: new Date().toISOString(),
+      warnings: decoded.warnings,
     };
     await withStorageReservation(store, bytes, options.maxStoreBytes, () => store.putSignalFile(meta, out));
     return meta;
@@ -71,6 +73,7 @@ export interface RawFile {
 interface Decoded {
   description: { samplingRate: number; channels: string[]; unit: string; epochCount: number; samplesPerEpoch: number; events?: SignalEvent[] };
   nonFinite: number;
+  warnings: string[];
   /** SHA-256 of the float64 samples when the decoder wrote them in order */
   samplesSha256?: string;
 }
@@ -86,6 +89,11 @@ async function decodeFloat32File(input: FileHandle, size: number, out: string, d
     channels: '/query/channels',
     samples: '/body',
   });
+  const { unit, exponent } = resolveUploadUnit(d.unit, d.voltage, '/query/unit');
+  // float32 values are exact in float64; one multiplication (or, for nV, one division by 1000 — 1e-3
+  // is not exact) takes each to µV with a single rounding.
+  const factor = 10 ** Math.abs(exponent);
+  const survey = new AmplitudeSurvey(d.channels);
   const keep = d.nonFinite === 'keep';
   let nonFinite = 0;
   const hash = createHash('sha256');
@@ -111,8 +119,9 @@ async function decodeFloat32File(input: FileHandle, size: number, out: string, d
           }
           nonFinite++;
         }
-        wide[i] = v;
+        wide[i] = exponent === 0 ? v : exponent > 0 ? v * factor : v / factor;
       }
+      surveyChunk(survey, wide.subarray(0, count), index - count, samplesPerEpoch);
       const bytes = new Uint8Array(wide.buffer, 0, count * 8);
       hash.update(bytes);
       await writeAll(output, bytes, position * 2);
@@ -121,7 +130,25 @@ async function decodeFloat32File(input: FileHandle, size: number, out: string, d
   } finally {
     await output.close();
   }
-  return { description: { samplingRate: d.samplingRate, channels: [...d.channels], unit: d.unit ?? 'uV', epochCount: d.epochCount, samplesPerEpoch }, nonFinite, samplesSha256: hash.digest('hex') };
+  // Events as a JSON upload has them: kept only when there are some, so the content hash is the same.
+  const events = d.events && d.events.length > 0 ? { events: d.events.map((ev) => ({ ...ev })) } : {};
+  return {
+    description: { samplingRate: d.samplingRate, channels: [...d.channels], unit, epochCount: d.epochCount, samplesPerEpoch, ...events },
+    nonFinite,
+    warnings: survey.warnings(unit),
+    samplesSha256: hash.digest('hex'),
+  };
+}
+
+/** Adds samples stored in [epoch][channel][sample] order, starting at sample index `first`, to the survey. */
+function surveyChunk(survey: AmplitudeSurvey, samples: Float64Array, first: number, samplesPerEpoch: number): void {
+  const channels = survey.channels.length;
+  for (let at = 0; at < samples.length; ) {
+    const row = Math.floor((first + at) / samplesPerEpoch);
+    const end = Math.min(samples.length, (row + 1) * samplesPerEpoch - first);
+    survey.add(row % channels, samples.subarray(at, end));
+    at = end;
+  }
 }
 
 async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Extract<IngestDescription, { format: 'edf' }>, limits: SignalLimits): Promise<Decoded> {
@@ -143,6 +170,7 @@ async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Ex
     let firstStart: number | null = null;
     let previousStart: number | undefined;
     const gaps: EdfGap[] = [];
+    const survey = new AmplitudeSurvey(plan.channels);
     const buffer = Buffer.alloc(batch * header.recordBytes);
     for (let r0 = 0; r0 < header.recordCount; r0 += batch) {
       const r1 = Math.min(header.recordCount, r0 + batch);
@@ -169,6 +197,7 @@ async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Ex
       for (const a of records.annotations) events.push({ onset: a.onset, duration: a.duration, label: a.label });
       for (let c = 0; c < records.signals.length; c++) {
         const samples = records.signals[c]!.samples;
+        survey.add(c, samples);
         await writeAll(output, new Uint8Array(samples.buffer, samples.byteOffset, samples.byteLength), (c * plan.samplesPerEpoch + r0 * perRecord) * 8);
       }
     }
@@ -178,6 +207,7 @@ async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Ex
     return {
       description: { samplingRate: plan.samplingRate, channels: plan.channels, unit: plan.unit, epochCount: 1, samplesPerEpoch: plan.samplesPerEpoch, ...(shifted.length ? { events: shifted } : {}) },
       nonFinite: 0,
+      warnings: survey.warnings(plan.unit),
     };
   } finally {
     await output.close();

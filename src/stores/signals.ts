@@ -1,6 +1,7 @@
 import { DomainError } from '../common/errors.js';
 import { sampleBytes, signalIdFromHash, signalSha256 } from '../signals/content-hash.js';
 import { findNonFinite, type Signal } from '../signals/signal.js';
+import { amplitudeWarnings } from '../signals/units.js';
 import { withStorageReservation, type SignalMeta, type Store } from './store.js';
 
 /** Stores a decoded signal under its content hash; storing the same content again is a no-op. */
@@ -22,6 +23,7 @@ export async function storeSignal(store: Store, signal: Signal, tenant: string, 
     events: signal.events ?? [],
     bytes: signal.data.byteLength,
     storedAt: new Date().toISOString(),
+    warnings: amplitudeWarnings(signal),
   };
   await withStorageReservation(store, meta.bytes, maxStoreBytes, () => store.putSignal(meta, sampleBytes(signal.data)));
   return meta;

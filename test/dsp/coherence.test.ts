@@ -32,8 +32,44 @@ describe('crossSpectralConnectivity', () => {
     });
   });
 
+  describe('when a channel is flat', () => {
+    // scipy.signal.coherence gives NaN at every frequency for a constant input (0/0; computed with
+    // scipy 1.10, docs/references.md §7). The paired real FFT must not lend the flat channel rounding
+    // noise from its partner: before the fix such a pair showed coherence up to 0.83.
+    const random = createRandom(7);
+    const live = noise(2048, random), other = noise(2048, random);
+    const constant = new Float64Array(2048).fill(3.1), zero = new Float64Array(2048);
+    const options: ConnectivityOptions = { samplingRate: 256, segmentSamples: 256, overlapSamples: 128, window: 'hann', detrend: 'mean' };
+
+    it('should give NaN coherence, imaginary coherency and phase locking for every pair it is in', () => {
+      const epochs = [0, 1, 2].map((e) => [live.subarray(e * 512, e * 512 + 1024), constant.subarray(0, 1024), other.subarray(e * 512, e * 512 + 1024)]);
+      const r = crossSpectralConnectivity(epochs, { ...options, bands: [{ name: 'alpha', low: 8, high: 13 }] });
+      expect(r.flatChannels).toEqual([1]);
+      for (const p of [0, 2]) {
+        expect(r.pairs[p]).toContain(1);
+        expect(Array.from(r.coherence[p]!).every(Number.isNaN)).toBe(true);
+        expect(Array.from(r.imaginaryCoherency[p]!).every(Number.isNaN)).toBe(true);
+        expect(Array.from(r.phaseLocking![p]!).every(Number.isNaN)).toBe(true);
+        expect(Number.isNaN(r.bands[0]!.coherence[p]!)).toBe(true);
+      }
+      // the live pair is untouched by its flat neighbour: the same as computed without it, to rounding
+      const alone = crossSpectralConnectivity(epochs.map(([a, , b]) => [a!, b!]), options);
+      expect(worstRelativeError(r.coherence[1]!, alone.coherence[0]!, 1e-12)).toBeLessThan(1e-12);
+    });
+
+    it('should treat an all-zero channel without detrending as flat, and a constant one as live', () => {
+      const zeros = crossSpectralConnectivity([[live.subarray(0, 1024), zero.subarray(0, 1024)]], { ...options, detrend: 'none' });
+      expect(zeros.flatChannels).toEqual([1]);
+      expect(Array.from(zeros.coherence[0]!).every(Number.isNaN)).toBe(true);
+      // a constant of 3.1 without detrending has real power at the lowest bins: it is a signal
+      const offset = crossSpectralConnectivity([[live.subarray(0, 1024), constant.subarray(0, 1024)]], { ...options, detrend: 'none' });
+      expect(offset.flatChannels).toEqual([]);
+      expect(Number.isFinite(offset.coherence[0]![0]!)).toBe(true);
+    });
+  });
+
   describe('when the channels are independent white noise (seeded Monte Carlo)', () => {
-    it('should average to 1/n and exceed 1 − α^{1/(n−1)} in about α of bins (16 non-overlapped segments; REFERENCES.md §7: 0.0625 and 0.181036)', () => {
+    it('should average to 1/n and exceed 1 − α^{1/(n−1)} in about α of bins (16 non-overlapped segments; docs/references.md §7: 0.0625 and 0.181036)', () => {
       const random = createRandom(16);
       const values: number[] = [];
       let result;
@@ -64,7 +100,7 @@ describe('crossSpectralConnectivity', () => {
         });
         for (let k = 1; k < 64; k++) { sum += result.coherence[0]![k]!; count++; }
       }
-      // ν = 36·16²/(19·16 − 1) = 30.416 (REFERENCES.md §2), n_eff = ν/2 = 15.21; REFERENCES §7 reports a
+      // ν = 36·16²/(19·16 − 1) = 30.416 (docs/references.md §2), n_eff = ν/2 = 15.21; docs/references.md §7 reports a
       // Monte Carlo mean of 0.0647 for this case (informative, no closed form)
       expect(result!.segmentCount).toBe(16);
       expect(result!.effectiveSegments).toBeCloseTo((36 * 256) / (19 * 16 - 1) / 2, 9);

@@ -48,7 +48,7 @@ const medianFixture = JSON.parse(readFileSync(new URL('../fixtures/multitaper/we
 describe('welchDegreesOfFreedom', () => {
   describe('when the window is Hann with 50 % overlap', () => {
     const hann = makeWindow('hann', 256);
-    // REFERENCES.md §2 table (COMPUTED from Percival & Walden 292b): ν = 36N_B²/(19N_B − 1).
+    // docs/references.md §2 table (COMPUTED from Percival & Walden 292b): ν = 36N_B²/(19N_B − 1).
     const table: Array<[number, number]> = [[1, 2], [2, 3.891892], [5, 9.574468], [9, 17.152941], [20, 37.994723], [100, 189.5734]];
     for (const [segments, tabulated] of table) {
       it(`should give 36N_B²/(19N_B − 1) to 1e-9 and the table value at its precision for N_B = ${segments}`, () => {
@@ -64,7 +64,7 @@ describe('welchDegreesOfFreedom', () => {
     it('should give exactly 2N_B without overlap (independent χ²₂ periodograms, common practice)', () => {
       expect(welchDegreesOfFreedom(boxcar, 0, 7)).toBe(14);
     });
-    it('should approach (4/3)·N_B with 50 % overlap (asymptotic factor, REFERENCES.md §2)', () => {
+    it('should approach (4/3)·N_B with 50 % overlap (asymptotic factor, docs/references.md §2)', () => {
       expect(Math.abs(welchDegreesOfFreedom(boxcar, 50, 20000) / 20000 - 4 / 3)).toBeLessThan(1e-4);
     });
   });
@@ -121,7 +121,7 @@ describe('perBinDegreesOfFreedom', () => {
 });
 
 describe('confidenceInterval', () => {
-  describe('when compared with the 95 % multipliers of REFERENCES.md §2 (scipy.stats.chi2.ppf, NIST tables)', () => {
+  describe('when compared with the 95 % multipliers of docs/references.md §2 (scipy.stats.chi2.ppf, NIST tables)', () => {
     const table: Array<[number, number, number]> = [[2, 0.27109, 39.4979], [10, 0.48821, 3.07979], [20, 0.58532, 2.08534]];
     for (const [nu, low, high] of table) {
       it(`should multiply the estimate by [${low}, ${high}] for ν = ${nu} (5 significant digits)`, () => {
@@ -169,7 +169,7 @@ describe('when white Gaussian noise is analysed (seeded Monte Carlo)', () => {
     }));
     expect(Math.abs(c - 0.95)).toBeLessThan(0.01);
   });
-  it('should give an unbiased adaptive multitaper estimate with mean ν close to 2K (REFERENCES.md §3: 0.993 and 13.98)', () => {
+  it('should give an unbiased adaptive multitaper estimate with mean ν close to 2K (docs/references.md §3: 0.993 and 13.98)', () => {
     let level = 0, nu = 0, count = 0, maxIterations = 0;
     for (let e = 0; e < 100; e++) {
       const r = multitaper(gaussianNoise(512, 5000 + e), { samplingRate: 1, timeBandwidth: 4, taperCount: 7, weighting: 'adaptive', detrend: 'none' });

@@ -49,7 +49,7 @@ describe('dpss', () => {
     }
   });
 
-  describe('when checked against the published tables of REFERENCES.md §3', () => {
+  describe('when checked against the published tables of docs/references.md §3', () => {
     it('should give the N=512, NW=4 concentrations to 1e-9 (scipy, cross-checked with the sinc-matrix eigenvalues)', () => {
       const expected = [0.999999999706, 0.999999972367, 0.999998791537, 0.999967587809, 0.999410494316, 0.992507721917, 0.936664934733, 0.698848768034];
       const { concentrations } = dpss(512, 4, 8);

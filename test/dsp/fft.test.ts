@@ -176,7 +176,7 @@ describe('complexFftPlan', () => {
     });
   });
 
-  describe('when given the worked examples of REFERENCES.md §8', () => {
+  describe('when given the worked examples of docs/references.md §8', () => {
     it('should map [0, 1, 2, 3] to [6, −2+2j, −2, −2−2j] (computed by hand and numpy)', () => {
       const re = Float64Array.from([0, 1, 2, 3]), im = new Float64Array(4);
       complexFftPlan(4).transform(re, im);
@@ -223,7 +223,7 @@ describe('complexFftPlan', () => {
       }), { seed: 1, numRuns: 150 });
     });
 
-    it('should satisfy Parseval: Σ|x|² = (1/N)·Σ|X|² (numpy.fft convention, REFERENCES.md §4)', () => {
+    it('should satisfy Parseval: Σ|x|² = (1/N)·Σ|X|² (numpy.fft convention, docs/references.md §4)', () => {
       fc.assert(fc.property(signal, ([x, y]) => {
         const n = x.length;
         let energy = 0;

@@ -63,7 +63,7 @@ function column(field: Float64Array, F: number, j: number): Float64Array {
 }
 
 describe('morletWavelet', () => {
-  describe('when its spreads are measured (REFERENCES.md §7, f = 10 Hz, n_c = 7, COMPUTED values)', () => {
+  describe('when its spreads are measured (docs/references.md §7, f = 10 Hz, n_c = 7, COMPUTED values)', () => {
     const fs = 1000;
     const w = morletWavelet(10, 7, fs);
 

@@ -48,7 +48,7 @@ describe('multitaper', () => {
   }
 
   describe('when equal weighting integrates over frequency', () => {
-    it('should equal the tapered mean square (1/K)·Σ_k Σ_t (h_k·y)² exactly (Parseval, REFERENCES.md §4) to 1e-12', () => {
+    it('should equal the tapered mean square (1/K)·Σ_k Σ_t (h_k·y)² exactly (Parseval, docs/references.md §4) to 1e-12', () => {
       const c = fixture.cases[0]!;
       const x = Float64Array.from(c.signal);
       for (const fftLength of [500, 777, 2048]) {

@@ -30,7 +30,7 @@ describe('periodogram', () => {
   });
 
   describe('when the window is rectangular and nothing is detrended', () => {
-    it('should integrate exactly to the mean square (Parseval, REFERENCES.md §4) to 1e-12', () => {
+    it('should integrate exactly to the mean square (Parseval, docs/references.md §4) to 1e-12', () => {
       for (const fftLength of [400, 401, 1000]) {
         const r = periodogram(x, { samplingRate: 200, fftLength, detrend: 'none' });
         const integral = r.psd.reduce((s, v) => s + v, 0) * (200 / fftLength);
@@ -46,7 +46,7 @@ describe('periodogram', () => {
     });
   });
 
-  describe('when an A = 2 sinusoid sits on a bin centre with a Hann window (REFERENCES.md §4)', () => {
+  describe('when an A = 2 sinusoid sits on a bin centre with a Hann window (docs/references.md §4)', () => {
     it('should give a density peak of (A²/2)/(1.5·Δf) and A²/2 over the peak bin ± 1', () => {
       const n = 256, fs = 256;
       const tone = Float64Array.from({ length: n }, (_, t) => 2 * Math.sin((2 * Math.PI * 32 * t) / n));

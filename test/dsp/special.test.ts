@@ -47,7 +47,7 @@ describe('chiSquareCdf', () => {
 });
 
 describe('chiSquareQuantile', () => {
-  describe('when compared with the 95 % table values of REFERENCES.md §2', () => {
+  describe('when compared with the 95 % table values of docs/references.md §2', () => {
     // scipy.stats.chi2.ppf, matching NIST/SEMATECH e-Handbook §1.3.6.7.4 and textbook tables at their precision.
     const table: Array<[number, number, number]> = [
       [2, 0.0506356, 7.3777589],

@@ -79,7 +79,7 @@ describe('welch', () => {
     });
   });
 
-  describe('when checking Parseval (REFERENCES.md §4, mathematics)', () => {
+  describe('when checking Parseval (docs/references.md §4, mathematics)', () => {
     it('should integrate to the mean square exactly for a rectangular window without detrend', () => {
       // one segment covering the record, so Σ psd·Δf = (1/N)·Σx² by the DFT Parseval identity
       const x = normals(1000, 7);
@@ -125,7 +125,7 @@ describe('welch', () => {
     });
 
     it('should integrate Hann/50 % white noise to the variance within 1 % (in expectation)', () => {
-      // REFERENCES.md §4 saw 0.3 % for the white-noise Welch/Hann integral; 1 % leaves room for this seed
+      // docs/references.md §4 saw 0.3 % for the white-noise Welch/Hann integral; 1 % leaves room for this seed
       const x = normals(256 * 400, 11);
       const r = welch(x, options());
       let integral = 0;
@@ -134,7 +134,7 @@ describe('welch', () => {
     });
   });
 
-  describe('when the input is a sinusoid on a bin centre (REFERENCES.md §4)', () => {
+  describe('when the input is a sinusoid on a bin centre (docs/references.md §4)', () => {
     it('should put A²/2 = 2 over the peak bin ±1 with Hann, and a peak of (A²/2)/(1.5·Δf)', () => {
       const fs = 256, n = 256, f0 = 32, amplitude = 2;
       const x = new Float64Array(n * 8).map((_, i) => amplitude * Math.sin((2 * Math.PI * f0 * i) / fs + 0.3));

@@ -14,7 +14,7 @@ function symmetric(name: WindowName, length: number): Float64Array {
   return w;
 }
 
-// Harris (1978) coefficients as listed in REFERENCES.md §1; ENBW closed form (a0² + ½Σa_k²)/a0²
+// Harris (1978) coefficients as listed in docs/references.md §1; ENBW closed form (a0² + ½Σa_k²)/a0²
 const COSINE_SUMS: [WindowName, number[]][] = [
   ['hann', [0.5, 0.5]],
   ['hamming', [0.54, 0.46]],
@@ -73,7 +73,7 @@ describe('makeWindow', () => {
 });
 
 describe('windowFigures', () => {
-  describe('when compared with the closed forms of Harris (1978) (REFERENCES.md §1, COMPUTED)', () => {
+  describe('when compared with the closed forms of Harris (1978) (docs/references.md §1, COMPUTED)', () => {
     it.each(COSINE_SUMS)('should give CG = a0 and the ENBW closed form for %s at N = 4096 to 1e-9', (name, a) => {
       const f = windowFigures(makeWindow(name, 4096));
       const closedEnbw = (a[0]! ** 2 + 0.5 * a.slice(1).reduce((s, v) => s + v * v, 0)) / a[0]! ** 2;
@@ -93,7 +93,7 @@ describe('windowFigures', () => {
     });
 
     it('should match the COMPUTED scallop-loss column at N = 4096 to 1e-3 dB', () => {
-      // REFERENCES.md §1 table: Hamming 1.7514, Blackman 1.0989, Blackman–Harris 0.8256 dB (Harris's printed
+      // docs/references.md §1 table: Hamming 1.7514, Blackman 1.0989, Blackman–Harris 0.8256 dB (Harris's printed
       // Hamming 1.78 is marked ✗ there and is not used)
       const expected: [WindowName, number][] = [['rectangular', 3.9224], ['hann', 1.4236], ['hamming', 1.7514], ['blackman', 1.0989], ['blackman-harris', 0.8256]];
       for (const [name, sl] of expected) expect(Math.abs(windowFigures(makeWindow(name, 4096)).scallopLossDb - sl)).toBeLessThan(1e-3);
@@ -113,13 +113,13 @@ describe('windowFigures', () => {
     });
   });
 
-  describe('when telling symmetric from periodic windows (REFERENCES.md §1)', () => {
+  describe('when telling symmetric from periodic windows (docs/references.md §1)', () => {
     it.each([16, 128, 1000, 1001])('should give exactly 1.5 bins for a periodic Hann and 1.5·N/(N−1) for a symmetric one (N = %i)', (n) => {
       expect(Math.abs(windowFigures(makeWindow('hann', n)).noiseBandwidthBins - 1.5)).toBeLessThan(1e-12);
       expect(Math.abs(windowFigures(symmetric('hann', n)).noiseBandwidthBins - (1.5 * n) / (n - 1))).toBeLessThan(1e-12);
     });
 
-    it('should reproduce the MathWorks enbw reference examples (symmetric windows; READ per REFERENCES.md §1)', () => {
+    it('should reproduce the MathWorks enbw reference examples (symmetric windows; READ per docs/references.md §1)', () => {
       const hz = (w: Float64Array, fs: number): number => (windowFigures(w).noiseBandwidthBins * fs) / w.length;
       expect(windowFigures(symmetric('hamming', 1000)).noiseBandwidthBins).toBeCloseTo(1.3638, 4);
       expect(hz(symmetric('hann', 1000), 10e3)).toBeCloseTo(15.015, 4);

@@ -23,7 +23,7 @@ const white = (seed: number, fs: number, epochs: number, samples: number, sigma 
 };
 
 describe('when the method is a periodogram', () => {
-  it('should give an on-bin tone of amplitude A the power A²/2 in its band (common practice; REFERENCES.md §4)', () => {
+  it('should give an on-bin tone of amplitude A the power A²/2 in its band (common practice; docs/references.md §4)', () => {
     const fs = 200;
     const signal = build(fs, 1, ['Oz'], 400, (_e, _c, i) => 3 * Math.cos((2 * Math.PI * 10 * i) / fs));
     const record = run(signal, { method: 'periodogram', detrend: 'none', bands: [{ name: 'alpha', low: 8, high: 13 }] });
@@ -36,7 +36,7 @@ describe('when the method is multitaper', () => {
   it('should resolve K = 2NW − 1 and W = NW·fs/N, and report 2K degrees of freedom per epoch with equal weights', () => {
     const signal = white(3, 256, 4, 512);
     const record = run(signal, { method: 'multitaper', timeBandwidth: 4, taperWeighting: 'equal', confidence: 0.95 });
-    // K = 2NW − 1 = 7 is the usual choice (REFERENCES.md §3, from memory of Percival & Walden).
+    // K = 2NW − 1 = 7 is the usual choice (docs/references.md §3, from memory of Percival & Walden).
     expect(record.recipe.derived).toMatchObject({ taperCount: 7, halfBandwidth: 2, segmentSamples: 512, fftLength: 512 });
     const channel = record.result.channels[0]!;
     // Equal-weight multitaper: 2K χ² degrees of freedom per epoch; four independent epochs add up.
@@ -46,7 +46,7 @@ describe('when the method is multitaper', () => {
     expect(channel.psdUpper![10]).toBeGreaterThan(channel.psd[10]!);
   });
 
-  it('should integrate white noise to its variance (Parseval, REFERENCES.md §4) within sampling error', () => {
+  it('should integrate white noise to its variance (Parseval, docs/references.md §4) within sampling error', () => {
     const signal = white(4, 256, 20, 512, 2);
     const record = run(signal, { method: 'multitaper', bands: [{ name: 'all', low: 0, high: 128.5 }] });
     // σ² = 4; 20 epochs × 512 samples: the estimate's relative standard error is well below 3 %.
@@ -60,7 +60,7 @@ describe('when the method is multitaper', () => {
 });
 
 describe('when a Welch recipe asks for confidence intervals', () => {
-  it('should report ν = 36N²/(19N − 1) per epoch for Hann at 50 % overlap (Percival & Walden 292b; REFERENCES.md §2)', () => {
+  it('should report ν = 36N²/(19N − 1) per epoch for Hann at 50 % overlap (Percival & Walden 292b; docs/references.md §2)', () => {
     const signal = white(5, 250, 3, 2500);
     const record = run(signal, { method: 'welch', confidence: 0.95 });
     const n = record.recipe.derived.segmentsPerEpoch;
@@ -75,7 +75,7 @@ describe('when features are named in the recipe', () => {
   const fs = 256;
   const random = createRandom(11);
   // White background (σ = 0.5), a 10.25 Hz rhythm of amplitude 4 on a bin (Δf = 0.25 Hz for 4 s
-  // segments) and 50 Hz mains of amplitude 3 on Cz. Hand figures used below (REFERENCES.md §4):
+  // segments) and 50 Hz mains of amplitude 3 on Cz. Hand figures used below (docs/references.md §4):
   // tone peak density (A²/2)/(1.5·Δf) = 8/0.375 ≈ 21 µV²/Hz; noise density 2σ²/fs ≈ 0.00195 µV²/Hz.
   const signal = build(fs, 8, ['O1', 'Cz'], 1024, (_e, c, i) => {
     const t = i / fs;
@@ -160,7 +160,7 @@ describe('when quality flags are asked for', () => {
 describe('when the background is a power law of known exponent', () => {
   it('should recover the slope −β exactly from a sum of on-bin sinusoids with amplitudes f^(−β/2)', () => {
     // Each on-bin sinusoid of amplitude A puts A²/2 into one periodogram bin (common practice;
-    // REFERENCES.md §4), so the PSD is exactly ∝ f^−β at the bins: the fit must return −β.
+    // docs/references.md §4), so the PSD is exactly ∝ f^−β at the bins: the fit must return −β.
     const fs = 128;
     const n = 512;
     const beta = 1.5;

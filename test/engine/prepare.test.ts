@@ -92,7 +92,7 @@ describe('when the recipe cuts epochs around events', () => {
     ]);
     expect(record.result.epoching!.dropped).toEqual([expect.objectContaining({ label: 'eyes-closed', reason: 'out-of-bounds', startSeconds: 59.5 })]);
     const groups = Object.fromEntries(record.result.groups!.map((g) => [g.label, g]));
-    // An on-bin tone of amplitude A has power A²/2 = 8 (common practice; REFERENCES.md §4).
+    // An on-bin tone of amplitude A has power A²/2 = 8 (common practice; docs/references.md §4).
     expect(groups['eyes-closed']!.epochs).toBe(2);
     expect(groups['eyes-closed']!.channels[0]!.bands[0]!.absolute).toBeCloseTo(8, 9);
     expect(groups['eyes-open']!.channels[0]!.bands[0]!.absolute).toBe(0);

@@ -10,7 +10,7 @@ const grid = (binWidth: number, top: number): Float64Array => Float64Array.from(
 const inverse = (f: Float64Array): Float64Array => f.map((v) => (v > 0 ? 1 / v : 0));
 
 describe('spectralEdge', () => {
-  describe('when the PSD is flat on [0, 50] Hz (REFERENCES.md §7, COMPUTED)', () => {
+  describe('when the PSD is flat on [0, 50] Hz (docs/references.md §7, COMPUTED)', () => {
     it('should give SEF95 = 47.5 Hz and SEF50 = 25 Hz to 1e-12', () => {
       const f = grid(0.5, 60);
       const r = spectralEdge(f, new Float64Array(f.length).fill(3), { range: [0, 50] });
@@ -29,7 +29,7 @@ describe('spectralEdge', () => {
         r.edges.forEach((e, i) => expect(Math.abs(e.frequency! - c.edges[i]!)).toBeLessThan(1e-12));
       });
     }
-    it('should approach SEF95 = 40^0.95 = 33.2627 Hz (REFERENCES.md §7) within 1e-3 Hz on a 0.01 Hz grid', () => {
+    it('should approach SEF95 = 40^0.95 = 33.2627 Hz (docs/references.md §7) within 1e-3 Hz on a 0.01 Hz grid', () => {
       const f = grid(0.01, 45);
       const r = spectralEdge(f, inverse(f), { range: [1, 40], percentiles: [95] });
       expect(Math.abs(r.edges[0]!.frequency! - 40 ** 0.95)).toBeLessThan(1e-3);

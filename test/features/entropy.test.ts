@@ -4,7 +4,7 @@ import { spectralEntropy } from '../../src/features/entropy.js';
 const f = Float64Array.from({ length: 256 }, (_, k) => k);
 
 describe('spectralEntropy', () => {
-  // Check values from REFERENCES.md §7 (COMPUTED from H = −Σp ln p / ln N).
+  // Check values from docs/references.md §7 (COMPUTED from H = −Σp ln p / ln N).
   describe('when the spectrum is flat, a single line or two equal lines among 256 bins', () => {
     it('should give 1, 0 and ln 2/ln 256 = 0.125 to 1e-12', () => {
       expect(Math.abs(spectralEntropy(f, new Float64Array(256).fill(2), [0, 255]).value! - 1)).toBeLessThan(1e-12);

@@ -49,7 +49,7 @@ describe('when a pipeline uploads, submits and fetches', () => {
     expect(record.recipe.hash).toBe(recipe.json().hash);
     expect(record.input).toMatchObject({ signal: info.id, sha256: info.sha256 });
     expect(record.recipe.derived).toMatchObject({ segmentSamples: 500, overlapSamples: 250, fftLength: 500, frequencyResolution: 0.5 });
-    // Common practice (REFERENCES.md §4): a sinusoid of amplitude A has mean-square power A²/2; with a
+    // Common practice (docs/references.md §4): a sinusoid of amplitude A has mean-square power A²/2; with a
     // periodic Hann window an on-bin tone leaks only into its two neighbours, all inside the band.
     const alphaFz = record.result.channels[0].bands.find((b: { name: string }) => b.name === 'alpha');
     expect(alphaFz.absolute).toBeCloseTo(2, 10);

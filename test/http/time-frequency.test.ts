@@ -80,7 +80,7 @@ describe('when the recipe asks for Morlet power around events', () => {
     const late = (name: string) => record.result.channels.find((c: { name: string }) => c.name === name).summary[1].value;
     // Burst power A²/2 = 4.5 µV² against the white noise a unit-gain 7-cycle wavelet passes,
     // 2σ²·Σψ̃² = σ²/(√π·σ_t·fs) = 0.25/(√π·0.1114·250) ≈ 0.005 µV²: about 29 dB at the burst centre
-    // (σ_t = n/(2πf), REFERENCES.md §7); 10 dB is a wide margin below it.
+    // (σ_t = n/(2πf), docs/references.md §7); 10 dB is a wide margin below it.
     expect(burst('O1')).toBeGreaterThan(10);
     expect(burst('O2')).toBeGreaterThan(10);
     expect(Math.abs(late('O1'))).toBeLessThan(3);
@@ -154,8 +154,38 @@ describe('when the recipe asks for connectivity', () => {
     const pair = (a: string, b: string) => c.pairs.find((p: { channels: string[] }) => p.channels[0] === a && p.channels[1] === b);
     const mean = (v: (number | null)[]) => v.filter((x): x is number => x !== null).reduce((s, x) => s + x, 0) / v.length;
     expect(mean(pair('C3', 'C4').coherence)).toBeGreaterThan(0.95);
-    // Independent Gaussian signals, n non-overlapped segments: E[MSC] = 1/n (Carter et al. 1973; REFERENCES.md §7).
+    // Independent Gaussian signals, n non-overlapped segments: E[MSC] = 1/n (Carter et al. 1973; docs/references.md §7).
     expect(c.coherenceBias).toBeCloseTo(1 / c.effectiveSegments, 12);
     expect(mean(pair('C3', 'Pz').coherence)).toBeLessThan(3 / c.effectiveSegments);
+  });
+});
+
+describe('when connectivity meets flat channels', () => {
+  it('should succeed with null values and a warning naming them, never failing on NaN', async () => {
+    // Two flat channels (a disconnected electrode reading zero, one stuck at a constant) beside a live
+    // one. 0/0 is undefined, as scipy.signal.coherence gives NaN (docs/references.md §7); before the
+    // fix NaN band values reached the canonical JSON and the job failed after every retry.
+    const random = createRandom(31);
+    const n = 16 * fs;
+    const signal = {
+      samplingRate: fs,
+      channels: ['Fz', 'Cz', 'Pz'],
+      data: [Array.from({ length: n }, () => random.normal()), new Array<number>(n).fill(0), new Array<number>(n).fill(12.5)],
+    };
+    const { job, record } = await run(
+      { method: 'connectivity', segmentSeconds: 1, overlap: 0.5, bands: [{ name: 'alpha', low: 8, high: 13 }], epoching: { mode: 'fixed', lengthSeconds: 4 } },
+      signal,
+    );
+    expect(job.state).toBe('succeeded');
+    const c = record.result.connectivity;
+    for (const pair of c.pairs) {
+      expect(pair.coherence.every((v: number | null) => v === null)).toBe(true);
+      expect(pair.imaginaryCoherency.every((v: number | null) => v === null)).toBe(true);
+      expect(pair.phaseLocking.every((v: number | null) => v === null)).toBe(true);
+      expect(pair.bands[0]).toMatchObject({ coherence: null, imaginaryCoherency: null, phaseLocking: null });
+    }
+    const warnings = record.result.warnings.join('\n');
+    expect(warnings).toMatch(/channel Cz is flat/);
+    expect(warnings).toMatch(/channel Pz is flat/);
   });
 });

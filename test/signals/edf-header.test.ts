@@ -18,7 +18,7 @@ function errorOf(bytes: Uint8Array): EdfFormatError {
 describe('when reading the header of the EDF+ motor-nerve example (Kemp & Olivan 2003, §3.7)', () => {
   const header = readEdfHeader(headerBytes(motorNerveHeader));
 
-  it('should take 768 bytes for 2 signals, as the spec example says (256 + 256·ns, REFERENCES.md §6)', () => {
+  it('should take 768 bytes for 2 signals, as the spec example says (256 + 256·ns, docs/references.md §6)', () => {
     expect(headerText(motorNerveHeader).length).toBe(768);
     expect(header.headerBytes).toBe(768);
     expect(header.signalCount).toBe(2);
@@ -47,7 +47,7 @@ describe('when reading the header of the EDF+ motor-nerve example (Kemp & Olivan
     expect(s.isAnnotation).toBe(false);
   });
 
-  it('should give the gain 200/4095 mV per step (REFERENCES.md §6, computed from the §3.7 ranges)', () => {
+  it('should give the gain 200/4095 mV per step (docs/references.md §6, computed from the §3.7 ranges)', () => {
     expect(header.signals[0]!.gain).toBeCloseTo(200 / 4095, 15);
   });
 
@@ -59,7 +59,7 @@ describe('when reading the header of the EDF+ motor-nerve example (Kemp & Olivan
     expect(s.samplesPerRecord).toBe(60);
     expect(s.recordByteOffset).toBe(2000);
     expect(header.annotationSignals).toEqual([1]);
-    // REFERENCES.md §6: record size 2120 bytes = 2·(1000 + 60).
+    // docs/references.md §6: record size 2120 bytes = 2·(1000 + 60).
     expect(header.recordBytes).toBe(2120);
   });
 
@@ -82,7 +82,7 @@ describe('when applying the two-digit year rule (EDF+ §2.1.3: 85–99 → 1985�
 });
 
 describe('when a header field is wrong', () => {
-  it('should name the header byte count and the size 2 signals need (REFERENCES.md §6: 256 + 256·ns)', () => {
+  it('should name the header byte count and the size 2 signals need (docs/references.md §6: 256 + 256·ns)', () => {
     const e = errorOf(headerBytes({ ...motorNerveHeader, headerBytes: '512' }));
     expect(e.message).toBe('header byte count at offset 184 is 512 but 2 signals need 768');
     expect(e.field).toBe('header byte count');

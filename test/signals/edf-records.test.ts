@@ -13,7 +13,7 @@ function parseError(bytes: Uint8Array): EdfFormatError {
 }
 
 describe('when decoding 16-bit little-endian samples (Kemp et al. 1992; EDF+ §2.1.3 item 7)', () => {
-  it('should read bytes FE FF as −2 and 00 80 as −32768 (two’s complement, computed in REFERENCES.md §6)', () => {
+  it('should read bytes FE FF as −2 and 00 80 as −32768 (two’s complement, computed in docs/references.md §6)', () => {
     const file = identityFile([0, 0, 0]);
     const data = file.length - 6;
     file.set([0xfe, 0xff, 0x00, 0x80, 0xff, 0x7f], data);
@@ -36,7 +36,7 @@ describe('when parsing the EDF+D motor-nerve file (Kemp & Olivan 2003, §3.7 hea
     expect(apb.samples.length).toBe(2000);
   });
 
-  it('should calibrate digital 0 to 0.024420024 mV and −2048/2047 to ∓100 mV (REFERENCES.md §6, computed)', () => {
+  it('should calibrate digital 0 to 0.024420024 mV and −2048/2047 to ∓100 mV (docs/references.md §6, computed)', () => {
     expect(apb.samples[0]).toBeCloseTo(0.024420024, 9);
     expect(apb.samples[1]).toBeCloseTo(-100, 12);
     expect(apb.samples[2]).toBeCloseTo(100, 12);
@@ -73,7 +73,7 @@ describe('when the time-keeping TALs contradict the header', () => {
     bytes.set(ascii('EDF+C'), 192);
     const e = parseError(bytes);
     // Record 2 starts at 768 + 2120 = 2888; its TAL follows R APB's 1000 two-byte samples: 2888 + 2000
-    // (header size and record layout of the EDF+ §3.7 example, REFERENCES.md §6).
+    // (header size and record layout of the EDF+ §3.7 example, docs/references.md §6).
     expect(e.message).toContain('time-keeping TAL of data record 2 at offset 4888');
     expect(e.message).toContain('EDF+C record must start at 0.05 s');
   });

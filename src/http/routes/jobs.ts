@@ -1,9 +1,11 @@
+import type { FastifyRequest } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { JobView } from '../../jobs/spec.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
 import type { SignalView } from '../../signals/view.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
+import { requireJob as requireJobOf, unavailable } from '../job-access.js';
 import { importSignal } from '../imports.js';
 import { locatedUnder } from '../../common/errors.js';
 import { getRecipe, pinRecipe, planJob } from '../../jobs/plan.js';
@@ -15,12 +17,6 @@ import { zodValidator } from '../validation.js';
 import { tenantOf } from '../auth.js';
 import { z } from 'zod';
 
-/** A queue fault becomes 503 with Retry-After, never a 500 that hides a transient outage. */
-function unavailable(error: unknown, what = 'try again shortly'): ProblemError {
-  const reason = error instanceof Error ? error.message : String(error);
-  return new ProblemError('queue-unavailable', `the job queue cannot be reached (${reason}); ${what}`, null, { 'retry-after': '5' });
-}
-
 function present(job: JobView) {
   const { recordKey: _key, ...rest } = job;
   return { ...rest, links: { self: `/v1/jobs/${job.id}`, record: `/v1/jobs/${job.id}/record` } };
@@ -29,18 +25,24 @@ function present(job: JobView) {
 export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
   const { store, queue, config } = deps;
 
-  async function requireJob(id: string, tenant: string): Promise<JobView> {
-    let job: JobView | null = null;
-    if (/^job_[0-9a-f]{32}$/.test(id)) {
-      try {
-        job = await queue.get(id);
-      } catch (error) {
-        throw unavailable(error);
-      }
+  const requireJob = (id: string, tenant: string) => requireJobOf(queue, id, tenant);
+
+  /**
+   * The record key of the request's job once it has succeeded. While the queue is down, a record
+   * that is already stored (or, with STORE=redis, cached by this API) is still served.
+   */
+  async function succeededRecordKey(request: FastifyRequest<{ Params: { id: string } }>, notReady: string): Promise<string> {
+    const tenant = tenantOf(request);
+    try {
+      const job = await requireJob(request.params.id, tenant);
+      if (job.state !== 'succeeded') throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}${job.problem ? `: ${job.problem.detail}` : ''}; ${notReady}`);
+      return job.recordKey;
+    } catch (error) {
+      const fallback = error instanceof ProblemError && error.code === 'queue-unavailable' ? await indexedRecordKey(store, request.params.id, tenant) : null;
+      if (!fallback) throw error;
+      request.log.info({ jobId: request.params.id }, 'record served from the store while the queue is unavailable');
+      return fallback;
     }
-    // Another tenant's job answers exactly like a missing one.
-    if (!job || job.tenant !== tenant) throw new ProblemError('job-not-found', `no job with id "${id}"`);
-    return job;
   }
 
   app.post(
@@ -182,13 +184,13 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       },
     },
     async (request, reply) => {
-      const job = await requireJob(request.params.id, tenantOf(request));
-      if (job.state !== 'succeeded') throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}; attachments exist once it has succeeded`);
-      const text = await store.getDocument('records', job.recordKey);
+      const jobId = request.params.id;
+      const recordKey = await succeededRecordKey(request, 'attachments exist once it has succeeded');
+      const text = await store.getDocument('records', recordKey);
       const listed = text ? ((JSON.parse(text) as { attachments?: { name: string; shape: number[]; dtype: string; sha256: string }[] }).attachments ?? []) : [];
       const entry = listed.find((a) => a.name === request.params.name);
-      const bytes = entry ? await store.getAttachment(`${job.recordKey}.${entry.name}`) : null;
-      if (!entry || !bytes) throw new ProblemError('attachment-not-found', `job ${job.id} has no attachment "${request.params.name}"; the record lists ${listed.map((a) => a.name).join(', ') || 'none'}`);
+      const bytes = entry ? await store.getAttachment(`${recordKey}.${entry.name}`) : null;
+      if (!entry || !bytes) throw new ProblemError('attachment-not-found', `job ${jobId} has no attachment "${request.params.name}"; the record lists ${listed.map((a) => a.name).join(', ') || 'none'}`);
       return reply
         .type('application/octet-stream')
         .header('x-rhythmetric-shape', entry.shape.join(','))
@@ -211,21 +213,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
     },
     async (request, reply) => {
-      const tenant = tenantOf(request);
-      let recordKey: string;
-      try {
-        const job = await requireJob(request.params.id, tenant);
-        if (job.state !== 'succeeded') {
-          throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}${job.problem ? `: ${job.problem.detail}` : ''}; the record exists once it has succeeded`);
-        }
-        recordKey = job.recordKey;
-      } catch (error) {
-        // The queue is down: a record that is already stored is still served from the store.
-        const fallback = error instanceof ProblemError && error.code === 'queue-unavailable' ? await indexedRecordKey(store, request.params.id, tenant) : null;
-        if (!fallback) throw error;
-        request.log.info({ jobId: request.params.id }, 'record served from the store while the queue is unavailable');
-        recordKey = fallback;
-      }
+      const recordKey = await succeededRecordKey(request, 'the record exists once it has succeeded');
       const text = await store.getDocument('records', recordKey);
       if (text === null) throw new ProblemError('internal', `the record of job ${request.params.id} is missing from the store`);
       return reply.type('application/json').send(text as never);

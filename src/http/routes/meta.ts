@@ -31,8 +31,9 @@ export const metaRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
   app.get(
     '/metrics',
     {
+      config: { access: 'metrics' },
       schema: {
-        summary: 'Prometheus metrics (text exposition format)',
+        summary: 'Prometheus metrics (text exposition format); needs an admin key or the metrics token',
         tags: ['operations'],
         response: { 200: { description: 'metrics in the Prometheus text exposition format 0.0.4', content: { 'text/plain': { schema: z.string() } } } },
       },

@@ -1,0 +1,88 @@
+/**
+ * The shape of a method module. Each method (src/methods/<name>.ts) declares, in one place, its
+ * settings schema, the contradictions it refuses, its fit to a signal's shape with the derived
+ * values, its cost estimate, and its computation entry; the registry builds the recipe union, the
+ * normalization, the resolution and the engine's dispatch from these modules.
+ */
+import type { z } from 'zod';
+import type { CostEstimate, DerivedSettings, Fit, RecipeLimits, SignalShape } from './fit.js';
+
+/** One spectrum of one channel of one epoch, with its equivalent degrees of freedom per bin. */
+export interface Estimate {
+  psd: Float64Array;
+  degreesOfFreedom: Float64Array;
+  warnings: readonly string[];
+  /** Welch: segments averaged and segments left out (bad spans, amplitude) */
+  segments: { used: number; leftOut: number };
+}
+
+/** Decides per channel whether a segment [start, end) of `x` may be averaged. */
+export type SegmentFilter = (x: Float64Array, start: number, end: number) => boolean;
+
+/** A spectral estimator set up once per job (windows, tapers, FFT plans) and reused per channel and epoch. */
+export interface Estimator {
+  readonly frequencies: Float64Array;
+  /** warnings that hold for every estimate (e.g. poorly concentrated tapers) */
+  readonly warnings: readonly string[];
+  estimate(x: Float64Array): Estimate;
+}
+
+/**
+ * The per-trial transform of a time–frequency method, built once per thread and job: its axes,
+ * the cells a wavelet overhangs, the record's method-specific fields, and the transform itself.
+ */
+export interface TrialTransform {
+  /** s from the start of the epoch */
+  times: Float64Array;
+  /** Hz, the columns of every matrix */
+  frequencies: Float64Array;
+  /** 1 where a cell is edge-contaminated, [time][frequency]; null when no cell is */
+  edgeMask: Uint8Array | null;
+  /** fields of the record's `timeFrequency` block that only this method has */
+  extra: { edgeSigmas?: number; powerFactor?: number; cycles?: number[] };
+  /**
+   * One trial's power. Given `sum`, the transform may add the power into it and return `sum` as
+   * `power`; otherwise `power` is the trial's own matrix. `re`/`im` are the complex coefficients
+   * when the method keeps them (phase consistency).
+   */
+  transform: (x: Float64Array, sum?: Float64Array) => { power: Float64Array; re?: Float64Array; im?: Float64Array };
+}
+
+/**
+ * How the engine turns a method's result into a record:
+ * - `spectrum`: one PSD per channel and epoch from the method's {@link Estimator}, summed over epochs, with
+ *   band powers and features (engine/spectra.ts);
+ * - `time-frequency`: matrices per channel, as attachments (engine/time-frequency.ts, tf-channels.ts);
+ * - `connectivity`: cross-spectra between channel pairs (engine/time-frequency.ts).
+ */
+export type EnginePath = 'spectrum' | 'time-frequency' | 'connectivity';
+
+export interface MethodModule<R extends { method: string }, S = z.ZodType<R>> {
+  readonly name: R['method'];
+  /** strict zod object: the method's settings with their defaults */
+  readonly schema: S;
+  readonly path: EnginePath;
+  /**
+   * Refuses contradictions between settings by name (`invalid-recipe`). May fill a documented
+   * derived default in place (tukeyRatio, ratio names) before the recipe is hashed.
+   */
+  check(recipe: R): void;
+  /** Checks the recipe against the signal's shape and derives the sample counts (`recipe-unfit`, `limit-exceeded`). */
+  fit(recipe: R, shape: SignalShape, limits: RecipeLimits): Fit;
+  /** Peak memory and work of the job on a signal of this shape, from the fitted values. */
+  cost(recipe: R, derived: DerivedSettings, shape: SignalShape): CostEstimate;
+  /** `spectrum` path: the per-channel estimator, set up once per job. */
+  createEstimator?(samplingRate: number, recipe: R, derived: DerivedSettings, segmentFilter: SegmentFilter | null): Estimator;
+  /** `time-frequency` path: the transform of one trial of `samplesPerEpoch` samples, run on any thread. */
+  createTrialTransform?(recipe: R, derived: DerivedSettings, samplingRate: number, samplesPerEpoch: number): TrialTransform;
+  /**
+   * `spectrum` path: whether the method leaves out single segments of an unepoched signal (bad
+   * spans, amplitude) rather than whole epochs.
+   */
+  readonly leavesOutSegments?: boolean;
+}
+
+/** Declares a method module, keeping the concrete schema type for the recipe union. */
+export function defineMethod<S extends z.ZodType<{ method: string }>>(module: MethodModule<z.output<S>, S>): MethodModule<z.output<S>, S> {
+  return Object.freeze(module);
+}
