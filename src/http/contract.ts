@@ -19,6 +19,7 @@ const OPERATION_IDS: Record<string, string> = {
   'DELETE /v1/jobs/:id': 'cancelJob',
   'GET /v1/jobs/:id/record': 'getJobRecord',
   'GET /v1/jobs/:id/attachments/:name': 'getJobAttachment',
+  'GET /v1/jobs/:id/table': 'getJobTable',
   'GET /v1/jobs/:id/events': 'streamJobEvents',
   'POST /v1/uploads': 'startUpload',
   'PUT /v1/uploads/:id/parts/:part': 'putUploadPart',

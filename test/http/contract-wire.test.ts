@@ -123,6 +123,8 @@ describe('when every route answers, successes and errors alike', () => {
       const attachments = (record.json().attachments ?? []) as { name: string }[];
       if (attachments[0]) await exchange('GET', `/v1/jobs/${id}/attachments/${attachments[0].name}`, { key: KEYS.read });
       await exchange('GET', `/v1/jobs/${id}/attachments/no-such`, { key: KEYS.read });
+      await exchange('GET', `/v1/jobs/${id}/table?format=csv`, { key: KEYS.read });
+      await exchange('GET', `/v1/jobs/${id}/table?format=nothing`, { key: KEYS.read });
       await exchange('DELETE', `/v1/jobs/${id}`, { key: KEYS.submit });
     }
     expect([...seen].some((s) => s.startsWith('GET /v1/jobs/{id}/attachments/{name} 200'))).toBe(true);
