@@ -80,8 +80,10 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
     await app.register(cors, {
       origin: deps.config.corsOrigins.includes('*') ? true : deps.config.corsOrigins,
       methods: ['GET', 'POST', 'PUT', 'DELETE'],
-      allowedHeaders: ['authorization', 'content-type', 'x-request-id'],
-      exposedHeaders: ['x-request-id', 'location', 'retry-after'],
+      allowedHeaders: ['authorization', 'content-type', 'x-request-id', 'if-none-match'],
+      // What a dashboard on another origin reads: ids for support, caching, download names and the
+      // layout of a binary attachment.
+      exposedHeaders: ['x-request-id', 'location', 'retry-after', 'etag', 'content-disposition', 'x-rhythmetric-shape', 'x-rhythmetric-dtype'],
       maxAge: 600,
     });
   }

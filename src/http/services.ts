@@ -56,7 +56,13 @@ export async function getRecipe(store: Store, id: string, pointer: string | null
  * Builds the job for a (signal, recipe) pair after checking, before anything is queued, that the
  * recipe fits the signal; a misfit answers 422 now instead of a failed job later.
  */
-export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe, view: SignalView | null = null): { jobId: string; spec: JobSpec } {
+export function planJob(
+  config: Config,
+  meta: SignalMeta,
+  pinned: PinnedRecipe,
+  view: SignalView | null = null,
+  labels: Record<string, string> = {},
+): { jobId: string; spec: JobSpec } {
   const shape = viewedShape(meta, view);
   const reference = pinned.recipe.reference;
   if (view?.channels && typeof reference === 'object' && view.channels.includes(reference.channel)) {
@@ -73,6 +79,6 @@ export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe, 
   const recordKey = recordKeyOf(meta.tenant, meta.sha256, pinned.hash, view);
   return {
     jobId: jobIdOf(recordKey),
-    spec: { tenant: meta.tenant, signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey, view },
+    spec: { tenant: meta.tenant, signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey, view, labels },
   };
 }
