@@ -17,6 +17,7 @@ import { eventRoutes } from './routes/events.js';
 import { jobRoutes } from './routes/jobs.js';
 import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
+import { pageRoutes } from './routes/page.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
 
@@ -72,7 +73,8 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
     reply.header('x-content-type-options', 'nosniff');
     reply.header('x-frame-options', 'DENY');
     reply.header('referrer-policy', 'no-referrer');
-    reply.header('content-security-policy', "default-src 'none'; frame-ancestors 'none'");
+    // The page's files carry their own, wider policy (routes/page.ts).
+    if (!reply.hasHeader('content-security-policy')) reply.header('content-security-policy', "default-src 'none'; frame-ancestors 'none'");
     reply.header('cross-origin-resource-policy', 'same-site');
     if (!reply.hasHeader('cache-control')) reply.header('cache-control', 'no-store');
   });
@@ -121,6 +123,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(jobRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
+  await app.register(pageRoutes());
   await app.ready();
   return app;
 }
