@@ -17,8 +17,9 @@ const ALLOWED: Record<string, string[]> = {
   engine: ['dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
-  http: ['jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
-  cli: ['http', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  plots: ['engine', 'recipes', 'common'],
+  http: ['jobs', 'stores', 'recipes', 'signals', 'engine', 'plots', 'common', 'config'],
+  cli: ['http', 'plots', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

@@ -18,6 +18,7 @@ import { jobRoutes } from './routes/jobs.js';
 import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
 import { pageRoutes } from './routes/page.js';
+import { plotRoutes } from './routes/plots.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
 
@@ -111,6 +112,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
         { name: 'signals', description: 'Upload and describe signals' },
         { name: 'recipes', description: 'Pin analysis recipes' },
         { name: 'jobs', description: 'Submit analyses and fetch feature records' },
+        { name: 'plots', description: 'Records drawn as SVG' },
         { name: 'operations', description: 'Health, readiness and documentation' },
       ],
     },
@@ -123,6 +125,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(jobRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
+  await app.register(plotRoutes(deps));
   await app.register(pageRoutes());
   await app.ready();
   return app;

@@ -1,0 +1,23 @@
+import type { JobQueue } from '../jobs/queue.js';
+import type { JobView } from '../jobs/spec.js';
+import { ProblemError } from './problem.js';
+
+/** A queue fault becomes 503 with Retry-After, never a 500 that hides a transient outage. */
+export function unavailable(error: unknown, what = 'try again shortly'): ProblemError {
+  const reason = error instanceof Error ? error.message : String(error);
+  return new ProblemError('queue-unavailable', `the job queue cannot be reached (${reason}); ${what}`, null, { 'retry-after': '5' });
+}
+
+/** The tenant's job by id; another tenant's job answers exactly like a missing one. */
+export async function requireJob(queue: JobQueue, id: string, tenant: string): Promise<JobView> {
+  let job: JobView | null = null;
+  if (/^job_[0-9a-f]{32}$/.test(id)) {
+    try {
+      job = await queue.get(id);
+    } catch (error) {
+      throw unavailable(error);
+    }
+  }
+  if (!job || job.tenant !== tenant) throw new ProblemError('job-not-found', `no job with id "${id}"`);
+  return job;
+}
