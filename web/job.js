@@ -146,7 +146,11 @@ async function renderDetails(details, job, signal) {
     section('Recipe', jsonBlock(record.recipe)),
     section('Input', inputFacts(record.input ?? {})),
   );
-  for (const kind of PLOTS[job.method] ?? []) plots.append(await plotFigure(job.id, kind, signal));
+  for (const kind of PLOTS[job.method] ?? []) {
+    const figure = await plotFigure(job.id, kind, signal);
+    if (figure) plots.append(figure);
+  }
+  if (plots.childElementCount === 0) plots.append(h('p', { class: 'muted' }, 'This server draws no plot of this record.'));
 }
 
 /** @param {string} title @param {...import('./dom.js').Child} content */
@@ -203,10 +207,11 @@ function downloadButton(label, path, name) {
 
 /**
  * The plot as inline SVG: its text stays real text for screen readers and tests, and the page's
- * policy still forbids scripts in it.
+ * policy still forbids scripts in it. Null when the server has no such plot kind (or no plots).
  * @param {string} jobId
  * @param {string} kind
  * @param {AbortSignal} signal
+ * @returns {Promise<HTMLElement | null>}
  */
 async function plotFigure(jobId, kind, signal) {
   const caption = h('figcaption', {}, PLOT_TITLES[kind] ?? kind);
@@ -215,7 +220,8 @@ async function plotFigure(jobId, kind, signal) {
     const response = await request(`/v1/jobs/${jobId}/plots/${kind}?width=880&height=420`, { signal });
     figure.prepend(importSvg(await response.text(), `plot-${kind}`));
   } catch (error) {
-    figure.append(h('p', { class: 'muted' }, error instanceof ProblemError && error.problem.status === 404 && error.problem.type.endsWith('/not-found') ? 'This server does not draw plots.' : `No plot: ${error instanceof ProblemError ? error.problem.detail : String(error)}`));
+    if (error instanceof ProblemError && /\/(unknown-plot-kind|not-found)$/.test(error.problem.type)) return null;
+    figure.append(h('p', { class: 'muted' }, `No plot: ${error instanceof ProblemError ? error.problem.detail : String(error)}`));
   }
   return figure;
 }
