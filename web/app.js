@@ -52,7 +52,7 @@ async function route() {
   const submitArea = h('section', { class: 'panel', id: 'submit' });
   const listArea = h('section', { class: 'panel', id: 'jobs' });
   replace(main, submitArea, listArea);
-  const list = createJobList(listArea, announce);
+  const list = createJobList(listArea, announce, leaving.signal);
   createSubmitForm(submitArea, { announce, submitted: () => void list.reload() });
   await list.reload();
 }

@@ -13,8 +13,9 @@ const STATES = ['queued', 'running', 'succeeded', 'failed', 'canceled'];
 /**
  * @param {HTMLElement} root
  * @param {(message: string) => void} announce
+ * @param {AbortSignal} leaving aborted when the user leaves the list; ends its event stream
  */
-export function createJobList(root, announce) {
+export function createJobList(root, announce, leaving) {
   /** cursors of the pages before the current one; the current page's own cursor is the last */
   /** @type {(string | null)[]} */
   let cursors = [null];
@@ -153,6 +154,7 @@ export function createJobList(root, announce) {
     const open = jobs.filter((j) => j.state === 'queued' || j.state === 'running').map((j) => j.id);
     if (open.length === 0) return;
     const controller = new AbortController();
+    leaving.addEventListener('abort', () => controller.abort(), { once: true });
     live = controller;
     void (async () => {
       try {

@@ -27,7 +27,8 @@ let page: Page;
 let work: string;
 let demoFile: string;
 
-describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real browser', () => {
+// Generous: the suite shares two cores with the rest of `npm test`; no check here is about speed.
+describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real browser', { timeout: 90_000 }, () => {
   beforeAll(async () => {
     api = await startTestApi();
     base = await api.app.listen({ port: 0, host: '127.0.0.1' });
