@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import { mkdir, mkdtemp, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
@@ -187,5 +188,45 @@ describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real
     // The spectrum is drawn in colour, not only the grey frame.
     expect(ink.coloured).toBeGreaterThan(200);
     await page.screenshot({ path: join(SHOTS, '5-job.png'), fullPage: true });
+  });
+});
+
+describe.skipIf(!HAVE_CHROMIUM)('when the service asks for API keys', { timeout: 90_000 }, () => {
+  const KEY = 'e2e-key-4b1f0c7d9a';
+  let keyed: Api;
+  let keyedContext: BrowserContext;
+  let keyedWork: string;
+
+  beforeAll(async () => {
+    keyed = await startTestApi({ API_KEYS: `lab-e2e:submit:${createHash('sha256').update(KEY).digest('hex')}:browser` });
+    const address = await keyed.app.listen({ port: 0, host: '127.0.0.1' });
+    keyedWork = await mkdtemp(join(tmpdir(), 'rhythmetric-e2e-keys-'));
+    keyedContext = await chromium.launchPersistentContext(join(keyedWork, 'profile'), {
+      executablePath: CHROMIUM,
+      headless: true,
+      args: ['--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    });
+    const tab = keyedContext.pages()[0] ?? (await keyedContext.newPage());
+    await tab.goto(`${address}/`);
+  }, 60_000);
+
+  afterAll(async () => {
+    await keyedContext?.close();
+    await keyed?.stop();
+    if (keyedWork) await rm(keyedWork, { recursive: true, force: true });
+  });
+
+  it('should say that a key is needed, then use a typed key kept in session storage only', async () => {
+    const tab = keyedContext.pages()[0]!;
+    await expect.poll(() => tab.locator('#filter-problem').innerText(), { timeout: 20_000 }).toMatch(/API key/);
+    await tab.fill('#api-key', KEY);
+    await tab.press('#api-key', 'Enter');
+    await expect.poll(() => tab.locator('#list-status').innerText(), { timeout: 20_000 }).toBe('No jobs match.');
+    const storage = await tab.evaluate(() => ({ session: Object.entries(sessionStorage), local: Object.entries(localStorage), field: (document.getElementById('api-key') as HTMLInputElement).value }));
+    expect(storage.session).toEqual([['rhythmetric.apiKey', KEY]]);
+    expect(storage.local).toEqual([]);
+    expect(storage.field).toBe('');
+    await tab.click('#forget-key');
+    expect(await tab.evaluate(() => sessionStorage.length)).toBe(0);
   });
 });
