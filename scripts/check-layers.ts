@@ -16,10 +16,12 @@ const ALLOWED: Record<string, string[]> = {
   recipes: ['dsp', 'common'],
   engine: ['dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
+  tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
   plots: ['engine', 'recipes', 'common'],
-  http: ['jobs', 'stores', 'recipes', 'signals', 'engine', 'plots', 'common', 'config'],
-  cli: ['http', 'plots', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  studies: ['tables', 'jobs', 'stores', 'recipes', 'signals', 'common'],
+  http: ['studies', 'tables', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'plots', 'common', 'config'],
+  cli: ['tables', 'http', 'plots', 'studies', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

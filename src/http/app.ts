@@ -21,6 +21,8 @@ import { pageRoutes } from './routes/page.js';
 import { plotRoutes } from './routes/plots.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
+import { studyRoutes } from './routes/studies.js';
+import { tableRoutes } from './routes/tables.js';
 
 export interface AppDeps {
   config: Readonly<Config>;
@@ -113,6 +115,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
         { name: 'recipes', description: 'Pin analysis recipes' },
         { name: 'jobs', description: 'Submit analyses and fetch feature records' },
         { name: 'plots', description: 'Records drawn as SVG' },
+        { name: 'studies', description: 'Recordings with their metadata, grouped in studies; one recipe run over a whole study' },
         { name: 'operations', description: 'Health, readiness and documentation' },
       ],
     },
@@ -123,9 +126,11 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(signalRoutes(deps));
   await app.register(recipeRoutes(deps));
   await app.register(jobRoutes(deps));
+  await app.register(tableRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
   await app.register(plotRoutes(deps));
+  await app.register(studyRoutes(deps));
   await app.register(pageRoutes());
   await app.ready();
   return app;

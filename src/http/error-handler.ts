@@ -49,6 +49,7 @@ function isConnectionFault(error: Error): boolean {
 
 /** Maps every error to a problem code; unknown errors become `internal` with no internals exposed. */
 export function mapError(error: FastifyError | Error, request: FastifyRequest): Mapped {
+  if (error instanceof DomainError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extensions };
   if (error instanceof ProblemError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extra };
   if (error instanceof DomainError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extensions };
   if (error instanceof SignalInputError) {
