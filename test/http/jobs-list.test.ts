@@ -153,3 +153,35 @@ describe('when a page on another origin reads responses', () => {
     for (const header of ['x-request-id', 'etag', 'content-disposition', 'x-rhythmetric-shape', 'x-rhythmetric-dtype']) expect(exposed).toContain(header);
   });
 });
+
+describe('when a study run submits its jobs', () => {
+  it('should label each job with its study, run, entry and metadata, so the list filters by study', async () => {
+    const post = (url: string, payload: unknown) => api.app.inject({ method: 'POST', url, payload: payload as Record<string, unknown> });
+    const signals: string[] = [];
+    for (const seed of [41, 42]) {
+      const res = await post('/v1/signals', noiseSignal(seed));
+      expect(res.statusCode).toBe(201);
+      signals.push(res.json().id);
+    }
+    const study = (await post('/v1/studies', { name: 'list labels' })).json().id as string;
+    const entries = await post(`/v1/studies/${study}/entries`, {
+      entries: [
+        { signal: signals[0], metadata: { subject: 'p01', condition: 'eyes-open' } },
+        { signal: signals[1], metadata: { subject: 'p02', condition: 'eyes-closed', age: 31 } },
+      ],
+    });
+    expect(entries.statusCode, entries.body).toBe(201);
+    const run = await post(`/v1/studies/${study}/runs`, { recipe: { method: 'periodogram', detrend: 'linear' } });
+    expect(run.statusCode, run.body).toBe(202);
+    const runId = run.json().id as string;
+    const deadline = Date.now() + 30_000;
+    while ((await api.app.inject({ method: 'GET', url: `/v1/studies/${study}/runs/${runId}` })).json().state === 'running' && Date.now() < deadline) await new Promise((r) => setTimeout(r, 20));
+
+    const listed = (await list(`?study=${study}`)).jobs;
+    expect(listed).toHaveLength(2);
+    const bySubject = new Map(listed.map((j) => [j.labels.subject, j]));
+    expect(bySubject.get('p01')!.labels).toMatchObject({ study, run: runId, condition: 'eyes-open' });
+    expect(bySubject.get('p02')!.labels).toMatchObject({ study, run: runId, condition: 'eyes-closed', age: '31' });
+    expect(listed.every((j) => j.method === 'periodogram' && j.labels.entry !== undefined)).toBe(true);
+  });
+});
