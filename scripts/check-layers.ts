@@ -20,8 +20,8 @@ const ALLOWED: Record<string, string[]> = {
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
   plots: ['engine', 'recipes', 'common'],
   studies: ['tables', 'jobs', 'stores', 'recipes', 'signals', 'common'],
-  http: ['studies', 'tables', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'plots', 'common', 'config'],
-  cli: ['tables', 'http', 'plots', 'studies', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  http: ['studies', 'tables', 'plots', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
+  cli: ['tables', 'plots', 'http', 'studies', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

@@ -51,7 +51,6 @@ function isConnectionFault(error: Error): boolean {
 export function mapError(error: FastifyError | Error, request: FastifyRequest): Mapped {
   if (error instanceof DomainError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extensions };
   if (error instanceof ProblemError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extra };
-  if (error instanceof DomainError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extensions };
   if (error instanceof SignalInputError) {
     const prefix = error.pointer === null ? '' : (request.routeOptions.config.signalPointer ?? '');
     return { code: error.code === 'limit' ? 'limit-exceeded' : 'invalid-signal', detail: error.message, pointer: error.pointer === null ? null : prefix + error.pointer };

@@ -63,7 +63,7 @@ export function xAxis(area: Area, scale: Scale, ticks: Tick[], label: string): s
     { class: 'axis x-axis' },
     ...parts,
     el('line', { x1: area.left, y1: bottom, x2: area.left + area.width, y2: bottom, stroke: INK, 'stroke-width': 1 }),
-    textEl('text', { class: 'axis-label', x: area.left + area.width / 2, y: bottom + 36, 'text-anchor': 'middle' }, label),
+    label ? textEl('text', { class: 'axis-label', x: area.left + area.width / 2, y: bottom + 36, 'text-anchor': 'middle' }, label) : '',
   );
 }
 
@@ -99,12 +99,12 @@ export interface LegendEntry {
   dash?: string;
 }
 
-/** A legend box in the top-right corner of the area. */
-export function legend(area: Area, entries: LegendEntry[]): string {
+/** A legend box in the top-right corner of the area, or just right of it (`outside`). */
+export function legend(area: Area, entries: LegendEntry[], outside = false): string {
   if (entries.length === 0) return '';
   const rowHeight = 16;
-  const width = 24 + Math.max(...entries.map((e) => e.label.length)) * 7 + 10;
-  const x = area.left + area.width - width - 6;
+  const width = 24 + Math.max(...entries.map((e) => e.label.length)) * 7.5 + 10;
+  const x = outside ? area.left + area.width + 8 : area.left + area.width - width - 6;
   const y = area.top + 6;
   const rows = entries.map((e, i) => {
     const cy = y + 10 + i * rowHeight;

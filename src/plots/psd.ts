@@ -8,6 +8,9 @@ import { el, num, pathData, textEl } from './svg.js';
 
 export type PowerScale = 'db' | 'log10';
 
+/** Single-epoch spectra drawn at most per channel: past that they only make the picture heavy. */
+export const MAX_EPOCH_LINES = 100;
+
 export interface PsdPlotOptions extends PictureSize {
   /** channel names to draw, in this order. @defaultValue every channel */
   channels?: string[];
@@ -45,13 +48,12 @@ export interface SpectraFigure {
   ribbonLabel?: string;
 }
 
-/** A band's name at its top: across when it fits, else upright along the band's left part. */
-function bandLabel(name: string, x0: number, x1: number, top: number): string {
-  const attrs = { 'font-size': 11, fill: '#555555' };
-  if (name.length * 6.5 + 4 <= x1 - x0) return textEl('text', { x: (x0 + x1) / 2, y: top + 13, 'text-anchor': 'middle', ...attrs }, name);
-  const x = (x0 + x1) / 2 + 4;
-  const y = top + 4;
-  return textEl('text', { x, y, 'text-anchor': 'end', transform: `rotate(-90 ${num(x)} ${num(y)})`, ...attrs }, name);
+/**
+ * A band's name above the plot, where neither the data nor the legend covers it; a name wider than
+ * its band goes one row up when its neighbour took the lower row, so narrow bands stay readable.
+ */
+function bandLabel(name: string, x0: number, x1: number, top: number, row: number): string {
+  return textEl('text', { x: (x0 + x1) / 2, y: top - 5 - row * 13, 'text-anchor': 'middle', 'font-size': 11, fill: '#555555' }, name);
 }
 
 /** Power as drawn: dB values or raw values on a log axis. */
@@ -96,7 +98,7 @@ export function drawSpectra(series: SpectrumSeries[], figure: SpectraFigure, opt
     for (const e of s.epochs ?? []) see(e, bins);
   });
   if (!Number.isFinite(min)) [min, max] = options.scale === 'db' ? [-1, 1] : [0.1, 10];
-  const area = plotArea(options, { left: 78 });
+  const area = plotArea(options, { left: 78, top: 60 });
   const xs = linearScale([lo, hi], [area.left, area.left + area.width]);
   const unit = prettyUnit(figure.unit);
   let ys: Scale;
@@ -120,18 +122,23 @@ export function drawSpectra(series: SpectrumSeries[], figure: SpectraFigure, opt
 
   // Bands behind everything, each cut to the shown range and named at its top.
   const bandParts: string[] = [];
+  const rowRight = [-Infinity, -Infinity];
   figure.bands.forEach((band, b) => {
     const from = Math.max(band.low, lo);
     const to = Math.min(band.high, hi);
     if (!(to > from)) return;
     const x0 = xs(from);
     const x1 = xs(to);
+    const half = (band.name.length * 6.5) / 2;
+    const left = (x0 + x1) / 2 - half;
+    const row = left > rowRight[0]! + 4 || left <= rowRight[1]! + 4 ? 0 : 1;
+    rowRight[row] = (x0 + x1) / 2 + half;
     bandParts.push(
       el(
         'g',
         { class: 'band', 'data-band': band.name },
         el('rect', { x: x0, y: area.top, width: x1 - x0, height: area.height, fill: b % 2 === 0 ? '#eeeeee' : '#f7f7f7' }),
-        bandLabel(band.name, x0, x1, area.top),
+        bandLabel(band.name, x0, x1, area.top, row),
       ),
     );
   });
@@ -220,7 +227,7 @@ export function psdPlot(record: FeatureRecord, options: PsdPlotOptions): string 
   const series: SpectrumSeries[] = names.map((name, i) => {
     const channel = result.channels.find((c) => c.name === name)!;
     const peak = channel.features?.peakFrequency;
-    const epochs = showEpochs && result.epochs ? result.epochs.map((e) => e.channels.find((c) => c.name === name)?.psd).filter((p): p is number[] => Array.isArray(p)) : [];
+    const epochs = showEpochs && result.epochs ? result.epochs.slice(0, MAX_EPOCH_LINES).map((e) => e.channels.find((c) => c.name === name)?.psd).filter((p): p is number[] => Array.isArray(p)) : [];
     return {
       label: name,
       colour: seriesColour(i),
@@ -236,7 +243,7 @@ export function psdPlot(record: FeatureRecord, options: PsdPlotOptions): string 
   const title = `Power spectral density: ${names.join(', ')}`;
   const extras = [
     series.some((s) => s.lower) && confidence ? `${Math.round(confidence * 100)} % confidence ribbons` : null,
-    series.some((s) => s.epochs) ? 'single epochs drawn faintly behind the mean' : null,
+    series.some((s) => s.epochs) ? `single epochs drawn faintly behind the mean${(result.epochs?.length ?? 0) > MAX_EPOCH_LINES ? ` (the first ${MAX_EPOCH_LINES} of ${result.epochs!.length})` : ''}` : null,
     ...series.filter((s) => s.peak).map((s) => `${s.label} peak at ${formatNumber(s.peak!.frequency, 2)} Hz`),
   ].filter((x): x is string => x !== null);
   const description =

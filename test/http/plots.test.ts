@@ -7,15 +7,16 @@ import type { JobQueue } from '../../src/jobs/queue.js';
 import { createStore } from '../../src/stores/create-store.js';
 import { demoEpochs, toUploadJson } from '../../src/signals/demo-recording.js';
 import { pollJob, sink, startTestApi } from '../helpers/app.js';
-import { byClass, parseSvg } from '../plots/svg-reader.js';
+import { byClass, labelValue, parseSvg } from '../plots/svg-reader.js';
 
 let api: Awaited<ReturnType<typeof startTestApi>>;
 let welchJob: string;
 let morletJob: string;
+let openJob: string;
 const signal = toUploadJson(demoEpochs('eyes-closed', 'late', 6, 4, 20261201));
 
-async function submit(recipe: Record<string, unknown>): Promise<string> {
-  const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal, recipe } });
+async function submit(recipe: Record<string, unknown>, body: unknown = signal): Promise<string> {
+  const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal: body, recipe } });
   expect(res.statusCode, res.body).toBeLessThan(300);
   const job = await pollJob(api.app, res.json().id, 60_000);
   expect(job.state, JSON.stringify(job.problem)).toBe('succeeded');
@@ -25,6 +26,7 @@ async function submit(recipe: Record<string, unknown>): Promise<string> {
 beforeAll(async () => {
   api = await startTestApi();
   welchJob = await submit({ method: 'welch', features: { peakFrequency: {} } });
+  openJob = await submit({ method: 'welch' }, toUploadJson(demoEpochs('eyes-open', 'late', 6, 4, 20261201)));
   morletJob = await submit({ method: 'morlet', frequencies: { low: 4, high: 30, count: 12 }, decimation: 8 });
 }, 120_000);
 afterAll(async () => {
@@ -56,6 +58,95 @@ describe('when a PSD plot of a succeeded Welch job is asked for', () => {
     expect(res.headers.etag).toBe(first.headers.etag);
     const other = await get(`/v1/jobs/${welchJob}/plots/psd?scale=db`, { 'if-none-match': first.headers.etag as string });
     expect(other.statusCode).toBe(200);
+  });
+});
+
+describe('when a time–frequency plot of a succeeded Morlet job is asked for', () => {
+  it('should read the channel\'s matrix from the store and span the colour bar over it', async () => {
+    const res = await get(`/v1/jobs/${morletJob}/plots/time-frequency?channels=Oz`);
+    expect(res.statusCode, res.body).toBe(200);
+    const record = (await get(`/v1/jobs/${morletJob}/record`)).json();
+    const listed = record.result.timeFrequency.attachments as { name: string; kind: string; channel: string | null }[];
+    const fetch = async (name: string) => (await get(`/v1/jobs/${morletJob}/attachments/${name}`)).rawPayload;
+    const powerBytes = await fetch(listed.find((a) => a.kind === 'power' && a.channel === 'Oz')!.name);
+    const mask = await fetch(listed.find((a) => a.kind === 'edgeMask')!.name);
+    let min = Infinity;
+    let max = -Infinity;
+    for (let i = 0; i < mask.length; i++) {
+      const v = powerBytes.readDoubleLE(i * 8);
+      if (mask[i] !== 1 && Number.isFinite(v)) [min, max] = [Math.min(min, v), Math.max(max, v)];
+    }
+    const doc = parseSvg(res.body);
+    const ends = byClass(doc, 'colour-bar-end').map((t) => labelValue(t.textContent!));
+    expect(Math.abs(ends[0]! - 10 * Math.log10(min))).toBeLessThan(0.01);
+    expect(Math.abs(ends[1]! - 10 * Math.log10(max))).toBeLessThan(0.01);
+    expect(byClass(doc, 'panel').map((p) => p.getAttribute('data-channel'))).toEqual(['Oz']);
+  });
+
+  it('should refuse a time–frequency plot of a Welch record and a bands plot of a Morlet record', async () => {
+    const tf = await get(`/v1/jobs/${welchJob}/plots/time-frequency`);
+    expect(tf.statusCode).toBe(422);
+    expect(tf.json().allowed).toEqual(['psd', 'bands']);
+    const bands = await get(`/v1/jobs/${morletJob}/plots/bands`);
+    expect(bands.statusCode).toBe(422);
+    expect(bands.json().allowed).toEqual(['time-frequency']);
+  });
+
+  it('should draw the bands of a Welch job', async () => {
+    const res = await get(`/v1/jobs/${welchJob}/plots/bands?value=relative&channels=O2`);
+    expect(res.statusCode, res.body).toBe(200);
+    expect(byClass(parseSvg(res.body), 'bar')).toHaveLength(5);
+  });
+});
+
+describe('when two jobs are compared', () => {
+  it('should overlay their PSDs of the channel with the given labels, with an ETag', async () => {
+    const url = `/v1/plots/compare?jobs=${welchJob},${openJob}&channel=O1&labels=eyes%20closed,eyes%20open&frequencyRange=1,40`;
+    const res = await get(url);
+    expect(res.statusCode, res.body).toBe(200);
+    expect(byClass(parseSvg(res.body), 'series').map((l) => l.getAttribute('data-series'))).toEqual(['eyes closed', 'eyes open']);
+    expect((await get(url, { 'if-none-match': res.headers.etag as string })).statusCode).toBe(304);
+  });
+
+  it('should point at what is wrong', async () => {
+    const labels = await get(`/v1/plots/compare?jobs=${welchJob},${openJob}&channel=O1&labels=one`);
+    expect(labels.statusCode).toBe(400);
+    expect(labels.json().pointer).toBe('/query/labels');
+    const channel = await get(`/v1/plots/compare?jobs=${welchJob},${openJob}&channel=T7`);
+    expect(channel.statusCode).toBe(400);
+    expect(channel.json().pointer).toBe('/query/channel');
+    const method = await get(`/v1/plots/compare?jobs=${welchJob},${morletJob}&channel=O1`);
+    expect(method.statusCode).toBe(422);
+    expect(method.json().pointer).toBe('/query/jobs');
+    const one = await get(`/v1/plots/compare?jobs=${welchJob}&channel=O1`);
+    expect(one.statusCode).toBe(400);
+    expect(one.json().pointer).toBe('/query/jobs');
+  });
+});
+
+describe('when a study run is drawn per condition', () => {
+  it('should draw one mean with its spread per condition over the run\'s succeeded entries', async () => {
+    const post = (url: string, payload: unknown) => api.app.inject({ method: 'POST', url, payload: payload as Record<string, unknown> });
+    const entries = [];
+    for (const [i, condition] of (['eyes-closed', 'eyes-open', 'eyes-closed', 'eyes-open'] as const).entries()) {
+      const res = await post('/v1/signals', toUploadJson(demoEpochs(condition, 'early', 2, 4, 700 + i)));
+      expect(res.statusCode, res.body).toBe(201);
+      entries.push({ signal: res.json().id, metadata: { subject: `p0${1 + (i >> 1)}`, condition } });
+    }
+    const study = (await post('/v1/studies', { name: 'plot study' })).json().id as string;
+    expect((await post(`/v1/studies/${study}/entries`, { entries })).statusCode).toBe(201);
+    const run = (await post(`/v1/studies/${study}/runs`, { recipe: { method: 'welch' } })).json().id as string;
+    const deadline = Date.now() + 60_000;
+    while ((await get(`/v1/studies/${study}/runs/${run}`)).json().state === 'running' && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
+    const res = await get(`/v1/studies/${study}/runs/${run}/plots/psd?channel=Oz`);
+    expect(res.statusCode, res.body).toBe(200);
+    const doc = parseSvg(res.body);
+    expect(byClass(doc, 'series').map((l) => l.getAttribute('data-series'))).toEqual(['eyes-closed (n = 2)', 'eyes-open (n = 2)']);
+    expect(byClass(doc, 'spread')).toHaveLength(2);
+    const key = await get(`/v1/studies/${study}/runs/${run}/plots/psd?channel=Oz&by=shift`);
+    expect(key.statusCode).toBe(400);
+    expect(key.json().pointer).toBe('/query/by');
+    expect(key.json().allowed).toEqual(['condition', 'subject']);
   });
 });
 
