@@ -5,6 +5,7 @@ import { apiKey, requestJson, setApiKey } from './api.js';
 import { h, replace } from './dom.js';
 import { showJob } from './job.js';
 import { createJobList } from './list.js';
+import { showStudies, showStudy } from './study.js';
 import { createSubmitForm } from './submit.js';
 
 const main = /** @type {HTMLElement} */ (document.getElementById('main'));
@@ -42,19 +43,42 @@ let leaving = null;
 async function route() {
   leaving?.abort();
   leaving = new AbortController();
-  const match = /^#\/jobs\/([\w-]{1,200})$/.exec(location.hash);
-  if (match?.[1]) {
-    document.title = `Job ${match[1]} · rhythmetric`;
-    await showJob(main, match[1], leaving.signal);
+  const hash = location.hash;
+  markCurrent(hash.startsWith('#/studies') ? 'studies' : 'jobs');
+  const job = /^#\/jobs\/([\w-]{1,200})$/.exec(hash);
+  if (job?.[1]) {
+    document.title = `Job ${job[1]} · rhythmetric`;
+    await showJob(main, job[1], leaving.signal);
+    return;
+  }
+  const study = /^#\/studies\/([\w-]{1,200})$/.exec(hash);
+  if (study?.[1]) {
+    document.title = 'Study · rhythmetric';
+    await showStudy(main, study[1], leaving.signal);
+    return;
+  }
+  if (hash === '#/studies') {
+    document.title = 'Studies · rhythmetric';
+    await showStudies(main);
     return;
   }
   document.title = 'Jobs · rhythmetric';
   const submitArea = h('section', { class: 'panel', id: 'submit' });
   const listArea = h('section', { class: 'panel', id: 'jobs' });
   replace(main, submitArea, listArea);
-  const list = createJobList(listArea, announce, leaving.signal);
+  // #/?study=… opens the list filtered by a study (the study view links there).
+  const query = new URLSearchParams(hash.split('?')[1] ?? '');
+  const list = createJobList(listArea, announce, leaving.signal, { study: query.get('study') ?? '' });
   createSubmitForm(submitArea, { announce, submitted: () => void list.reload() });
   await list.reload();
+}
+
+/** @param {'jobs' | 'studies'} current */
+function markCurrent(current) {
+  for (const link of document.querySelectorAll('nav.site a')) {
+    if (link.getAttribute('data-view') === current) link.setAttribute('aria-current', 'page');
+    else link.removeAttribute('aria-current');
+  }
 }
 
 showKeyState();

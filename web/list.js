@@ -14,8 +14,9 @@ const STATES = ['queued', 'running', 'succeeded', 'failed', 'canceled'];
  * @param {HTMLElement} root
  * @param {(message: string) => void} announce
  * @param {AbortSignal} leaving aborted when the user leaves the list; ends its event stream
+ * @param {{ study?: string }} [initial] filters to start with
  */
-export function createJobList(root, announce, leaving) {
+export function createJobList(root, announce, leaving, initial = {}) {
   /** cursors of the pages before the current one; the current page's own cursor is the last */
   /** @type {(string | null)[]} */
   let cursors = [null];
@@ -26,7 +27,7 @@ export function createJobList(root, announce, leaving) {
 
   const stateFilter = h('select', { id: 'filter-state', name: 'state' }, h('option', { value: '' }, 'any state'), STATES.map((s) => h('option', { value: s }, s)));
   const methodFilter = h('select', { id: 'filter-method', name: 'method' }, h('option', { value: '' }, 'any method'));
-  const studyFilter = h('input', { id: 'filter-study', name: 'study', type: 'text', autocomplete: 'off', spellcheck: 'false' });
+  const studyFilter = h('input', { id: 'filter-study', name: 'study', type: 'text', autocomplete: 'off', spellcheck: 'false', value: initial.study ?? '' });
   const afterFilter = h('input', { id: 'filter-after', name: 'createdAfter', type: 'datetime-local', step: '1' });
   const beforeFilter = h('input', { id: 'filter-before', name: 'createdBefore', type: 'datetime-local', step: '1' });
   const filterProblem = h('p', { id: 'filter-problem', class: 'problem', hidden: true });

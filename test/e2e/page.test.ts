@@ -189,6 +189,38 @@ describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real
     expect(ink.coloured).toBeGreaterThan(200);
     await page.screenshot({ path: join(SHOTS, '5-job.png'), fullPage: true });
   });
+  it('should show a study run\'s progress, its table and its mean PSD per condition', async () => {
+    const post = async (path: string, body: unknown) => {
+      const res = await fetch(`${base}${path}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+      expect(res.status, await res.clone().text()).toBeLessThan(300);
+      return (await res.json()) as { id: string };
+    };
+    const open = await post('/v1/signals', toUploadJson(demoEpochs('eyes-open', 'late', 4, 4, 1002)));
+    const closed = await post('/v1/signals', toUploadJson(demoEpochs('eyes-closed', 'late', 4, 4, 1004)));
+    const study = await post('/v1/studies', { name: 'late-shift rest blocks' });
+    await post(`/v1/studies/${study.id}/entries`, {
+      entries: [
+        { signal: open.id, metadata: { subject: 'p01', condition: 'eyes-open' } },
+        { signal: closed.id, metadata: { subject: 'p01', condition: 'eyes-closed' } },
+      ],
+    });
+    const run = await post(`/v1/studies/${study.id}/runs`, { recipe: { method: 'welch' } });
+
+    await page.goto(`${base}/#/studies`);
+    await page.getByRole('link', { name: 'late-shift rest blocks' }).click();
+    const card = page.locator('section.run').first();
+    await expect.poll(() => card.locator('.state').first().innerText(), { timeout: 30_000 }).toMatch(/succeeded/);
+    expect(await card.innerText()).toMatch(/2 in all: 2 succeeded, 0 failed/);
+    expect(await card.locator('h3').innerText()).toContain(run.id);
+    const plot = card.locator('figure[data-plot="run-psd"] svg');
+    await plot.waitFor({ timeout: 20_000 });
+    const texts = (await plot.locator('text').allTextContents()).join(' | ');
+    // One group per condition of the entries' metadata.
+    expect(texts).toContain('eyes-open');
+    expect(texts).toContain('eyes-closed');
+    expect(await page.getByRole('button', { name: /Run table/ }).count()).toBe(1);
+    await page.screenshot({ path: join(SHOTS, '6-study.png'), fullPage: true });
+  });
 });
 
 describe.skipIf(!HAVE_CHROMIUM)('when the service asks for API keys', { timeout: 90_000 }, () => {
