@@ -3,7 +3,7 @@ import { existsSync } from 'node:fs';
 import { mkdir, mkdtemp, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoEpochs, toUploadJson } from '../../src/signals/demo-recording.js';
 import { startTestApi } from '../helpers/app.js';
@@ -20,41 +20,57 @@ if (!HAVE_CHROMIUM) console.warn(`[skip] browser test skipped: no Chromium at ${
 
 const SHOTS = resolve(import.meta.dirname, '..', '..', 'test-output', 'e2e');
 
-type Api = Awaited<ReturnType<typeof startTestApi>>;
-let api: Api;
+/**
+ * An embedded-mode service on a random loopback port (fresh data directory) and a headless
+ * Chromium with a fresh profile, on its page.
+ */
+async function startSession(env: Record<string, string> = {}) {
+  const api = await startTestApi(env);
+  const base = await api.app.listen({ port: 0, host: '127.0.0.1' });
+  const work = await mkdtemp(join(tmpdir(), 'rhythmetric-e2e-'));
+  const context = await chromium.launchPersistentContext(join(work, 'profile'), {
+    executablePath: CHROMIUM,
+    headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    viewport: { width: 1280, height: 900 },
+  });
+  const page = context.pages()[0] ?? (await context.newPage());
+  page.on('pageerror', (error) => console.error('page error:', error));
+  await page.goto(`${base}/`);
+  return {
+    api,
+    base,
+    work,
+    context,
+    page,
+    async close() {
+      await context.close();
+      await api.stop();
+      await rm(work, { recursive: true, force: true });
+    },
+  };
+}
+
+let session: Awaited<ReturnType<typeof startSession>> | undefined;
 let base: string;
-let context: BrowserContext;
 let page: Page;
-let work: string;
 let demoFile: string;
 
 // Generous: the suite shares two cores with the rest of `npm test`; no check here is about speed.
 describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real browser', { timeout: 90_000 }, () => {
   beforeAll(async () => {
-    api = await startTestApi();
-    base = await api.app.listen({ port: 0, host: '127.0.0.1' });
-    work = await mkdtemp(join(tmpdir(), 'rhythmetric-e2e-'));
+    session = await startSession();
+    ({ base, page } = session);
     await mkdir(SHOTS, { recursive: true });
     // The invented demo study: ten 4-s epochs with the eyes closed, late in the shift.
-    demoFile = join(work, 'eyes-closed-late.json');
+    demoFile = join(session.work, 'eyes-closed-late.json');
     await writeFile(demoFile, JSON.stringify(toUploadJson(demoEpochs('eyes-closed', 'late', 10, 4, 1003))));
-    context = await chromium.launchPersistentContext(join(work, 'profile'), {
-      executablePath: CHROMIUM,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-      viewport: { width: 1280, height: 900 },
-    });
-    page = context.pages()[0] ?? (await context.newPage());
-    page.on('pageerror', (error) => console.error('page error:', error));
-    await page.goto(`${base}/`);
     await page.locator('#recipe-method option[value="welch"]').waitFor({ state: 'attached' });
     await page.locator('#recipe-overlap').waitFor();
   }, 60_000);
 
   afterAll(async () => {
-    await context?.close();
-    await api?.stop();
-    if (work) await rm(work, { recursive: true, force: true });
+    await session?.close();
   });
 
   it('should say visibly that it is research software, not a medical device', async () => {
@@ -225,31 +241,18 @@ describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real
 
 describe.skipIf(!HAVE_CHROMIUM)('when the service asks for API keys', { timeout: 90_000 }, () => {
   const KEY = 'e2e-key-4b1f0c7d9a';
-  let keyed: Api;
-  let keyedContext: BrowserContext;
-  let keyedWork: string;
+  let keyed: Awaited<ReturnType<typeof startSession>> | undefined;
 
   beforeAll(async () => {
-    keyed = await startTestApi({ API_KEYS: `lab-e2e:submit:${createHash('sha256').update(KEY).digest('hex')}:browser` });
-    const address = await keyed.app.listen({ port: 0, host: '127.0.0.1' });
-    keyedWork = await mkdtemp(join(tmpdir(), 'rhythmetric-e2e-keys-'));
-    keyedContext = await chromium.launchPersistentContext(join(keyedWork, 'profile'), {
-      executablePath: CHROMIUM,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    });
-    const tab = keyedContext.pages()[0] ?? (await keyedContext.newPage());
-    await tab.goto(`${address}/`);
+    keyed = await startSession({ API_KEYS: `lab-e2e:submit:${createHash('sha256').update(KEY).digest('hex')}:browser` });
   }, 60_000);
 
   afterAll(async () => {
-    await keyedContext?.close();
-    await keyed?.stop();
-    if (keyedWork) await rm(keyedWork, { recursive: true, force: true });
+    await keyed?.close();
   });
 
   it('should say that a key is needed, then use a typed key kept in session storage only', async () => {
-    const tab = keyedContext.pages()[0]!;
+    const tab = keyed!.page;
     await expect.poll(() => tab.locator('#filter-problem').innerText(), { timeout: 20_000 }).toMatch(/API key/);
     await tab.fill('#api-key', KEY);
     await tab.press('#api-key', 'Enter');
