@@ -135,6 +135,23 @@ describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real
     expect(jobs.jobs).toEqual([]);
   });
 
+  it('should put a binary upload\'s problem beside the upload setting it names', async () => {
+    // 2 channels × 256 little-endian float32 samples, but no sampling rate given.
+    const raw = join(session!.work, 'two-channels.f32');
+    await writeFile(raw, Buffer.from(new Float32Array(512).map((_, i) => Math.sin(i / 5)).buffer));
+    await page.setInputFiles('#signal-file', raw);
+    await page.fill('#recipe-overlap', '');
+    expect(await page.isVisible('#signal-samplingRate')).toBe(true);
+    await page.fill('#signal-channels', 'C3,C4');
+    await page.click('#submit-button');
+    const problem = page.locator('#signal-samplingRate-problem');
+    await problem.waitFor({ state: 'visible' });
+    expect(await problem.innerText()).toMatch(/samplingRate/);
+    expect(await page.getAttribute('#signal-samplingRate', 'aria-invalid')).toBe('true');
+    await page.setInputFiles('#signal-file', demoFile);
+    expect(await page.isVisible('#signal-samplingRate')).toBe(false);
+  });
+
   it('should upload the demo recording, submit a Welch recipe and show the job reach succeeded live', async () => {
     await page.evaluate(() => ((window as unknown as { marker: string }).marker = 'not reloaded'));
     // Record every state the list shows, to see the job change without a reload.
