@@ -29,6 +29,7 @@ const BLOCKS: readonly Block[] = [
   { name: '2-hour recording', file: 'recording.ts', exportName: 'benchRecording' },
   { name: 'load (autocannon)', file: 'load.ts', exportName: 'benchLoad' },
   { name: 'study run', file: 'study.ts', exportName: 'benchStudy' },
+  { name: 'table export', file: 'tables.ts', exportName: 'benchTables' },
 ];
 
 function machine(): string[] {

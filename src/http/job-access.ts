@@ -24,13 +24,18 @@ export async function requireJob(queue: JobQueue, id: string, tenant: string): P
   return job;
 }
 
-/** The record of the tenant's succeeded job; 409 while the job has not succeeded. */
-export async function requireRecord(queue: JobQueue, store: Store, id: string, tenant: string, what: string): Promise<FeatureRecord> {
+/** The record of the tenant's succeeded job and its store key (attachments sit beside it); 409 while the job has not succeeded. */
+export async function requireStoredRecord(queue: JobQueue, store: Store, id: string, tenant: string, what: string): Promise<{ record: FeatureRecord; recordKey: string }> {
   const job = await requireJob(queue, id, tenant);
   if (job.state !== 'succeeded') {
     throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}${job.problem ? `: ${job.problem.detail}` : ''}; ${what} once it has succeeded`);
   }
   const text = await store.getDocument('records', job.recordKey);
   if (text === null) throw new ProblemError('internal', `the record of job ${id} is missing from the store`);
-  return JSON.parse(text) as FeatureRecord;
+  return { record: JSON.parse(text) as FeatureRecord, recordKey: job.recordKey };
+}
+
+/** The record of the tenant's succeeded job; 409 while the job has not succeeded. */
+export async function requireRecord(queue: JobQueue, store: Store, id: string, tenant: string, what: string): Promise<FeatureRecord> {
+  return (await requireStoredRecord(queue, store, id, tenant, what)).record;
 }

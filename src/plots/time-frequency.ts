@@ -206,21 +206,21 @@ function heatMap(matrix: Float64Array, T: number, F: number, tEdges: number[], f
   return rects;
 }
 
-/** Edge cells, hatched: runs along time merged. */
-function edgeCells(mask: Uint8Array, T: number, F: number, tEdges: number[], fEdges: number[], xs: Scale, ys: Scale, fill: string): string[] {
+/** Rects over the cells where `on(i)` holds (i = t·F + f), runs along time merged: edge cells, cells without a value. */
+function markedCells(on: (i: number) => boolean, T: number, F: number, tEdges: number[], fEdges: number[], xs: Scale, ys: Scale, cls: string, fill: string): string[] {
   const rects: string[] = [];
   for (let f = 0; f < F; f++) {
     let t = 0;
     while (t < T) {
-      if (mask[t * F + f] !== 1) {
+      if (!on(t * F + f)) {
         t++;
         continue;
       }
       let end = t + 1;
-      while (end < T && mask[end * F + f] === 1) end++;
+      while (end < T && on(end * F + f)) end++;
       const x0 = xs(tEdges[t]!);
       const y0 = ys(fEdges[f + 1]!);
-      rects.push(el('rect', { class: 'edge-cell', x: x0, y: y0, width: xs(tEdges[end]!) - x0, height: ys(fEdges[f]!) - y0, fill }));
+      rects.push(el('rect', { class: cls, x: x0, y: y0, width: xs(tEdges[end]!) - x0, height: ys(fEdges[f]!) - y0, fill }));
       t = end;
     }
   }
@@ -288,10 +288,11 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
     for (let i = 0; i < T * F; i++) if (Number.isFinite(m[i]!) && (!mask || mask[i] !== 1)) values.push(m[i]!);
   }
   const axis = colourAxis(result, values, options.scale ?? 'db');
+  const hasUndefined = names.some((name) => matrices.power[name]!.some((v) => !Number.isFinite(v)));
   const log = isLogSpaced(frequencies);
   const tEdges = edgesOf(times, false);
   const fEdges = edgesOf(frequencies, log);
-  const outer = plotArea(options, { left: 72, right: 120, top: 50, bottom: mask ? 66 : 50 });
+  const outer = plotArea(options, { left: 72, right: 120, top: 50, bottom: mask || hasUndefined ? 66 : 50 });
   const gap = 40;
   const panelHeight = (outer.height - gap * (names.length - 1)) / names.length;
   const title = `${tf.method === 'morlet' ? 'Morlet' : 'Spectrogram'} power: ${names.join(', ')}`;
@@ -299,11 +300,21 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
     `${tf.method === 'morlet' ? 'Morlet wavelet' : 'Spectrogram'} power of ${names.join(', ')} from ${formatValue(times[0]!)} to ${formatValue(times[T - 1]!)} s ` +
     `(${tf.timeOrigin === 'event' ? 'relative to the event' : 'from the epoch start'}) and ${formatValue(frequencies[0]!)} to ${formatValue(frequencies[F - 1]!)} Hz on a ${log ? 'logarithmic' : 'linear'} frequency axis; ` +
     `colour: ${axis.label}, from ${axis.endLabels[0]} to ${axis.endLabels[1]}${axis.diverging ? ', diverging around no change' : ''}` +
-    `${mask ? '; hatched cells are edge cells, where the wavelet reaches past the epoch' : ''}` +
+    `${mask ? '; hatched cells are edge cells, where the wavelet reaches past the epoch' : ''}${hasUndefined ? '; dotted cells have no value (for example an undefined baseline)' : ''}` +
     `${T > Math.floor(outer.width) ? `; the ${T} times are averaged into ${Math.floor(outer.width)} columns, one per pixel` : ''}. Signal ${record.input.signal}, result ${record.resultHash.slice(0, 12)}.`;
   const idBase = idBaseOf(title, description, String(options.width), String(options.height));
   const hatch = `${idBase}-hatch`;
-  const defs = [el('pattern', { id: hatch, patternUnits: 'userSpaceOnUse', width: 6, height: 6 }, el('path', { d: 'M0,6 L6,0 M-1,1 L1,-1 M5,7 L7,5', stroke: '#ffffff', 'stroke-width': 1.2, 'stroke-opacity': 0.85 }))];
+  const dots = `${idBase}-dots`;
+  // Light and dark strokes side by side, so the hatching shows on pale and on deep colours alike.
+  const defs = [
+    el(
+      'pattern',
+      { id: hatch, patternUnits: 'userSpaceOnUse', width: 8, height: 8 },
+      el('path', { d: 'M0,8 L8,0 M-2,2 L2,-2 M6,10 L10,6', stroke: '#ffffff', 'stroke-width': 1.3, 'stroke-opacity': 0.85 }),
+      el('path', { d: 'M-2,8 L6,0 M2,10 L10,2', stroke: '#333333', 'stroke-width': 1, 'stroke-opacity': 0.6 }),
+    ),
+    el('pattern', { id: dots, patternUnits: 'userSpaceOnUse', width: 5, height: 5 }, el('rect', { x: 0, y: 0, width: 5, height: 5, fill: '#ffffff' }), el('circle', { cx: 2.5, cy: 2.5, r: 1, fill: '#666666' })),
+  ];
   const panels: string[] = [];
   names.forEach((name, i) => {
     const area: Area = { left: outer.left, top: outer.top + i * (panelHeight + gap), width: outer.width, height: panelHeight };
@@ -321,15 +332,17 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
         yAxis(area, ys, yTicks, 'Frequency (Hz)', 46),
         xAxis(area, xs, linearTicks(tEdges[0]!, tEdges[T]!, 8), i < names.length - 1 ? '' : tf.timeOrigin === 'event' ? 'Time from event (s)' : 'Time from epoch start (s)'),
         el('g', { class: 'heat-map', 'clip-path': `url(#${clip})` }, ...heatMap(shown.display, shown.T, F, shown.tEdges, fEdges, xs, ys, axis)),
-        shown.mask ? el('g', { class: 'edge-cells', 'clip-path': `url(#${clip})` }, ...edgeCells(shown.mask, shown.T, F, shown.tEdges, fEdges, xs, ys, `url(#${hatch})`)) : '',
+        el('g', { class: 'no-values' }, ...markedCells((j) => !Number.isFinite(shown.display[j]!), shown.T, F, shown.tEdges, fEdges, xs, ys, 'no-value', `url(#${dots})`)),
+        shown.mask ? el('g', { class: 'edge-cells', 'clip-path': `url(#${clip})` }, ...markedCells((j) => shown.mask![j] === 1, shown.T, F, shown.tEdges, fEdges, xs, ys, 'edge-cell', `url(#${hatch})`)) : '',
         textEl('text', { class: 'panel-title', x: area.left + 4, y: area.top - 5, 'font-weight': 'bold' }, name),
       ),
     );
   });
   const body = [el('defs', {}, ...defs), ...panels, colourBar(outer, axis)];
+  const keys: string[] = [];
+  const y = outer.top + outer.height + 54;
   if (mask) {
-    const y = outer.top + outer.height + 54;
-    body.push(
+    keys.push(
       el(
         'g',
         { class: 'edge-key' },
@@ -339,6 +352,11 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
       ),
     );
   }
+  if (hasUndefined) {
+    const x = outer.left + (mask ? 400 : 0);
+    keys.push(el('g', { class: 'no-value-key' }, el('rect', { x, y: y - 10, width: 18, height: 12, fill: `url(#${dots})`, stroke: '#999999', 'stroke-width': 0.5 }), textEl('text', { x: x + 24, y, 'font-size': 11 }, 'dotted: no value')));
+  }
+  body.push(...keys);
   return svgDocument(options, title, description, body, idBase);
 }
 

@@ -36,7 +36,7 @@ const c = (name: string, type: ColumnType, unit: string | null, meaning: string)
 export const ENTRY_COLUMN = c('entry', 'string', null, 'the study entry the row comes from (run-level tables only)');
 export const SIGNAL_COLUMN = c('signal', 'string', null, 'id of the stored signal the record was computed from');
 export const LOCATION_COLUMNS: readonly Column[] = [
-  c('scope', 'string', null, '"mean" over every used epoch, "label-mean" over the epochs of one event label, or "epoch" for one epoch'),
+  c('scope', 'string', null, '"mean" over every used epoch, "label-mean" over the epochs of one event or block label, or "epoch" for one epoch'),
   c('epoch', 'integer', null, 'index of the analysed epoch (as in the record); empty for means'),
   c('epochStart', 'double', 's', 'start of the epoch, in seconds from the start of the stored signal; empty for means and for uploaded epochs, which have no time line'),
   c('label', 'string', null, 'event or block label of the epoch (events or blocks epoching), or of a label mean; empty otherwise'),
@@ -49,12 +49,16 @@ export const PROVENANCE_COLUMNS: readonly Column[] = [
   c('resultHash', 'string', null, "SHA-256 of the record's canonical result: rows with equal hashes come from identical results"),
 ];
 
+const BAND_COLUMNS: readonly Column[] = [
+  c('band', 'string', null, 'band name from the recipe'),
+  c('low', 'double', 'Hz', 'lower band edge, included'),
+  c('high', 'double', 'Hz', 'upper band edge, excluded'),
+];
+
 /** Value columns of each level that do not depend on the recipe. */
 export const LEVEL_COLUMNS: Record<Exclude<TableLevel, 'features'>, readonly Column[]> = {
   bands: [
-    c('band', 'string', null, 'band name from the recipe'),
-    c('low', 'double', 'Hz', 'lower band edge, included'),
-    c('high', 'double', 'Hz', 'upper band edge, excluded'),
+    ...BAND_COLUMNS,
     c('absolute', 'double', 'signal unit²', 'Σ PSD·Δf over the bins low ≤ f < high'),
     c('relative', 'double', '1', "absolute over the same sum across the recipe's frequencyRange; empty when that total is 0"),
     c('decibels', 'double', 'dB re 1 signal unit²', '10·log10(absolute); empty when absolute is 0'),
@@ -89,9 +93,7 @@ export const LEVEL_COLUMNS: Record<Exclude<TableLevel, 'features'>, readonly Col
     c('cells', 'integer', null, 'time–frequency cells averaged'),
   ],
   'pair-bands': [
-    c('band', 'string', null, 'band name from the recipe'),
-    c('low', 'double', 'Hz', 'lower band edge, included'),
-    c('high', 'double', 'Hz', 'upper band edge, excluded'),
+    ...BAND_COLUMNS,
     c('bins', 'integer', null, 'frequency bins in the band'),
     c('coherence', 'double', '1', 'magnitude-squared coherence over the band'),
     c('imaginaryCoherency', 'double', '1', 'imaginary part of coherency over the band'),

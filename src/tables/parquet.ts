@@ -46,6 +46,9 @@ export function createParquetWriter(columns: readonly Column[], options: { rowGr
     writer: bytes,
     schema: parquetSchema(columns),
     codec: 'SNAPPY',
+    // Min/max statistics let query engines skip row groups, but cost about 40 % of the export time
+    // (measured here), and tables are read whole by the statistics packages they are made for.
+    statistics: false,
     kvMetadata: [{ key: 'rhythmetric.columns', value: JSON.stringify(columns) }],
     createdBy: 'rhythmetric',
   });

@@ -90,8 +90,9 @@ export function metadataColumns(entries: Iterable<EntryMetadata>): { name: strin
 const percentileName = (p: number) => `spectralEdge${String(p).replace('.', '_')}`;
 
 function featureGetters(record: FeatureRecord): { column: Column; get: Getter }[] {
-  if (kindOf(record) !== 'spectrum') return [];
-  const named = record.recipe.method === 'connectivity' || record.recipe.method === 'morlet' || record.recipe.method === 'spectrogram' ? {} : record.recipe.features;
+  const recipe = record.recipe;
+  if (!('features' in recipe)) return [];
+  const named = recipe.features;
   const cols = FEATURE_COLUMNS;
   const out: { column: Column; get: Getter }[] = [];
   const add = (column: Column, get: Getter, name = column.name) => out.push({ column: { ...column, name }, get });
@@ -159,7 +160,7 @@ export function createTableLayout(record: FeatureRecord, level: TableLevel, opti
   }
   const metadata = options.metadata ?? [];
   const features = level === 'features' ? featureGetters(record) : [];
-  const confidence = level === 'spectra' && record.recipe.method !== 'connectivity' && record.recipe.method !== 'morlet' && record.recipe.method !== 'spectrogram' && record.recipe.confidence !== null;
+  const confidence = level === 'spectra' && 'confidence' in record.recipe && record.recipe.confidence !== null;
   const values = level === 'features' ? features.map((f) => f.column) : [...LEVEL_COLUMNS[level], ...(confidence ? CONFIDENCE_COLUMNS : [])];
   const columns: Column[] = [
     ...(options.entry ? [ENTRY_COLUMN] : []),

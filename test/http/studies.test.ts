@@ -335,8 +335,9 @@ describe('when a study is run', () => {
   });
 
   it('should cancel a run: its queued jobs are canceled and no further job is queued', async () => {
-    // Multitaper jobs; the first window may finish before the cancel lands, the rest must not start.
-    const heavy = { method: 'multitaper', timeBandwidth: 4.5, taperCount: 8, bands: RECIPE.bands };
+    // Multitaper jobs of 15 tapers and 16384-point transforms take long enough that the cancel lands
+    // while the first window is still computing; the rest must never reach the queue.
+    const heavy = { method: 'multitaper', timeBandwidth: 8, taperCount: 15, fftLength: 16384, bands: RECIPE.bands };
     const res = await a.post(`/v1/studies/${study}/runs`, { recipe: heavy });
     expect(res.json().counts.waiting).toBe(4);
     const canceled = await a.del(`/v1/studies/${study}/runs/${res.json().id}`);

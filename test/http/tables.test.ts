@@ -119,3 +119,66 @@ describe('when the table cannot be given', () => {
     expect(res.json()).toMatchObject({ type: '/problems/job-not-found' });
   });
 });
+
+describe('when a binary (float32) upload carries events', () => {
+  // Samples k/8 − 4 are exact in float32, so the binary and the JSON upload hold the same numbers.
+  const fs = 128;
+  const channels = ['O1', 'O2'];
+  const seconds = 12;
+  const rows = channels.map((_, c) => Array.from({ length: seconds * fs }, (_, i) => ((i * (c + 3)) % 64) / 8 - 4));
+  const events = [
+    { onset: 0, duration: 6, label: 'eyes-open' },
+    { onset: 6, duration: 6, label: 'eyes-closed' },
+    { onset: 7.5, duration: null, label: 'blink' },
+  ];
+  const body = () => {
+    const bytes = Buffer.alloc(channels.length * seconds * fs * 4);
+    rows.flat().forEach((v, i) => bytes.writeFloatLE(v, i * 4));
+    return bytes;
+  };
+  const binary = (query: string) => api.app.inject({ method: 'POST', url: `/v1/signals?samplingRate=${fs}&channels=${channels.join(',')}${query}`, headers: { ...auth(KEYS.lab), 'content-type': 'application/octet-stream' }, payload: body() });
+
+  it('should store the events as a JSON upload does: the same samples and events give the same signal id', async () => {
+    const fromBinary = await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`);
+    expect(fromBinary.statusCode, fromBinary.body).toBe(201);
+    const fromJson = await api.app.inject({ method: 'POST', url: '/v1/signals', headers: auth(KEYS.lab), payload: { samplingRate: fs, channels, data: rows, events } });
+    expect(fromJson.statusCode, fromJson.body).toBe(201);
+    expect(fromBinary.json().id).toBe(fromJson.json().id);
+    expect(fromBinary.json().events).toEqual(events);
+    const without = await binary('');
+    expect(without.json().id).not.toBe(fromBinary.json().id);
+  });
+
+  it('should take the events in the body of a resumable upload, giving the same signal', async () => {
+    const started = await api.app.inject({ method: 'POST', url: '/v1/uploads', headers: auth(KEYS.lab), payload: { format: 'float32', samplingRate: fs, channels, events } });
+    expect(started.statusCode, started.body).toBe(201);
+    const upload = started.json().id as string;
+    const part = await api.app.inject({ method: 'PUT', url: `/v1/uploads/${upload}/parts/1`, headers: { ...auth(KEYS.lab), 'content-type': 'application/octet-stream' }, payload: body() });
+    expect(part.statusCode, part.body).toBe(200);
+    const done = await api.app.inject({ method: 'POST', url: `/v1/uploads/${upload}/complete`, headers: auth(KEYS.lab), payload: {} });
+    expect(done.statusCode, done.body).toBe(201);
+    const fromBinary = await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`);
+    expect(done.json().id).toBe(fromBinary.json().id);
+  });
+
+  it('should cut epochs inside the uploaded blocks and show their labels in the table', async () => {
+    const id = (await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`)).json().id as string;
+    const submitted = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: id, recipe: { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-open', 'eyes-closed'], lengthSeconds: 2 } } } });
+    expect(submitted.statusCode, submitted.body).toBe(202);
+    const job = await pollJob(api.app, submitted.json().id, 60_000, auth(KEYS.lab));
+    expect(job.state, JSON.stringify(job.problem)).toBe('succeeded');
+    const table = csvObjects((await get(`/v1/jobs/${job.id as string}/table?level=bands`)).body);
+    const epochs = table.filter((r) => r.scope === 'epoch' && r.channel === 'O1' && r.band === 'alpha');
+    // Two 6-s blocks, three 2-s epochs each; the blink marker has no duration and tiles nothing.
+    expect(epochs.map((r) => [r.epochStart, r.label])).toEqual([['0', 'eyes-open'], ['2', 'eyes-open'], ['4', 'eyes-open'], ['6', 'eyes-closed'], ['8', 'eyes-closed'], ['10', 'eyes-closed']]);
+  });
+
+  it('should refuse events that are not JSON, or an event without a label, pointing into the query', async () => {
+    const broken = await binary('&events=%5B%7Bonset');
+    expect(broken.statusCode).toBe(400);
+    expect(broken.json()).toMatchObject({ type: '/problems/invalid-request', pointer: '/query/events' });
+    const unlabelled = await binary(`&events=${encodeURIComponent(JSON.stringify([{ onset: 1, duration: 2 }]))}`);
+    expect(unlabelled.statusCode).toBe(400);
+    expect(unlabelled.json()).toMatchObject({ pointer: '/query/events/0/label' });
+  });
+});

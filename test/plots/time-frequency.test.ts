@@ -104,7 +104,8 @@ describe('when Morlet power of the demo study is drawn as a heat map', () => {
 });
 
 describe('when baseline-normalized power is drawn', () => {
-  const record = timeFrequency(demoRecord({ method: 'morlet', frequencies: { low: 4, high: 30, count: 16 }, decimation: 4, baseline: { start: 1, end: 2, mode: 'decibel' } }, 'eyes-closed', 'late', 3, 4));
+  // At 2 Hz the wavelet overhangs the whole 0.5–1.5 s baseline, so that row has no defined value.
+  const record = timeFrequency(demoRecord({ method: 'morlet', frequencies: { low: 2, high: 30, count: 16 }, decimation: 4, baseline: { start: 0.5, end: 1.5, mode: 'decibel' } }, 'eyes-closed', 'late', 3, 4));
   const m = matrices(record, ['O1']);
   const doc = parseSvg(timeFrequencyPlot(record, { width: 700, height: 400 }, m));
 
@@ -119,6 +120,23 @@ describe('when baseline-normalized power is drawn', () => {
     const lightness = (hex: string) => parseInt(hex.slice(1, 3), 16) + parseInt(hex.slice(3, 5), 16) + parseInt(hex.slice(5, 7), 16);
     const brightest = steps.reduce((best, s, i) => (lightness(s) > lightness(steps[best]!) ? i : best), 0);
     expect(Math.abs(brightest - steps.length / 2)).toBeLessThanOrEqual(1);
+  });
+});
+
+describe('when some cells have no value', () => {
+  const record = timeFrequency(demoRecord({ method: 'morlet', frequencies: { low: 2, high: 30, count: 16 }, decimation: 4, baseline: { start: 0.5, end: 1.5, mode: 'decibel' } }, 'eyes-closed', 'late', 3, 4));
+  const m = matrices(record, ['O1']);
+  const doc = parseSvg(timeFrequencyPlot(record, { width: 700, height: 400 }, m));
+
+  it('should dot exactly those cells and say so', () => {
+    const missing = Array.from(m.power.O1!).filter((v) => !Number.isFinite(v)).length;
+    expect(missing).toBeGreaterThan(0);
+    const panel = byClass(doc, 'panel')[0]!;
+    const x = readAxis(panel, 'x');
+    const times = record.result.timeFrequency!.times;
+    const cellWidth = (times[1]! - times[0]!) / x.perPixel(0);
+    expect(byClass(panel, 'no-value').reduce((n, r) => n + Math.round(attr(r, 'width') / cellWidth), 0)).toBe(missing);
+    expect(byClass(doc, 'no-value-key')[0]!.textContent).toBe('dotted: no value');
   });
 });
 

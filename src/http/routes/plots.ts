@@ -4,7 +4,6 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
 import { DomainError } from '../../common/errors.js';
 import type { FeatureRecord } from '../../engine/record.js';
-import type { JobQueue } from '../../jobs/queue.js';
 import { comparePlot, groupSpectraPlot } from '../../plots/compare.js';
 import { runKey, type Run } from '../../studies/runs.js';
 import { createStudyStore } from '../../studies/study-store.js';
@@ -12,7 +11,7 @@ import { checkApplicable, plotKind, PLOT_KIND_NAMES, PLOT_KINDS, type PlotAttach
 import type { Store } from '../../stores/store.js';
 import type { AppDeps } from '../app.js';
 import { tenantOf } from '../auth.js';
-import { requireJob } from '../job-access.js';
+import { requireStoredRecord } from '../job-access.js';
 import { ProblemError } from '../problem.js';
 import { problemResponse } from '../schemas.js';
 
@@ -64,17 +63,6 @@ export function plotOptionsOf(query: PlotQueryValue): PlotOptions {
     options.frequencyRange = [low, high];
   }
   return options;
-}
-
-/** The record of the tenant's succeeded job. */
-export async function succeededRecord(queue: JobQueue, store: Store, id: string, tenant: string): Promise<{ record: FeatureRecord; recordKey: string }> {
-  const job = await requireJob(queue, id, tenant);
-  if (job.state !== 'succeeded') {
-    throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}; its plots exist once it has succeeded`);
-  }
-  const text = await store.getDocument('records', job.recordKey);
-  if (text === null) throw new ProblemError('internal', `the record of job ${id} is missing from the store`);
-  return { record: JSON.parse(text) as FeatureRecord, recordKey: job.recordKey };
 }
 
 /** Reads the named attachments of a record as typed arrays (little-endian float64, or uint8). */
@@ -144,7 +132,7 @@ export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
     async (request, reply) => {
       const kind = plotKind(request.params.kind, '/params/kind');
       const options = underQuery(() => plotOptionsOf(request.query));
-      const { record, recordKey } = await succeededRecord(queue, store, request.params.id, tenantOf(request));
+      const { record, recordKey } = await requireStoredRecord(queue, store, request.params.id, tenantOf(request), 'its plots exist');
       checkApplicable(kind, record, '/params/kind');
       const names = underQuery(() => kind.attachments?.(record, options) ?? []);
       const attachments = await readAttachments(store, recordKey, record, names);
@@ -179,7 +167,7 @@ export const plotRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
       const psd = plotKind('psd');
       const records: { label: string; record: FeatureRecord }[] = [];
       for (const [i, id] of ids.entries()) {
-        const { record } = await succeededRecord(queue, store, id, tenant);
+        const { record } = await requireStoredRecord(queue, store, id, tenant, 'its plots exist');
         checkApplicable(psd, record, '/query/jobs');
         records.push({ label: names[i]!, record });
       }

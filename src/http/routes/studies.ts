@@ -113,10 +113,6 @@ function presentStudy(study: Study) {
   return { ...rest, entryCount: entries.length, links: { self, entries: `${self}/entries`, runs: `${self}/runs` } };
 }
 
-function presentEntry(entry: StudyEntry) {
-  return entry;
-}
-
 async function presentRun(driver: RunDriver, run: Run) {
   const { counts, fraction } = await driver.progress(run);
   const self = `/v1/studies/${run.studyId}/runs/${run.id}`;
@@ -236,10 +232,15 @@ export const studyRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
       validatorCompiler: zodValidator({ params: StudyParams }),
     },
     async (request, reply) => {
-      const inputs = typeof request.body === 'string' ? readCsvManifest(request.body) : readJsonEntries(request.body);
-      const added = await studies.addEntries(tenantOf(request), request.params.id, inputs);
+      const tenant = tenantOf(request);
+      // Another tenant's study is 404 whatever the body holds.
+      await studies.require(tenant, request.params.id);
+      const body: unknown = request.body;
+      const csv = typeof body === 'string' && /^text\/csv\b/i.test(request.headers['content-type'] ?? '');
+      const inputs = csv ? readCsvManifest(body) : readJsonEntries(body);
+      const added = await studies.addEntries(tenant, request.params.id, inputs);
       request.log.info({ studyId: request.params.id, added: added.length }, 'study entries added');
-      return reply.code(201).send({ added: added.length, entries: added.map(presentEntry) });
+      return reply.code(201).send({ added: added.length, entries: added });
     },
   );
 
@@ -260,7 +261,7 @@ export const studyRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
       const from = after === undefined ? 0 : study.entries.findIndex((e) => e.id === after) + 1;
       if (after !== undefined && from === 0) throw new DomainError('invalid-request', `cursor "${after}" names no entry of this study`, { pointer: '/query/after' });
       const page = study.entries.slice(from, from + limit);
-      return { entries: page.map(presentEntry), next: from + limit < study.entries.length ? page[page.length - 1]!.id : null };
+      return { entries: page, next: from + limit < study.entries.length ? page[page.length - 1]!.id : null };
     },
   );
 
