@@ -19,6 +19,7 @@ import { eventRoutes } from './routes/events.js';
 import { jobRoutes } from './routes/jobs.js';
 import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
+import { pageRoutes } from './routes/page.js';
 import { plotRoutes } from './routes/plots.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
@@ -84,15 +85,18 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   app.removeContentTypeParser('text/plain');
   app.addHook('onSend', async (request, reply) => {
     reply.header('x-request-id', request.id);
-    reply.headers(SECURITY_HEADERS);
+    // The page's files carry their own, wider content policy (routes/page.ts).
+    for (const [name, value] of Object.entries(SECURITY_HEADERS)) if (name !== 'content-security-policy' || !reply.hasHeader(name)) reply.header(name, value);
     if (!reply.hasHeader('cache-control')) reply.header('cache-control', 'no-store');
   });
   if (deps.config.corsOrigins.length > 0) {
     await app.register(cors, {
       origin: deps.config.corsOrigins.includes('*') ? true : deps.config.corsOrigins,
       methods: ['GET', 'POST', 'PUT', 'DELETE'],
-      allowedHeaders: ['authorization', 'content-type', 'x-request-id'],
-      exposedHeaders: ['x-request-id', 'location', 'retry-after'],
+      allowedHeaders: ['authorization', 'content-type', 'x-request-id', 'if-none-match'],
+      // What a dashboard on another origin reads: ids for support, caching, download names and the
+      // layout of a binary attachment.
+      exposedHeaders: ['x-request-id', 'location', 'retry-after', 'etag', 'content-disposition', 'x-rhythmetric-shape', 'x-rhythmetric-dtype'],
       maxAge: 600,
     });
   }
@@ -143,6 +147,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(uploadRoutes(deps));
   await app.register(plotRoutes(deps));
   await app.register(studyRoutes(deps));
+  await app.register(pageRoutes());
   await app.ready();
   return app;
 }

@@ -163,10 +163,17 @@ export const ImportSourceSchema = z
   ])
   .meta({ id: 'ImportSource', description: 'A recording the server reads itself: a file under its data root, or an allow-listed URL. Both are off unless configured.' });
 
+/** Labels a client attaches to a job (e.g. `study`); listed with it and filterable, never hashed. */
+export const JobLabelsSchema = z
+  .record(z.string().regex(/^[A-Za-z][A-Za-z0-9_.-]{0,63}$/, 'a label name starts with a letter and holds at most 64 letters, digits, "_", "." or "-"'), z.string().max(256))
+  .refine((labels) => Object.keys(labels).length <= 32, 'at most 32 labels')
+  .describe('free labels, e.g. {"study": "…", "condition": "eyes-closed"}; GET /v1/jobs?study= filters on the study label; an identical job keeps the labels it was first submitted with');
+
 export const JobRequestSchema = z
   .strictObject({
     signal: z.union([z.string().describe('id of a stored signal'), SignalReferenceSchema, ImportSourceSchema, SignalUploadSchema]),
     recipe: z.union([z.string().describe('id of a pinned recipe'), RecipeSchema]),
+    labels: JobLabelsSchema.optional(),
   })
   .meta({ id: 'JobRequest' });
 
@@ -187,6 +194,7 @@ export const JobSignalSchema = z.union([
 export const JobRequestEnvelope = z.strictObject({
   signal: JobSignalSchema,
   recipe: z.union([z.string().min(1), z.record(z.string(), z.unknown())]),
+  labels: JobLabelsSchema.optional(),
 });
 export type JobRequest = z.output<typeof JobRequestEnvelope>;
 
@@ -197,6 +205,8 @@ export const JobViewSchema = z
     progress: z.number().min(0).max(1),
     signal: z.string(),
     recipe: z.string(),
+    method: z.string().describe("the recipe's method"),
+    labels: z.record(z.string(), z.string()).describe('labels given at submission'),
     resultHash: z.string().nullable(),
     attempts: z.number().int(),
     createdAt: z.string(),

@@ -2,6 +2,7 @@ import { DomainError, toProblem } from '../common/errors.js';
 import type { Store, StoreConfig } from '../stores/store.js';
 import type { ComputePool } from './compute-pool.js';
 import { crashProblem } from './failure.js';
+import { newestFirst, positionMatches, specMatches, stateMatches, type JobListFilter } from './list.js';
 import type { JobQueue } from './queue.js';
 import { isFinished, newJobView, type JobSpec, type JobState, type JobView } from './spec.js';
 import { waitForJob } from './wait.js';
@@ -76,6 +77,9 @@ export class EmbeddedQueue implements JobQueue {
       const text = await this.options.store.getDocument('jobs', id);
       if (!text) continue;
       const { view, spec, shutdowns = 0, crashes = 0, stopped = false } = JSON.parse(text) as StoredJob;
+      // Jobs stored before views carried method and labels.
+      view.method ??= spec.recipe.method;
+      view.labels ??= { ...spec.labels };
       const entry: Entry = { view, spec, abort: null, shutdowns, crashes, stopped };
       this.entries.set(view.id, entry);
       if (isFinished(view.state)) continue;
@@ -133,11 +137,11 @@ export class EmbeddedQueue implements JobQueue {
     return { ...entry.view };
   }
 
-  async list(filter: { tenant: string | null; signal?: string; limit: number }): Promise<JobView[]> {
+  async list(filter: JobListFilter): Promise<JobView[]> {
     return [...this.entries.values()]
+      .filter(({ view, spec }) => specMatches(spec, filter) && positionMatches(view, filter) && stateMatches(view, filter))
       .map((e) => e.view)
-      .filter((v) => (filter.tenant === null || v.tenant === filter.tenant) && (filter.signal === undefined || v.signal === filter.signal))
-      .sort((a, b) => (a.createdAt < b.createdAt ? 1 : a.createdAt > b.createdAt ? -1 : a.id < b.id ? 1 : -1))
+      .sort(newestFirst)
       .slice(0, filter.limit)
       .map((v) => ({ ...v }));
   }

@@ -44,6 +44,17 @@ export type RunFilter = Record<string, MetadataValue | MetadataValue[]>;
 
 export type RunState = 'running' | 'succeeded' | 'failed' | 'canceled';
 
+/**
+ * What a run's job shows in the job list: its study, run and entry, and the entry's metadata as
+ * text, so that a dashboard filters by study and shows the condition without a lookup per job. A
+ * job an earlier submission created keeps its first labels.
+ */
+export function runLabels(run: Run, item: RunItem): Record<string, string> {
+  const labels: Record<string, string> = { study: run.studyId, run: run.id, entry: item.entryId };
+  for (const [key, value] of Object.entries(item.metadata).slice(0, 29)) if (!(key in labels)) labels[key] = String(value).slice(0, 256);
+  return labels;
+}
+
 export function runKey(tenant: string, studyId: string, runId: string): string {
   return `${studyKey(tenant, studyId)}.${runId}`;
 }
@@ -200,6 +211,7 @@ export function createRunDriver(options: RunDriverOptions) {
           recipe: pinned.recipe,
           recordKey: item.recordKey,
           view: item.view,
+          labels: runLabels(run, item),
         };
         const { job, created } = await queue.submit(spec, item.jobId);
         item.reused = !created;
