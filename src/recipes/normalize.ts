@@ -1,4 +1,5 @@
 import type { z } from 'zod';
+import { CanonicalJsonError } from '../common/canonical-json.js';
 import { deepFreeze } from '../common/freeze.js';
 import { hashCanonical } from '../common/hash.js';
 import { pointerOf, RecipeInputError } from './errors.js';
@@ -33,7 +34,13 @@ export function normalizeRecipe(input: unknown): PinnedRecipe {
   } else {
     checkTimeFrequency(recipe);
   }
-  const hash = hashCanonical(recipe);
+  let hash: string;
+  try {
+    hash = hashCanonical(recipe);
+  } catch (error) {
+    if (error instanceof CanonicalJsonError) throw new RecipeInputError('invalid', error.message, error.pointer || '/');
+    throw error;
+  }
   return { id: recipeIdFromHash(hash), hash, recipe: deepFreeze(recipe) };
 }
 
