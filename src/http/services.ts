@@ -1,6 +1,7 @@
 import type { Config } from '../config.js';
 import { normalizeRecipe, type PinnedRecipe } from '../recipes/normalize.js';
 import { resolveRecipe } from '../recipes/resolve.js';
+import { checkDerivedEcho } from '../recipes/round-trip.js';
 import { sampleBytes, signalIdFromHash, signalSha256 } from '../signals/content-hash.js';
 import { findNonFinite, type Signal } from '../signals/signal.js';
 import { jobIdOf, recordKeyOf, viewedShape, type JobSpec } from '../jobs/spec.js';
@@ -42,7 +43,8 @@ export async function getSignalMeta(store: Store, id: string, tenant: string, po
 /** Pins a recipe: stored under its id, which follows from its hash. */
 export async function pinRecipe(store: Store, input: unknown): Promise<PinnedRecipe> {
   const pinned = normalizeRecipe(input);
-  if ((await store.getDocument('recipes', pinned.id)) === null) await store.putDocument('recipes', pinned.id, JSON.stringify(pinned));
+  const { derivedEcho: _echo, ...stored } = pinned;
+  if ((await store.getDocument('recipes', pinned.id)) === null) await store.putDocument('recipes', pinned.id, JSON.stringify(stored));
   return pinned;
 }
 
@@ -62,7 +64,8 @@ export function planJob(config: Config, meta: SignalMeta, pinned: PinnedRecipe, 
   if (view?.channels && typeof reference === 'object' && view.channels.includes(reference.channel)) {
     throw new ProblemError('recipe-unfit', `channel "${reference.channel}" is the recipe's reference and is left out of the output; do not select it`, '/signal/channels');
   }
-  resolveRecipe(pinned.recipe, pinned.hash, shape, config.recipeLimits);
+  const resolved = resolveRecipe(pinned.recipe, pinned.hash, shape, config.recipeLimits);
+  checkDerivedEcho(pinned.derivedEcho, resolved.derived);
   if (meta.nonFiniteSamples > 0 && pinned.recipe.nonFinite === 'reject') {
     throw new ProblemError(
       'non-finite',
