@@ -18,7 +18,8 @@ const ALLOWED: Record<string, string[]> = {
   stores: ['signals', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
   http: ['jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
-  cli: ['http', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  client: [],
+  cli: ['client', 'http', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

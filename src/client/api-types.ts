@@ -1,0 +1,3653 @@
+/**
+ * Generated from openapi/openapi.json by openapi-typescript (`npm run client`). Do not edit: a
+ * test fails when this file is stale.
+ */
+
+export interface paths {
+    "/healthz": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The process is alive */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            checks?: {
+                                [key: string]: boolean;
+                            };
+                            engineVersion: string;
+                            /** @enum {string} */
+                            mode: "embedded" | "distributed";
+                            /** @enum {string} */
+                            status: "ok" | "unavailable";
+                        };
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/metrics": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Prometheus metrics (text exposition format) */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content?: never;
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/problems/{code}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Documentation of a problem type */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    code: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            about: string;
+                            status: number;
+                            title: string;
+                            type: string;
+                        };
+                    };
+                };
+                /** @description unknown problem type */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/readyz": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The store and the queue answer */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            checks?: {
+                                [key: string]: boolean;
+                            };
+                            engineVersion: string;
+                            /** @enum {string} */
+                            mode: "embedded" | "distributed";
+                            /** @enum {string} */
+                            status: "ok" | "unavailable";
+                        };
+                    };
+                };
+                /** @description Default Response */
+                503: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            checks?: {
+                                [key: string]: boolean;
+                            };
+                            engineVersion: string;
+                            /** @enum {string} */
+                            mode: "embedded" | "distributed";
+                            /** @enum {string} */
+                            status: "ok" | "unavailable";
+                        };
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/jobs": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** List jobs, newest first (the caller's tenant; admin keys may ask for every tenant) */
+        get: {
+            parameters: {
+                query?: {
+                    limit?: number;
+                    /** @description only jobs on this signal */
+                    signal?: string;
+                    /** @description admin only: every tenant */
+                    tenant?: "all";
+                };
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            jobs: components["schemas"]["Job"][];
+                        };
+                    };
+                };
+                /** @description tenant=all needs an admin key */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        /**
+         * Submit an analysis
+         * @description The signal is a stored signal id or an inline upload; the recipe is a pinned recipe id or an inline recipe. The recipe is checked against the signal before anything is queued. An identical job that already succeeded answers 200 with its finished state and is not computed again.
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["JobRequestInput"];
+                };
+            };
+            responses: {
+                /** @description an identical job already exists */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Job"];
+                    };
+                };
+                /** @description queued */
+                202: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Job"];
+                    };
+                };
+                /** @description malformed request */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description unknown signal or recipe id */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description body too large */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the recipe is invalid or does not fit the signal */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the queue is unavailable; retry after Retry-After seconds */
+                503: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/jobs/{id}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Job state and progress */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Job"];
+                    };
+                };
+                /** @description unknown job */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        /** Cancel a job that has not finished */
+        delete: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Job"];
+                    };
+                };
+                /** @description unknown job */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the job already finished */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/jobs/{id}/attachments/{name}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * One binary matrix of a time–frequency record (e.g. one channel's power), as listed in result.timeFrequency.attachments
+         * @description Little-endian float64 (or uint8 for masks), row-major with the shape in the x-rhythmetric-shape header (e.g. "200,40" for times × frequencies).
+         */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                    name: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description unknown job or attachment */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the job has not succeeded */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/jobs/{id}/events": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Job state and progress as server-sent events (text/event-stream) */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description unknown job */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/jobs/{id}/record": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The feature record of a succeeded job */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["FeatureRecord"];
+                    };
+                };
+                /** @description unknown job */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the job has not succeeded */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/recipes": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Pin a recipe
+         * @description Answers the recipe with every default filled in, its SHA-256 over canonical JSON (RFC 8785), and an id derived from that hash. A record's `recipe` may be sent as the record prints it: its `id` and `hash` must be those of its settings (422 naming the field otherwise); its `derived` values are checked against the signal when a job runs.
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["RecipeInput"];
+                };
+            };
+            responses: {
+                /** @description Default Response */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["PinnedRecipe"];
+                    };
+                };
+                /** @description malformed request */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description invalid recipe (pointer names the field) */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/recipes/{id}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Fetch a pinned recipe */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["PinnedRecipe"];
+                    };
+                };
+                /** @description unknown recipe */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/signals": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Upload a signal
+         * @description JSON (`data`: channel × sample, or `epochs`: epoch × channel × sample), a binary body (`application/octet-stream`: little-endian float32 laid out [epoch][channel][sample], described by the query), or an EDF/EDF+ file (`application/octet-stream` with `?format=edf`; voltages are stored in µV, EDF+ annotations become events). The id follows from the content hash: the same content gives the same id.
+         */
+        post: {
+            parameters: {
+                query?: {
+                    /** @description float32: comma-separated names (required); edf: labels to keep */
+                    channels?: string;
+                    /** @description float32: epochs in the body, default 1 */
+                    epochCount?: number;
+                    /** @description binary body: float32 (default) or an EDF/EDF+ file */
+                    format?: "float32" | "edf";
+                    /** @description float32: NaN/±Inf samples refused (default) or kept as gaps */
+                    nonFinite?: "reject" | "keep";
+                    /** @description float32: Hz (required); edf: select the signals of this rate */
+                    samplingRate?: number;
+                    /** @description float32: physical unit, default uV */
+                    unit?: string;
+                };
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["SignalUploadInput"];
+                };
+            };
+            responses: {
+                /** @description stored (or already stored) signal */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["SignalInfo"];
+                    };
+                };
+                /** @description malformed request */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description body too large */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description unsupported content type */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the signal cannot be used (pointer says where) */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/signals/{id}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Describe a stored signal */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["SignalInfo"];
+                    };
+                };
+                /** @description unknown signal */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        /** Delete a signal, the jobs that use it and their records */
+        delete: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            /** @enum {boolean} */
+                            deleted: true;
+                            id: string;
+                            jobsDeleted: number;
+                        };
+                    };
+                };
+                /** @description unknown signal */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/signals/import": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Import a recording from a file under the data root or an allow-listed URL */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["ImportSourceInput"];
+                };
+            };
+            responses: {
+                /** @description Default Response */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["SignalInfo"];
+                    };
+                };
+                /** @description no such file */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the file is too large */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the source is not allowed, or the file cannot be used */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the remote server failed */
+                502: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/uploads": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Start a resumable upload */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["UploadStartInput"];
+                };
+            };
+            responses: {
+                /** @description Default Response */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Upload"];
+                    };
+                };
+                /** @description invalid description */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/uploads/{id}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Parts received so far (to resume an interrupted upload) */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Upload"];
+                    };
+                };
+                /** @description unknown upload */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        /** Abandon an upload and its parts */
+        delete: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            /** @enum {boolean} */
+                            deleted: true;
+                            id: string;
+                        };
+                    };
+                };
+            };
+        };
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/uploads/{id}/complete": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Join the parts in order, check the SHA-256 and store the signal */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": {
+                        /** @description the number of parts sent; checked */
+                        parts?: number;
+                        sha256?: string;
+                    };
+                };
+            };
+            responses: {
+                /** @description Default Response */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["SignalInfo"];
+                    };
+                };
+                /** @description unknown upload */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description missing parts, a hash mismatch or an unusable file */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/uploads/{id}/parts/{part}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        /** Send one numbered part (1, 2, …) of the file; sending a part again replaces it */
+        put: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                    part: number;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            bytes: number;
+                            part: number;
+                            sha256: string;
+                        };
+                    };
+                };
+                /** @description unknown upload */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description part too large */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+}
+export type webhooks = Record<string, never>;
+export interface components {
+    schemas: {
+        /** @description A frequency band, half-open: low ≤ f < high (Hz). */
+        Band: {
+            /** @description upper edge in Hz, excluded */
+            high: number;
+            /** @description lower edge in Hz, included */
+            low: number;
+            /** @description a label of your own, unique within the recipe */
+            name: string;
+        };
+        /** @description A frequency band, half-open: low ≤ f < high (Hz). */
+        BandInput: {
+            /** @description upper edge in Hz, excluded */
+            high: number;
+            /** @description lower edge in Hz, included */
+            low: number;
+            /** @description a label of your own, unique within the recipe */
+            name: string;
+        };
+        /** @description A ratio of two absolute band powers. */
+        BandRatio: {
+            /** @description name of a band of this recipe */
+            denominator: string;
+            /** @description defaults to "numerator/denominator" */
+            name?: string;
+            /** @description name of a band of this recipe */
+            numerator: string;
+        };
+        /** @description A ratio of two absolute band powers. */
+        BandRatioInput: {
+            /** @description name of a band of this recipe */
+            denominator: string;
+            /** @description defaults to "numerator/denominator" */
+            name?: string;
+            /** @description name of a band of this recipe */
+            numerator: string;
+        };
+        /** @description Normalization of time–frequency power by its mean over a baseline window, per frequency, over trials. */
+        Baseline: {
+            /** @description s, both ends included */
+            end: number;
+            /**
+             * @description decibel 10·log10(P/B), percent 100·(P−B)/B, ratio P/B, zscore (P − mean_B)/sd_B
+             * @default decibel
+             * @enum {string}
+             */
+            mode: "decibel" | "percent" | "ratio" | "zscore";
+            /** @description s, relative to the event (events epoching) or to the epoch start */
+            start: number;
+        };
+        /** @description Normalization of time–frequency power by its mean over a baseline window, per frequency, over trials. */
+        BaselineInput: {
+            /** @description s, both ends included */
+            end: number;
+            /**
+             * @description decibel 10·log10(P/B), percent 100·(P−B)/B, ratio P/B, zscore (P − mean_B)/sd_B
+             * @default decibel
+             * @enum {string}
+             */
+            mode: "decibel" | "percent" | "ratio" | "zscore";
+            /** @description s, relative to the event (events epoching) or to the epoch start */
+            start: number;
+        };
+        /** @description Magnitude-squared coherence, imaginary coherency and phase-locking value between channel pairs. */
+        ConnectivityRecipe: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /**
+             * @description bands for band power; default: IFCN glossary bands with documented edges
+             * @default [
+             *       {
+             *         "name": "delta",
+             *         "low": 1,
+             *         "high": 4
+             *       },
+             *       {
+             *         "name": "theta",
+             *         "low": 4,
+             *         "high": 8
+             *       },
+             *       {
+             *         "name": "alpha",
+             *         "low": 8,
+             *         "high": 13
+             *       },
+             *       {
+             *         "name": "beta",
+             *         "low": 13,
+             *         "high": 30
+             *       },
+             *       {
+             *         "name": "gamma",
+             *         "low": 30,
+             *         "high": 45
+             *       }
+             *     ]
+             */
+            bands: components["schemas"]["Band"][];
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["Epoching"] | null;
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "connectivity";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /** @default 0.5 */
+            overlap: number;
+            /**
+             * @description channel pairs by name; null means every pair
+             * @default null
+             */
+            pairs: [
+                string,
+                string
+            ][] | null;
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /** @default 1 */
+            segmentSeconds: number;
+            /**
+             * @description multitaper cross-spectra instead of Welch segments
+             * @default null
+             */
+            tapers: {
+                /**
+                 * @description null means ⌊2·NW⌋ − 1
+                 * @default null
+                 */
+                taperCount: number | null;
+                /** @default 3 */
+                timeBandwidth: number;
+            } | null;
+            tukeyRatio?: number;
+            /**
+             * @default hann
+             * @enum {string}
+             */
+            window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
+        };
+        /** @description Magnitude-squared coherence, imaginary coherency and phase-locking value between channel pairs. */
+        ConnectivityRecipeInput: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /**
+             * @description bands for band power; default: IFCN glossary bands with documented edges
+             * @default [
+             *       {
+             *         "name": "delta",
+             *         "low": 1,
+             *         "high": 4
+             *       },
+             *       {
+             *         "name": "theta",
+             *         "low": 4,
+             *         "high": 8
+             *       },
+             *       {
+             *         "name": "alpha",
+             *         "low": 8,
+             *         "high": 13
+             *       },
+             *       {
+             *         "name": "beta",
+             *         "low": 13,
+             *         "high": 30
+             *       },
+             *       {
+             *         "name": "gamma",
+             *         "low": 30,
+             *         "high": 45
+             *       }
+             *     ]
+             */
+            bands: components["schemas"]["BandInput"][];
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["EpochingInput"] | null;
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "connectivity";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /** @default 0.5 */
+            overlap: number;
+            /**
+             * @description channel pairs by name; null means every pair
+             * @default null
+             */
+            pairs: [
+                string,
+                string
+            ][] | null;
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /** @default 1 */
+            segmentSeconds: number;
+            /**
+             * @description multitaper cross-spectra instead of Welch segments
+             * @default null
+             */
+            tapers: {
+                /**
+                 * @description null means ⌊2·NW⌋ − 1
+                 * @default null
+                 */
+                taperCount: number | null;
+                /** @default 3 */
+                timeBandwidth: number;
+            } | null;
+            tukeyRatio?: number;
+            /**
+             * @default hann
+             * @enum {string}
+             */
+            window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
+        };
+        /** @description Cut a continuous signal into epochs: fixed-length, or around its events (EDF+ annotations or uploaded events). */
+        Epoching: {
+            /** @description epoch length */
+            lengthSeconds: number;
+            /** @constant */
+            mode: "fixed";
+            /**
+             * @description time between epoch starts; null = lengthSeconds (no overlap)
+             * @default null
+             */
+            stepSeconds: number | null;
+        } | {
+            /** @description data kept after each event */
+            afterSeconds: number;
+            /**
+             * @description [start, end) s relative to the event; its mean is subtracted per channel
+             * @default null
+             */
+            baseline: [
+                number,
+                number
+            ] | null;
+            /**
+             * @description data kept before each event
+             * @default 0
+             */
+            beforeSeconds: number;
+            /**
+             * @description event labels to cut around; null = every event of the signal
+             * @default null
+             */
+            labels: string[] | null;
+            /** @constant */
+            mode: "events";
+        };
+        /** @description Cut a continuous signal into epochs: fixed-length, or around its events (EDF+ annotations or uploaded events). */
+        EpochingInput: {
+            /** @description epoch length */
+            lengthSeconds: number;
+            /** @constant */
+            mode: "fixed";
+            /**
+             * @description time between epoch starts; null = lengthSeconds (no overlap)
+             * @default null
+             */
+            stepSeconds: number | null;
+        } | {
+            /** @description data kept after each event */
+            afterSeconds: number;
+            /**
+             * @description [start, end) s relative to the event; its mean is subtracted per channel
+             * @default null
+             */
+            baseline: [
+                number,
+                number
+            ] | null;
+            /**
+             * @description data kept before each event
+             * @default 0
+             */
+            beforeSeconds: number;
+            /**
+             * @description event labels to cut around; null = every event of the signal
+             * @default null
+             */
+            labels: string[] | null;
+            /** @constant */
+            mode: "events";
+        };
+        FeatureRecord: {
+            engineVersion: string;
+            input: {
+                sha256: string;
+                signal: string;
+            } & {
+                [key: string]: unknown;
+            };
+            provenance: {
+                [key: string]: unknown;
+            };
+            recipe: {
+                derived: {
+                    [key: string]: unknown;
+                };
+                hash: string;
+                id: string;
+                method: string;
+            } & {
+                [key: string]: unknown;
+            };
+            result: {
+                channels: ({
+                    bands: {
+                        /** @description unit², Σ PSD·Δf over low ≤ f < high */
+                        absolute: number;
+                        bins: number;
+                        /** @description 10·log10(absolute) */
+                        decibels: number | null;
+                        high: number;
+                        low: number;
+                        name: string;
+                        relative: number | null;
+                    }[];
+                    name: string;
+                    /** @description one-sided PSD, unit²/Hz */
+                    psd: number[];
+                    ratios: {
+                        denominator: string;
+                        name: string;
+                        numerator: string;
+                        value: number | null;
+                    }[];
+                } | ({
+                    name: string;
+                } & {
+                    [key: string]: unknown;
+                }))[];
+                connectivity?: {
+                    [key: string]: unknown;
+                };
+                epochs?: {
+                    channels: {
+                        bands: {
+                            /** @description unit², Σ PSD·Δf over low ≤ f < high */
+                            absolute: number;
+                            bins: number;
+                            /** @description 10·log10(absolute) */
+                            decibels: number | null;
+                            high: number;
+                            low: number;
+                            name: string;
+                            relative: number | null;
+                        }[];
+                        name: string;
+                        /** @description one-sided PSD, unit²/Hz */
+                        psd: number[];
+                        ratios: {
+                            denominator: string;
+                            name: string;
+                            numerator: string;
+                            value: number | null;
+                        }[];
+                    }[];
+                    index: number;
+                }[];
+                estimate: {
+                    [key: string]: unknown;
+                };
+                frequencies: number[];
+                timeFrequency?: {
+                    attachments: ({
+                        dtype: string;
+                        name: string;
+                        shape: number[];
+                    } & {
+                        [key: string]: unknown;
+                    })[];
+                    times: number[];
+                } & {
+                    [key: string]: unknown;
+                };
+                units: {
+                    [key: string]: unknown;
+                };
+                warnings: string[];
+            } & {
+                [key: string]: unknown;
+            };
+            /** @description SHA-256 of the canonical JSON of result */
+            resultHash: string;
+            schema: string;
+        };
+        FeatureRecordInput: {
+            engineVersion: string;
+            input: {
+                sha256: string;
+                signal: string;
+            } & {
+                [key: string]: unknown;
+            };
+            provenance: {
+                [key: string]: unknown;
+            };
+            recipe: {
+                derived: {
+                    [key: string]: unknown;
+                };
+                hash: string;
+                id: string;
+                method: string;
+            } & {
+                [key: string]: unknown;
+            };
+            result: {
+                channels: ({
+                    bands: {
+                        /** @description unit², Σ PSD·Δf over low ≤ f < high */
+                        absolute: number;
+                        bins: number;
+                        /** @description 10·log10(absolute) */
+                        decibels: number | null;
+                        high: number;
+                        low: number;
+                        name: string;
+                        relative: number | null;
+                    }[];
+                    name: string;
+                    /** @description one-sided PSD, unit²/Hz */
+                    psd: number[];
+                    ratios: {
+                        denominator: string;
+                        name: string;
+                        numerator: string;
+                        value: number | null;
+                    }[];
+                } | ({
+                    name: string;
+                } & {
+                    [key: string]: unknown;
+                }))[];
+                connectivity?: {
+                    [key: string]: unknown;
+                };
+                epochs?: {
+                    channels: {
+                        bands: {
+                            /** @description unit², Σ PSD·Δf over low ≤ f < high */
+                            absolute: number;
+                            bins: number;
+                            /** @description 10·log10(absolute) */
+                            decibels: number | null;
+                            high: number;
+                            low: number;
+                            name: string;
+                            relative: number | null;
+                        }[];
+                        name: string;
+                        /** @description one-sided PSD, unit²/Hz */
+                        psd: number[];
+                        ratios: {
+                            denominator: string;
+                            name: string;
+                            numerator: string;
+                            value: number | null;
+                        }[];
+                    }[];
+                    index: number;
+                }[];
+                estimate: {
+                    [key: string]: unknown;
+                };
+                frequencies: number[];
+                timeFrequency?: {
+                    attachments: ({
+                        dtype: string;
+                        name: string;
+                        shape: number[];
+                    } & {
+                        [key: string]: unknown;
+                    })[];
+                    times: number[];
+                } & {
+                    [key: string]: unknown;
+                };
+                units: {
+                    [key: string]: unknown;
+                };
+                warnings: string[];
+            } & {
+                [key: string]: unknown;
+            };
+            /** @description SHA-256 of the canonical JSON of result */
+            resultHash: string;
+            schema: string;
+        };
+        Features: {
+            /** @description power-weighted mean frequency */
+            centroid?: {
+                /**
+                 * @description [low, high] Hz, both included; null means the recipe's frequencyRange
+                 * @default null
+                 */
+                range: [
+                    number,
+                    number
+                ] | null;
+            };
+            /** @description Shannon entropy of the normalized PSD over the range, divided by ln(bins): 0…1 */
+            entropy?: {
+                /**
+                 * @description [low, high] Hz, both included; null means the recipe's frequencyRange
+                 * @default null
+                 */
+                range: [
+                    number,
+                    number
+                ] | null;
+            };
+            /** @description mean PSD in narrow bands at the mains frequency and its harmonics over the mean PSD around them (1 means none) */
+            lineNoise?: {
+                /**
+                 * @description mains frequency, Hz
+                 * @default 50
+                 */
+                frequency: 50 | 60;
+                /**
+                 * @description half-width of each line band, Hz
+                 * @default 1
+                 */
+                halfWidth: number;
+                /** @default 3 */
+                harmonics: number;
+                /**
+                 * @description width of the comparison band on each side, Hz
+                 * @default 4
+                 */
+                neighbourhoodWidth: number;
+            };
+            /** @description frequency of the highest local maximum above the 1/f background, refined by a parabola through the log spectrum */
+            peakFrequency?: {
+                /**
+                 * @description how far a peak must stand above the power-law background, dB
+                 * @default 3
+                 */
+                minHeightDb: number;
+                /**
+                 * @description search range, Hz; default 7–14 Hz, around the adult alpha rhythm (common practice)
+                 * @default [
+                 *       7,
+                 *       14
+                 *     ]
+                 */
+                range: [
+                    number,
+                    number
+                ];
+            };
+            /** @description the aperiodic (1/f) background: a line log10 PSD = intercept + slope·log10 f fitted over the range */
+            powerLaw?: {
+                /**
+                 * @description fitting range, Hz
+                 * @default [
+                 *       1,
+                 *       40
+                 *     ]
+                 */
+                range: [
+                    number,
+                    number
+                ];
+                /**
+                 * @description down-weight peaks (iteratively reweighted, bisquare)
+                 * @default true
+                 */
+                robust: boolean;
+            };
+            /** @description time-domain flags per channel and epoch: flat, clipped, excessive amplitude */
+            quality?: {
+                /**
+                 * @description consecutive samples at the epoch minimum or maximum that count as clipping
+                 * @default 5
+                 */
+                clipRunSamples: number;
+                /**
+                 * @description leave epochs with any flagged channel out of the averages
+                 * @default false
+                 */
+                dropFlagged: boolean;
+                /**
+                 * @description a standard deviation at or below this (signal unit) is a flat channel
+                 * @default 0.000001
+                 */
+                flatThreshold: number;
+                /**
+                 * @description peak-to-peak amplitude (signal unit) above which an epoch is flagged; null: not checked
+                 * @default null
+                 */
+                maxPeakToPeak: number | null;
+            };
+            /** @description frequencies below which the given percentages of the power in the range lie (trapezoid cumulative power, linear interpolation) */
+            spectralEdge?: {
+                /**
+                 * @default [
+                 *       50,
+                 *       95
+                 *     ]
+                 */
+                percentiles: number[];
+                /**
+                 * @description [low, high] Hz, both included; null means the recipe's frequencyRange
+                 * @default null
+                 */
+                range: [
+                    number,
+                    number
+                ] | null;
+            };
+        };
+        FeaturesInput: {
+            /** @description power-weighted mean frequency */
+            centroid?: {
+                /**
+                 * @description [low, high] Hz, both included; null means the recipe's frequencyRange
+                 * @default null
+                 */
+                range: [
+                    number,
+                    number
+                ] | null;
+            };
+            /** @description Shannon entropy of the normalized PSD over the range, divided by ln(bins): 0…1 */
+            entropy?: {
+                /**
+                 * @description [low, high] Hz, both included; null means the recipe's frequencyRange
+                 * @default null
+                 */
+                range: [
+                    number,
+                    number
+                ] | null;
+            };
+            /** @description mean PSD in narrow bands at the mains frequency and its harmonics over the mean PSD around them (1 means none) */
+            lineNoise?: {
+                /**
+                 * @description mains frequency, Hz
+                 * @default 50
+                 */
+                frequency: 50 | 60;
+                /**
+                 * @description half-width of each line band, Hz
+                 * @default 1
+                 */
+                halfWidth: number;
+                /** @default 3 */
+                harmonics: number;
+                /**
+                 * @description width of the comparison band on each side, Hz
+                 * @default 4
+                 */
+                neighbourhoodWidth: number;
+            };
+            /** @description frequency of the highest local maximum above the 1/f background, refined by a parabola through the log spectrum */
+            peakFrequency?: {
+                /**
+                 * @description how far a peak must stand above the power-law background, dB
+                 * @default 3
+                 */
+                minHeightDb: number;
+                /**
+                 * @description search range, Hz; default 7–14 Hz, around the adult alpha rhythm (common practice)
+                 * @default [
+                 *       7,
+                 *       14
+                 *     ]
+                 */
+                range: [
+                    number,
+                    number
+                ];
+            };
+            /** @description the aperiodic (1/f) background: a line log10 PSD = intercept + slope·log10 f fitted over the range */
+            powerLaw?: {
+                /**
+                 * @description fitting range, Hz
+                 * @default [
+                 *       1,
+                 *       40
+                 *     ]
+                 */
+                range: [
+                    number,
+                    number
+                ];
+                /**
+                 * @description down-weight peaks (iteratively reweighted, bisquare)
+                 * @default true
+                 */
+                robust: boolean;
+            };
+            /** @description time-domain flags per channel and epoch: flat, clipped, excessive amplitude */
+            quality?: {
+                /**
+                 * @description consecutive samples at the epoch minimum or maximum that count as clipping
+                 * @default 5
+                 */
+                clipRunSamples: number;
+                /**
+                 * @description leave epochs with any flagged channel out of the averages
+                 * @default false
+                 */
+                dropFlagged: boolean;
+                /**
+                 * @description a standard deviation at or below this (signal unit) is a flat channel
+                 * @default 0.000001
+                 */
+                flatThreshold: number;
+                /**
+                 * @description peak-to-peak amplitude (signal unit) above which an epoch is flagged; null: not checked
+                 * @default null
+                 */
+                maxPeakToPeak: number | null;
+            };
+            /** @description frequencies below which the given percentages of the power in the range lie (trapezoid cumulative power, linear interpolation) */
+            spectralEdge?: {
+                /**
+                 * @default [
+                 *       50,
+                 *       95
+                 *     ]
+                 */
+                percentiles: number[];
+                /**
+                 * @description [low, high] Hz, both included; null means the recipe's frequencyRange
+                 * @default null
+                 */
+                range: [
+                    number,
+                    number
+                ] | null;
+            };
+        };
+        /** @description A recording the server reads itself: a file under its data root, or an allow-listed URL. Both are off unless configured. */
+        ImportSource: {
+            /** @description float32: names (required); edf: labels to keep */
+            channels?: string[];
+            /** @description float32 only; default 1 */
+            epochCount?: number;
+            /** @description path relative to the server's DATA_ROOT */
+            file: string;
+            /**
+             * @description layout of the file
+             * @default edf
+             * @enum {string}
+             */
+            format: "edf" | "float32";
+            /** @description float32: Hz (required); edf: keep the signals of this rate */
+            samplingRate?: number;
+            /** @description float32 only; default uV */
+            unit?: string;
+        } | {
+            /** @description float32: names (required); edf: labels to keep */
+            channels?: string[];
+            /** @description float32 only; default 1 */
+            epochCount?: number;
+            /**
+             * @description layout of the file
+             * @default edf
+             * @enum {string}
+             */
+            format: "edf" | "float32";
+            /** @description float32: Hz (required); edf: keep the signals of this rate */
+            samplingRate?: number;
+            /** @description float32 only; default uV */
+            unit?: string;
+            /** @description http(s) URL on a host of FETCH_ALLOWED_HOSTS */
+            url: string;
+        };
+        /** @description A recording the server reads itself: a file under its data root, or an allow-listed URL. Both are off unless configured. */
+        ImportSourceInput: {
+            /** @description float32: names (required); edf: labels to keep */
+            channels?: string[];
+            /** @description float32 only; default 1 */
+            epochCount?: number;
+            /** @description path relative to the server's DATA_ROOT */
+            file: string;
+            /**
+             * @description layout of the file
+             * @default edf
+             * @enum {string}
+             */
+            format: "edf" | "float32";
+            /** @description float32: Hz (required); edf: keep the signals of this rate */
+            samplingRate?: number;
+            /** @description float32 only; default uV */
+            unit?: string;
+        } | {
+            /** @description float32: names (required); edf: labels to keep */
+            channels?: string[];
+            /** @description float32 only; default 1 */
+            epochCount?: number;
+            /**
+             * @description layout of the file
+             * @default edf
+             * @enum {string}
+             */
+            format: "edf" | "float32";
+            /** @description float32: Hz (required); edf: keep the signals of this rate */
+            samplingRate?: number;
+            /** @description float32 only; default uV */
+            unit?: string;
+            /** @description http(s) URL on a host of FETCH_ALLOWED_HOSTS */
+            url: string;
+        };
+        Job: {
+            attempts: number;
+            createdAt: string;
+            finishedAt: string | null;
+            id: string;
+            links: {
+                record: string;
+                self: string;
+            };
+            /** @description why a failed job failed */
+            problem: components["schemas"]["Problem"] | null;
+            progress: number;
+            recipe: string;
+            resultHash: string | null;
+            signal: string;
+            startedAt: string | null;
+            /** @enum {string} */
+            state: "queued" | "running" | "succeeded" | "failed" | "canceled";
+        };
+        JobInput: {
+            attempts: number;
+            createdAt: string;
+            finishedAt: string | null;
+            id: string;
+            links: {
+                record: string;
+                self: string;
+            };
+            /** @description why a failed job failed */
+            problem: components["schemas"]["ProblemInput"] | null;
+            progress: number;
+            recipe: string;
+            resultHash: string | null;
+            signal: string;
+            startedAt: string | null;
+            /** @enum {string} */
+            state: "queued" | "running" | "succeeded" | "failed" | "canceled";
+        };
+        JobRequest: {
+            recipe: string | components["schemas"]["Recipe"];
+            signal: string | components["schemas"]["SignalReference"] | components["schemas"]["ImportSource"] | components["schemas"]["SignalUpload"];
+        };
+        JobRequestInput: {
+            recipe: string | components["schemas"]["RecipeInput"];
+            signal: string | components["schemas"]["SignalReferenceInput"] | components["schemas"]["ImportSourceInput"] | components["schemas"]["SignalUploadInput"];
+        };
+        /** @description Complex Morlet wavelet power by FFT convolution; a sinusoid of amplitude A gives A²/2. */
+        MorletRecipe: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /** @default null */
+            baseline: components["schemas"]["Baseline"] | null;
+            /**
+             * @description cycles per wavelet: fixed, or growing linearly from low (lowest frequency) to high (highest)
+             * @default 7
+             */
+            cycles: number | {
+                high: number;
+                low: number;
+            };
+            /**
+             * @description keep every n-th output time
+             * @default 1
+             */
+            decimation: number;
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["Epoching"] | null;
+            /**
+             * @description a list of Hz, or a log-spaced range
+             * @default {
+             *       "low": 2,
+             *       "high": 45,
+             *       "count": 40
+             *     }
+             */
+            frequencies: number[] | {
+                count: number;
+                high: number;
+                low: number;
+            };
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "morlet";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description matrix: full time × frequency matrices as binary attachments; summary: only the band-and-window averages
+             * @default matrix
+             * @enum {string}
+             */
+            output: "matrix" | "summary";
+            /**
+             * @description also keep every trial's matrix (attachments grow with the number of epochs)
+             * @default false
+             */
+            perTrial: boolean;
+            /**
+             * @description also the inter-trial phase consistency |mean e^{iφ}| per time and frequency
+             * @default false
+             */
+            phaseConsistency: boolean;
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /**
+             * @description band-and-window averages of the (normalized) power per channel
+             * @default []
+             */
+            summary: {
+                /** @description s, excluded */
+                end: number;
+                /** @description Hz, excluded */
+                high: number;
+                /** @description Hz, included */
+                low: number;
+                name: string;
+                /** @description s, included (same time origin as baseline) */
+                start: number;
+            }[];
+        };
+        /** @description Complex Morlet wavelet power by FFT convolution; a sinusoid of amplitude A gives A²/2. */
+        MorletRecipeInput: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /** @default null */
+            baseline: components["schemas"]["BaselineInput"] | null;
+            /**
+             * @description cycles per wavelet: fixed, or growing linearly from low (lowest frequency) to high (highest)
+             * @default 7
+             */
+            cycles: number | {
+                high: number;
+                low: number;
+            };
+            /**
+             * @description keep every n-th output time
+             * @default 1
+             */
+            decimation: number;
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["EpochingInput"] | null;
+            /**
+             * @description a list of Hz, or a log-spaced range
+             * @default {
+             *       "low": 2,
+             *       "high": 45,
+             *       "count": 40
+             *     }
+             */
+            frequencies: number[] | {
+                count: number;
+                high: number;
+                low: number;
+            };
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "morlet";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description matrix: full time × frequency matrices as binary attachments; summary: only the band-and-window averages
+             * @default matrix
+             * @enum {string}
+             */
+            output: "matrix" | "summary";
+            /**
+             * @description also keep every trial's matrix (attachments grow with the number of epochs)
+             * @default false
+             */
+            perTrial: boolean;
+            /**
+             * @description also the inter-trial phase consistency |mean e^{iφ}| per time and frequency
+             * @default false
+             */
+            phaseConsistency: boolean;
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /**
+             * @description band-and-window averages of the (normalized) power per channel
+             * @default []
+             */
+            summary: {
+                /** @description s, excluded */
+                end: number;
+                /** @description Hz, excluded */
+                high: number;
+                /** @description Hz, included */
+                low: number;
+                name: string;
+                /** @description s, included (same time origin as baseline) */
+                start: number;
+            }[];
+        };
+        /** @description Thomson multitaper estimate with DPSS (Slepian) tapers over each whole epoch. */
+        MultitaperRecipe: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /**
+             * @description bands for band power; default: IFCN glossary bands with documented edges
+             * @default [
+             *       {
+             *         "name": "delta",
+             *         "low": 1,
+             *         "high": 4
+             *       },
+             *       {
+             *         "name": "theta",
+             *         "low": 4,
+             *         "high": 8
+             *       },
+             *       {
+             *         "name": "alpha",
+             *         "low": 8,
+             *         "high": 13
+             *       },
+             *       {
+             *         "name": "beta",
+             *         "low": 13,
+             *         "high": 30
+             *       },
+             *       {
+             *         "name": "gamma",
+             *         "low": 30,
+             *         "high": 45
+             *       }
+             *     ]
+             */
+            bands: components["schemas"]["Band"][];
+            /**
+             * @description confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none
+             * @default null
+             */
+            confidence: number | null;
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["Epoching"] | null;
+            /**
+             * @description spectral features to compute, by name
+             * @default {}
+             */
+            features: components["schemas"]["Features"];
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "multitaper";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description also report every epoch on its own, not only the mean over epochs
+             * @default false
+             */
+            perEpoch: boolean;
+            /**
+             * @description ratios of absolute band powers
+             * @default []
+             */
+            ratios: components["schemas"]["BandRatio"][];
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /**
+             * @description K; null means ⌊2·NW⌋ − 1
+             * @default null
+             */
+            taperCount: number | null;
+            /**
+             * @description equal, eigenvalue (λ_k) or adaptive (Thomson 1982) weights
+             * @default adaptive
+             * @enum {string}
+             */
+            taperWeighting: "equal" | "eigenvalue" | "adaptive";
+            /**
+             * @description NW; the half-bandwidth is NW·fs/N Hz for an epoch of N samples
+             * @default 4
+             */
+            timeBandwidth: number;
+        };
+        /** @description Thomson multitaper estimate with DPSS (Slepian) tapers over each whole epoch. */
+        MultitaperRecipeInput: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /**
+             * @description bands for band power; default: IFCN glossary bands with documented edges
+             * @default [
+             *       {
+             *         "name": "delta",
+             *         "low": 1,
+             *         "high": 4
+             *       },
+             *       {
+             *         "name": "theta",
+             *         "low": 4,
+             *         "high": 8
+             *       },
+             *       {
+             *         "name": "alpha",
+             *         "low": 8,
+             *         "high": 13
+             *       },
+             *       {
+             *         "name": "beta",
+             *         "low": 13,
+             *         "high": 30
+             *       },
+             *       {
+             *         "name": "gamma",
+             *         "low": 30,
+             *         "high": 45
+             *       }
+             *     ]
+             */
+            bands: components["schemas"]["BandInput"][];
+            /**
+             * @description confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none
+             * @default null
+             */
+            confidence: number | null;
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["EpochingInput"] | null;
+            /**
+             * @description spectral features to compute, by name
+             * @default {}
+             */
+            features: components["schemas"]["FeaturesInput"];
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "multitaper";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description also report every epoch on its own, not only the mean over epochs
+             * @default false
+             */
+            perEpoch: boolean;
+            /**
+             * @description ratios of absolute band powers
+             * @default []
+             */
+            ratios: components["schemas"]["BandRatioInput"][];
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /**
+             * @description K; null means ⌊2·NW⌋ − 1
+             * @default null
+             */
+            taperCount: number | null;
+            /**
+             * @description equal, eigenvalue (λ_k) or adaptive (Thomson 1982) weights
+             * @default adaptive
+             * @enum {string}
+             */
+            taperWeighting: "equal" | "eigenvalue" | "adaptive";
+            /**
+             * @description NW; the half-bandwidth is NW·fs/N Hz for an epoch of N samples
+             * @default 4
+             */
+            timeBandwidth: number;
+        };
+        /** @description The (modified) periodogram of each whole epoch. */
+        PeriodogramRecipe: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /**
+             * @description bands for band power; default: IFCN glossary bands with documented edges
+             * @default [
+             *       {
+             *         "name": "delta",
+             *         "low": 1,
+             *         "high": 4
+             *       },
+             *       {
+             *         "name": "theta",
+             *         "low": 4,
+             *         "high": 8
+             *       },
+             *       {
+             *         "name": "alpha",
+             *         "low": 8,
+             *         "high": 13
+             *       },
+             *       {
+             *         "name": "beta",
+             *         "low": 13,
+             *         "high": 30
+             *       },
+             *       {
+             *         "name": "gamma",
+             *         "low": 30,
+             *         "high": 45
+             *       }
+             *     ]
+             */
+            bands: components["schemas"]["Band"][];
+            /**
+             * @description confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none
+             * @default null
+             */
+            confidence: number | null;
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["Epoching"] | null;
+            /**
+             * @description spectral features to compute, by name
+             * @default {}
+             */
+            features: components["schemas"]["Features"];
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "periodogram";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description also report every epoch on its own, not only the mean over epochs
+             * @default false
+             */
+            perEpoch: boolean;
+            /**
+             * @description ratios of absolute band powers
+             * @default []
+             */
+            ratios: components["schemas"]["BandRatio"][];
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /** @description taper fraction of the tukey window; default 0.5, only with window "tukey" */
+            tukeyRatio?: number;
+            /**
+             * @description data window over the whole epoch (periodic form)
+             * @default rectangular
+             * @enum {string}
+             */
+            window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
+        };
+        /** @description The (modified) periodogram of each whole epoch. */
+        PeriodogramRecipeInput: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /**
+             * @description bands for band power; default: IFCN glossary bands with documented edges
+             * @default [
+             *       {
+             *         "name": "delta",
+             *         "low": 1,
+             *         "high": 4
+             *       },
+             *       {
+             *         "name": "theta",
+             *         "low": 4,
+             *         "high": 8
+             *       },
+             *       {
+             *         "name": "alpha",
+             *         "low": 8,
+             *         "high": 13
+             *       },
+             *       {
+             *         "name": "beta",
+             *         "low": 13,
+             *         "high": 30
+             *       },
+             *       {
+             *         "name": "gamma",
+             *         "low": 30,
+             *         "high": 45
+             *       }
+             *     ]
+             */
+            bands: components["schemas"]["BandInput"][];
+            /**
+             * @description confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none
+             * @default null
+             */
+            confidence: number | null;
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["EpochingInput"] | null;
+            /**
+             * @description spectral features to compute, by name
+             * @default {}
+             */
+            features: components["schemas"]["FeaturesInput"];
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "periodogram";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description also report every epoch on its own, not only the mean over epochs
+             * @default false
+             */
+            perEpoch: boolean;
+            /**
+             * @description ratios of absolute band powers
+             * @default []
+             */
+            ratios: components["schemas"]["BandRatioInput"][];
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /** @description taper fraction of the tukey window; default 0.5, only with window "tukey" */
+            tukeyRatio?: number;
+            /**
+             * @description data window over the whole epoch (periodic form)
+             * @default rectangular
+             * @enum {string}
+             */
+            window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
+        };
+        /** @description A recipe with every default filled in, its hash and id. */
+        PinnedRecipe: {
+            hash: string;
+            id: string;
+            recipe: components["schemas"]["Recipe"];
+        };
+        /** @description A recipe with every default filled in, its hash and id. */
+        PinnedRecipeInput: {
+            hash: string;
+            id: string;
+            recipe: components["schemas"]["RecipeInput"];
+        };
+        /** @description RFC 9457 problem details. */
+        Problem: {
+            /** @description what is wrong, in words */
+            detail: string;
+            /** @description RFC 6901 JSON pointer to the offending input (/query/… for query parameters) */
+            pointer?: string;
+            requestId?: string;
+            status: number;
+            title: string;
+            /** @description stable URI of the problem kind, e.g. /problems/invalid-recipe (GET it for documentation) */
+            type: string;
+        };
+        /** @description RFC 9457 problem details. */
+        ProblemInput: {
+            /** @description what is wrong, in words */
+            detail: string;
+            /** @description RFC 6901 JSON pointer to the offending input (/query/… for query parameters) */
+            pointer?: string;
+            requestId?: string;
+            status: number;
+            title: string;
+            /** @description stable URI of the problem kind, e.g. /problems/invalid-recipe (GET it for documentation) */
+            type: string;
+        };
+        Recipe: components["schemas"]["WelchRecipe"] | components["schemas"]["MultitaperRecipe"] | components["schemas"]["PeriodogramRecipe"] | components["schemas"]["SpectrogramRecipe"] | components["schemas"]["MorletRecipe"] | components["schemas"]["ConnectivityRecipe"];
+        RecipeInput: components["schemas"]["WelchRecipeInput"] | components["schemas"]["MultitaperRecipeInput"] | components["schemas"]["PeriodogramRecipeInput"] | components["schemas"]["SpectrogramRecipeInput"] | components["schemas"]["MorletRecipeInput"] | components["schemas"]["ConnectivityRecipeInput"];
+        SignalInfo: {
+            bytes: number;
+            channels: string[];
+            epochCount: number;
+            events: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
+            id: string;
+            nonFiniteSamples: number;
+            samplesPerEpoch: number;
+            samplingRate: number;
+            sha256: string;
+            storedAt: string;
+            unit: string;
+        };
+        SignalInfoInput: {
+            bytes: number;
+            channels: string[];
+            epochCount: number;
+            events: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
+            id: string;
+            nonFiniteSamples: number;
+            samplesPerEpoch: number;
+            samplingRate: number;
+            sha256: string;
+            storedAt: string;
+            unit: string;
+        };
+        /** @description A window, channel subset and bad spans of a stored signal, without uploading it again. */
+        SignalReference: {
+            /** @description [start, end] seconds from the signal start, left out of the analysis */
+            badSpans?: [
+                number,
+                number
+            ][];
+            /** @description channel names to keep, in this order */
+            channels?: string[];
+            /** @description seconds, excluded */
+            end?: number;
+            /** @description id of a stored signal */
+            signal: string;
+            /** @description seconds from the start of a continuous signal */
+            start?: number;
+        };
+        /** @description A window, channel subset and bad spans of a stored signal, without uploading it again. */
+        SignalReferenceInput: {
+            /** @description [start, end] seconds from the signal start, left out of the analysis */
+            badSpans?: [
+                number,
+                number
+            ][];
+            /** @description channel names to keep, in this order */
+            channels?: string[];
+            /** @description seconds, excluded */
+            end?: number;
+            /** @description id of a stored signal */
+            signal: string;
+            /** @description seconds from the start of a continuous signal */
+            start?: number;
+        };
+        SignalUpload: {
+            /** @description channel names, e.g. 10–20 labels */
+            channels: string[];
+            /** @description continuous chunk, channel × sample */
+            data?: (number | null)[][];
+            /** @description epoch × channel × sample */
+            epochs?: (number | null)[][][];
+            events?: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
+            /**
+             * @description null samples: refuse (default) or keep as gaps
+             * @enum {string}
+             */
+            nonFinite?: "reject" | "keep";
+            /** @description Hz */
+            samplingRate: number;
+            /** @description physical unit of the samples; default uV */
+            unit?: string;
+        };
+        SignalUploadInput: {
+            /** @description channel names, e.g. 10–20 labels */
+            channels: string[];
+            /** @description continuous chunk, channel × sample */
+            data?: (number | null)[][];
+            /** @description epoch × channel × sample */
+            epochs?: (number | null)[][][];
+            events?: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
+            /**
+             * @description null samples: refuse (default) or keep as gaps
+             * @enum {string}
+             */
+            nonFinite?: "reject" | "keep";
+            /** @description Hz */
+            samplingRate: number;
+            /** @description physical unit of the samples; default uV */
+            unit?: string;
+        };
+        /** @description Short-time spectrogram: one-sided PSD in a sliding window (or DPSS tapers). */
+        SpectrogramRecipe: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /** @default null */
+            baseline: components["schemas"]["Baseline"] | null;
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["Epoching"] | null;
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "spectrogram";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description matrix: full time × frequency matrices as binary attachments; summary: only the band-and-window averages
+             * @default matrix
+             * @enum {string}
+             */
+            output: "matrix" | "summary";
+            /**
+             * @description also keep every trial's matrix (attachments grow with the number of epochs)
+             * @default false
+             */
+            perTrial: boolean;
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /**
+             * @description time between window centres
+             * @default 0.05
+             */
+            stepSeconds: number;
+            /**
+             * @description band-and-window averages of the (normalized) power per channel
+             * @default []
+             */
+            summary: {
+                /** @description s, excluded */
+                end: number;
+                /** @description Hz, excluded */
+                high: number;
+                /** @description Hz, included */
+                low: number;
+                name: string;
+                /** @description s, included (same time origin as baseline) */
+                start: number;
+            }[];
+            /**
+             * @description DPSS tapers for a multitaper spectrogram, instead of window
+             * @default null
+             */
+            tapers: {
+                /**
+                 * @description null means ⌊2·NW⌋ − 1
+                 * @default null
+                 */
+                taperCount: number | null;
+                /** @default 3 */
+                timeBandwidth: number;
+            } | null;
+            tukeyRatio?: number;
+            /**
+             * @default hann
+             * @enum {string}
+             */
+            window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
+            /**
+             * @description length of the sliding window
+             * @default 0.5
+             */
+            windowSeconds: number;
+        };
+        /** @description Short-time spectrogram: one-sided PSD in a sliding window (or DPSS tapers). */
+        SpectrogramRecipeInput: {
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /** @default null */
+            baseline: components["schemas"]["BaselineInput"] | null;
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["EpochingInput"] | null;
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "spectrogram";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description matrix: full time × frequency matrices as binary attachments; summary: only the band-and-window averages
+             * @default matrix
+             * @enum {string}
+             */
+            output: "matrix" | "summary";
+            /**
+             * @description also keep every trial's matrix (attachments grow with the number of epochs)
+             * @default false
+             */
+            perTrial: boolean;
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /**
+             * @description time between window centres
+             * @default 0.05
+             */
+            stepSeconds: number;
+            /**
+             * @description band-and-window averages of the (normalized) power per channel
+             * @default []
+             */
+            summary: {
+                /** @description s, excluded */
+                end: number;
+                /** @description Hz, excluded */
+                high: number;
+                /** @description Hz, included */
+                low: number;
+                name: string;
+                /** @description s, included (same time origin as baseline) */
+                start: number;
+            }[];
+            /**
+             * @description DPSS tapers for a multitaper spectrogram, instead of window
+             * @default null
+             */
+            tapers: {
+                /**
+                 * @description null means ⌊2·NW⌋ − 1
+                 * @default null
+                 */
+                taperCount: number | null;
+                /** @default 3 */
+                timeBandwidth: number;
+            } | null;
+            tukeyRatio?: number;
+            /**
+             * @default hann
+             * @enum {string}
+             */
+            window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
+            /**
+             * @description length of the sliding window
+             * @default 0.5
+             */
+            windowSeconds: number;
+        };
+        Upload: {
+            bytes: number;
+            createdAt: string;
+            /** @enum {string} */
+            format: "float32" | "edf";
+            id: string;
+            parts: {
+                bytes: number;
+                part: number;
+                sha256: string;
+            }[];
+        };
+        UploadInput: {
+            bytes: number;
+            createdAt: string;
+            /** @enum {string} */
+            format: "float32" | "edf";
+            id: string;
+            parts: {
+                bytes: number;
+                part: number;
+                sha256: string;
+            }[];
+        };
+        /** @description Starts a resumable upload of a large file in numbered parts. */
+        UploadStart: {
+            /** @description float32: names (required); edf: labels to keep */
+            channels?: string[];
+            /**
+             * @description float32 only
+             * @default 1
+             */
+            epochCount: number;
+            /** @enum {string} */
+            format: "float32" | "edf";
+            /**
+             * @description float32 only
+             * @enum {string}
+             */
+            nonFinite?: "reject" | "keep";
+            /** @description float32: Hz (required); edf: keep the signals of this rate */
+            samplingRate?: number;
+            /** @description SHA-256 of the whole file (all parts in order); checked when the upload completes */
+            sha256?: string;
+            /** @description float32 only; default uV */
+            unit?: string;
+        };
+        /** @description Starts a resumable upload of a large file in numbered parts. */
+        UploadStartInput: {
+            /** @description float32: names (required); edf: labels to keep */
+            channels?: string[];
+            /**
+             * @description float32 only
+             * @default 1
+             */
+            epochCount: number;
+            /** @enum {string} */
+            format: "float32" | "edf";
+            /**
+             * @description float32 only
+             * @enum {string}
+             */
+            nonFinite?: "reject" | "keep";
+            /** @description float32: Hz (required); edf: keep the signals of this rate */
+            samplingRate?: number;
+            /** @description SHA-256 of the whole file (all parts in order); checked when the upload completes */
+            sha256?: string;
+            /** @description float32 only; default uV */
+            unit?: string;
+        };
+        /** @description Welch's averaged, windowed periodogram. */
+        WelchRecipe: {
+            /**
+             * @description how segment periodograms are combined; median is bias-corrected
+             * @default mean
+             * @enum {string}
+             */
+            average: "mean" | "median";
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /**
+             * @description bands for band power; default: IFCN glossary bands with documented edges
+             * @default [
+             *       {
+             *         "name": "delta",
+             *         "low": 1,
+             *         "high": 4
+             *       },
+             *       {
+             *         "name": "theta",
+             *         "low": 4,
+             *         "high": 8
+             *       },
+             *       {
+             *         "name": "alpha",
+             *         "low": 8,
+             *         "high": 13
+             *       },
+             *       {
+             *         "name": "beta",
+             *         "low": 13,
+             *         "high": 30
+             *       },
+             *       {
+             *         "name": "gamma",
+             *         "low": 30,
+             *         "high": 45
+             *       }
+             *     ]
+             */
+            bands: components["schemas"]["Band"][];
+            /**
+             * @description confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none
+             * @default null
+             */
+            confidence: number | null;
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["Epoching"] | null;
+            /**
+             * @description spectral features to compute, by name
+             * @default {}
+             */
+            features: components["schemas"]["Features"];
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "welch";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description fraction of a segment shared with the next one, 0 ≤ overlap < 1
+             * @default 0.5
+             */
+            overlap: number;
+            /**
+             * @description also report every epoch on its own, not only the mean over epochs
+             * @default false
+             */
+            perEpoch: boolean;
+            /**
+             * @description ratios of absolute band powers
+             * @default []
+             */
+            ratios: components["schemas"]["BandRatio"][];
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /**
+             * @description segment length in seconds
+             * @default 2
+             */
+            segmentSeconds: number;
+            /** @description taper fraction of the tukey window; default 0.5, only with window "tukey" */
+            tukeyRatio?: number;
+            /**
+             * @description taper applied to each segment (periodic form)
+             * @default hann
+             * @enum {string}
+             */
+            window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
+        };
+        /** @description Welch's averaged, windowed periodogram. */
+        WelchRecipeInput: {
+            /**
+             * @description how segment periodograms are combined; median is bias-corrected
+             * @default mean
+             * @enum {string}
+             */
+            average: "mean" | "median";
+            /**
+             * @description time spans left out: a Welch segment or an epoch overlapping one is not averaged
+             * @default {
+             *       "labels": [],
+             *       "peakToPeak": null
+             *     }
+             */
+            badSpans: {
+                /**
+                 * @description events with these labels mark bad spans [onset, onset + duration]
+                 * @default []
+                 */
+                labels: string[];
+                /**
+                 * @description an epoch, or a Welch segment of a channel, whose peak-to-peak amplitude exceeds this (signal unit) is left out
+                 * @default null
+                 */
+                peakToPeak: number | null;
+            };
+            /**
+             * @description bands for band power; default: IFCN glossary bands with documented edges
+             * @default [
+             *       {
+             *         "name": "delta",
+             *         "low": 1,
+             *         "high": 4
+             *       },
+             *       {
+             *         "name": "theta",
+             *         "low": 4,
+             *         "high": 8
+             *       },
+             *       {
+             *         "name": "alpha",
+             *         "low": 8,
+             *         "high": 13
+             *       },
+             *       {
+             *         "name": "beta",
+             *         "low": 13,
+             *         "high": 30
+             *       },
+             *       {
+             *         "name": "gamma",
+             *         "low": 30,
+             *         "high": 45
+             *       }
+             *     ]
+             */
+            bands: components["schemas"]["BandInput"][];
+            /**
+             * @description confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none
+             * @default null
+             */
+            confidence: number | null;
+            /**
+             * @description removed from each segment before windowing
+             * @default mean
+             * @enum {string}
+             */
+            detrend: "none" | "mean" | "linear";
+            /**
+             * @description cut a continuous signal into epochs first; null = use the epochs as uploaded
+             * @default null
+             */
+            epoching: components["schemas"]["EpochingInput"] | null;
+            /**
+             * @description spectral features to compute, by name
+             * @default {}
+             */
+            features: components["schemas"]["FeaturesInput"];
+            /**
+             * @description FFT length in samples, any integer ≥ the segment (Welch) or epoch length; null means equal to it (no padding)
+             * @default null
+             */
+            fftLength: number | null;
+            /**
+             * @description [low, high] Hz, both included: the bins reported and the total for relative power; null means 0 to Nyquist
+             * @default null
+             */
+            frequencyRange: [
+                number,
+                number
+            ] | null;
+            /** @constant */
+            method: "welch";
+            /**
+             * @description what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out
+             * @default reject
+             * @enum {string}
+             */
+            nonFinite: "reject" | "skip-epoch";
+            /**
+             * @description fraction of a segment shared with the next one, 0 ≤ overlap < 1
+             * @default 0.5
+             */
+            overlap: number;
+            /**
+             * @description also report every epoch on its own, not only the mean over epochs
+             * @default false
+             */
+            perEpoch: boolean;
+            /**
+             * @description ratios of absolute band powers
+             * @default []
+             */
+            ratios: components["schemas"]["BandRatioInput"][];
+            /**
+             * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
+             * @default none
+             */
+            reference: ("none" | "average") | {
+                channel: string;
+            };
+            /**
+             * @description recipe format version
+             * @default rhythmetric.recipe/1
+             * @constant
+             */
+            schema: "rhythmetric.recipe/1";
+            /**
+             * @description segment length in seconds
+             * @default 2
+             */
+            segmentSeconds: number;
+            /** @description taper fraction of the tukey window; default 0.5, only with window "tukey" */
+            tukeyRatio?: number;
+            /**
+             * @description taper applied to each segment (periodic form)
+             * @default hann
+             * @enum {string}
+             */
+            window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
+        };
+    };
+    responses: never;
+    parameters: never;
+    requestBodies: never;
+    headers: never;
+    pathItems: never;
+}
+export type $defs = Record<string, never>;
+export type operations = Record<string, never>;
