@@ -1,44 +1,152 @@
 #!/usr/bin/env node
+import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
+import { ApiProblemError } from '../client/index.js';
 import { ConfigError, loadConfig } from '../config.js';
+import { ENGINE_VERSION } from '../engine/version.js';
+import { EXIT, UsageError, createTerminal } from './output.js';
 import { createLogger, startApi, startWorker } from './runtime.js';
 
-const USAGE = `usage: rhythmetric <command>
+function positiveNumber(value: string): number {
+  const n = Number(value);
+  if (!Number.isFinite(n) || n <= 0) throw new InvalidArgumentError('give a positive number');
+  return n;
+}
 
-commands:
-  serve     run the HTTP API (embedded mode unless REDIS_URL is set)
-  worker    consume jobs from the Redis queue (needs REDIS_URL)
-  demo      write the invented demo recording (night-shift alertness study) as JSON
-  help      this text
+function positiveInteger(value: string): number {
+  const n = positiveNumber(value);
+  if (!Number.isInteger(n)) throw new InvalidArgumentError('give a whole number');
+  return n;
+}
 
-configuration is by environment variables; see README.md.`;
+const serverOption = () => new Option('--server <url>', 'the rhythmetric server to use (default: $RHYTHMETRIC_SERVER)');
+const keyOption = () => new Option('--key <key>', 'API key for the server; prefer $RHYTHMETRIC_KEY, which stays out of your shell history');
+const jsonOption = () => new Option('--json', 'machine-readable output: JSON lines, no progress bar, no colour');
 
-async function main(argv: string[]): Promise<number> {
-  const command = argv[0] ?? 'help';
-  if (command === 'help' || command === '--help' || command === '-h') {
-    process.stdout.write(USAGE + '\n');
-    return 0;
-  }
-  if (command === 'demo') {
-    const { runDemoCommand } = await import('./demo.js');
-    return runDemoCommand(argv.slice(1));
-  }
-  const config = loadConfig();
-  const logger = createLogger(config);
-  if (command === 'serve') {
-    const api = await startApi(config, logger);
-    await api.app.listen({ port: config.port, host: config.host });
-    logger.info({ mode: api.queue.mode, store: config.store.kind, dataDir: config.store.kind === 'filesystem' ? config.dataDir : undefined }, 'rhythmetric serving');
-    onShutdown(logger, () => api.close());
-    return -1;
-  }
-  if (command === 'worker') {
-    const worker = startWorker(config, logger);
-    logger.info({ queue: config.queueName, threads: config.workerThreads, store: config.store.kind }, 'rhythmetric worker started');
-    onShutdown(logger, () => worker.close());
-    return -1;
-  }
-  process.stderr.write(`unknown command "${command}"\n\n${USAGE}\n`);
-  return 2;
+/** Options that say how to read a signal file (JSON needs none). */
+function inputOptions(command: Command): Command {
+  return command
+    .addOption(new Option('--input-format <format>', 'how to read the files (default: by extension: .edf → edf, .f32/.bin → float32, else json)').choices(['json', 'float32', 'edf']))
+    .option('--sampling-rate <hz>', 'float32 files: samples per second; EDF files: choose the channels recorded at this rate', positiveNumber)
+    .option('--channels <names>', 'float32 files: comma-separated channel names, in file order; EDF files: the channels to read')
+    .option('--epochs <count>', 'float32 files: epochs in the file, laid out [epoch][channel][sample] (default 1)', positiveInteger)
+    .option('--unit <unit>', 'float32 files: physical unit of the samples (default uV)')
+    .option('--threads <count>', 'worker threads for local work (default: the CPU count)', positiveInteger);
+}
+
+function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>) => Promise<number>): Command {
+  const program = new Command('rhythmetric')
+    .description('Spectral features of EEG and other electrophysiology: run the engine here or on a server, fetch results, and check records.')
+    .version(ENGINE_VERSION, '-V, --version', 'print the engine version')
+    .showHelpAfterError('(run with --help for the options)')
+    .exitOverride()
+    .configureHelp({ sortSubcommands: false });
+
+  program
+    .command('serve')
+    .description('run the HTTP API (embedded mode; distributed when REDIS_URL is set). Configured by environment variables, see README.md')
+    .action(async () => {
+      const config = loadConfig();
+      const logger = createLogger(config);
+      const api = await startApi(config, logger);
+      await api.app.listen({ port: config.port, host: config.host });
+      logger.info({ mode: api.queue.mode, store: config.store.kind, dataDir: config.store.kind === 'filesystem' ? config.dataDir : undefined }, 'rhythmetric serving');
+      onShutdown(logger, () => api.close());
+    });
+
+  program
+    .command('worker')
+    .description('consume jobs from the Redis queue (needs REDIS_URL); start as many as you like')
+    .action(() => {
+      const config = loadConfig();
+      const logger = createLogger(config);
+      const worker = startWorker(config, logger);
+      logger.info({ queue: config.queueName, threads: config.workerThreads, store: config.store.kind }, 'rhythmetric worker started');
+      onShutdown(logger, () => worker.close());
+    });
+
+  program
+    .command('demo')
+    .description('write the invented night-shift alertness study (demo data, no real person) as upload-ready JSON')
+    .option('--out <dir>', 'directory to write into', 'demo-data')
+    .action(async (options: { out: string }) => {
+      const { runDemoCommand } = await import('./demo.js');
+      program.setOptionValue('exitCode', await runDemoCommand(['--out', options.out]));
+    });
+
+  inputOptions(
+    program
+      .command('analyze')
+      .description('compute a feature record for each file with one recipe: here, on worker threads, or on a server with --server')
+      .argument('<files...>', 'signal files: JSON uploads, little-endian float32, or EDF/EDF+')
+      .requiredOption('--recipe <recipe>', 'a recipe file, inline JSON, a record file (its recipe is used), or a pinned id rcp_… (with --server)')
+      .option('--out <path>', 'write the record to this file (several files: a directory, one <name>.record.json each); default: standard output, one record per line'),
+  )
+    .addOption(serverOption())
+    .addOption(keyOption())
+    .addOption(jsonOption())
+    .addHelpText('after', '\nThe record made here carries the same result and resultHash as a server\'s for the same input and recipe.\nExit status: 0 done, 2 an input or the recipe was refused, 130 interrupted.')
+    .action(async (files: string[], options: Record<string, unknown>) => {
+      const { runAnalyze } = await import('./analyze.js');
+      program.setOptionValue('exitCode', await run((abort) => runAnalyze(files, options as never, createTerminal({ json: options.json === true }), abort)));
+    });
+
+  inputOptions(
+    program
+      .command('verify')
+      .description('recompute a record from its input file with the record\'s own recipe, here, and compare the input hash, the engine version and resultHash')
+      .argument('<record>', 'a feature record (JSON), e.g. from `rhythmetric record` or GET /v1/jobs/{id}/record')
+      .argument('<file>', 'the signal file the record was made from'),
+  )
+    .addOption(jsonOption())
+    .addHelpText('after', '\nExit status: 0 they match; 1 they differ (the first differing JSON path and both values are printed; a record of another engine version is reported as such); 2 usage or input errors.')
+    .action(async (recordPath: string, file: string, options: Record<string, unknown>) => {
+      const { runVerify } = await import('./verify.js');
+      program.setOptionValue('exitCode', await run((abort) => runVerify(recordPath, file, options as never, createTerminal({ json: options.json === true }), abort)));
+    });
+
+  program
+    .command('record')
+    .description('fetch the feature record of a finished job from a server')
+    .argument('<job>', 'job id (job_…)')
+    .option('--out <path>', 'file to write (default: standard output)')
+    .addOption(serverOption())
+    .addOption(keyOption())
+    .action(async (job: string, options: Record<string, unknown>) => {
+      const { runRecord } = await import('./fetch.js');
+      program.setOptionValue('exitCode', await run(() => runRecord(job, options as never)));
+    });
+
+  program
+    .command('plot')
+    .description('fetch a picture (SVG) of a finished job\'s record from a server')
+    .argument('<job>', 'job id (job_…)')
+    .argument('<kind>', 'what to draw, e.g. psd; the server lists the kinds it knows when it refuses one')
+    .option('--channels <names>', 'comma-separated channel names to draw')
+    .option('--width <pixels>', 'picture width', positiveInteger)
+    .option('--height <pixels>', 'picture height', positiveInteger)
+    .option('--out <path>', 'file to write (default: standard output)')
+    .addOption(serverOption())
+    .addOption(keyOption())
+    .action(async (job: string, kind: string, options: Record<string, unknown>) => {
+      const { runPlot } = await import('./fetch.js');
+      program.setOptionValue('exitCode', await run(() => runPlot(job, kind, options as never)));
+    });
+
+  program
+    .command('table')
+    .description('fetch a finished job\'s record as a table from a server')
+    .argument('<job>', 'job id (job_…)')
+    .addOption(new Option('--level <level>', 'one row per band, feature or spectrum bin').choices(['bands', 'features', 'spectra']).default('bands'))
+    .addOption(new Option('--format <format>', 'CSV (RFC 4180) or Parquet').choices(['csv', 'parquet']).default('csv'))
+    .option('--out <path>', 'file to write (default: standard output)')
+    .addOption(serverOption())
+    .addOption(keyOption())
+    .action(async (job: string, options: Record<string, unknown>) => {
+      const { runTable } = await import('./fetch.js');
+      program.setOptionValue('exitCode', await run(() => runTable(job, options as never)));
+    });
+
+  return program;
 }
 
 /** Stop accepting, let running work finish or go back to the queue, then exit. */
@@ -58,6 +166,54 @@ function onShutdown(logger: ReturnType<typeof createLogger>, close: () => Promis
       );
     });
   }
+}
+
+/**
+ * Runs one command's work: Ctrl-C aborts it (running computations stop, no output file is left half
+ * written) and a second Ctrl-C exits at once. Usage and input errors exit with 2.
+ */
+async function runWork(work: (abort: AbortSignal) => Promise<number>): Promise<number> {
+  const controller = new AbortController();
+  const onInterrupt = () => {
+    if (controller.signal.aborted) process.exit(EXIT.interrupted);
+    process.stderr.write('interrupted: stopping (Ctrl-C again to quit at once)\n');
+    controller.abort(new Error('interrupted'));
+  };
+  process.on('SIGINT', onInterrupt);
+  try {
+    const code = await work(controller.signal);
+    return controller.signal.aborted ? EXIT.interrupted : code;
+  } catch (error) {
+    if (controller.signal.aborted) return EXIT.interrupted;
+    if (error instanceof UsageError || error instanceof ConfigError) {
+      process.stderr.write(`${error.message}\n`);
+      return EXIT.usage;
+    }
+    if (error instanceof ApiProblemError) {
+      process.stderr.write(`the server answered ${error.message}\n`);
+      return error.status >= 400 && error.status < 500 ? EXIT.usage : EXIT.differ;
+    }
+    throw error;
+  } finally {
+    process.off('SIGINT', onInterrupt);
+  }
+}
+
+async function main(argv: string[]): Promise<number> {
+  const program = buildProgram(runWork);
+  if (argv.length === 0) {
+    program.outputHelp();
+    return EXIT.ok;
+  }
+  try {
+    await program.parseAsync(argv, { from: 'user' });
+  } catch (error) {
+    if (error instanceof CommanderError) return error.exitCode === 0 ? EXIT.ok : EXIT.usage;
+    throw error;
+  }
+  const code = program.getOptionValue('exitCode') as number | undefined;
+  // serve and worker keep running until a signal; the other commands end with their exit code.
+  return code ?? -1;
 }
 
 main(process.argv.slice(2)).then(

@@ -6,7 +6,7 @@ import { EngineInputError } from '../engine/errors.js';
 import { RecipeInputError } from '../recipes/errors.js';
 import { resolveRecipe } from '../recipes/resolve.js';
 import type { Store } from '../stores/store.js';
-import { viewedShape, type JobProblem, type JobSpec } from './spec.js';
+import { viewedShape, type JobProblem, type JobSpec, type RunMode } from './spec.js';
 import { SignalInputError } from '../signals/errors.js';
 
 /**
@@ -41,7 +41,7 @@ export interface JobOutcome {
 export async function runJob(
   spec: JobSpec,
   store: Store,
-  mode: 'embedded' | 'distributed',
+  mode: RunMode,
   onProgress: ProgressListener = () => {},
   options: { checkpoint?: () => void; threads?: number } = {},
 ): Promise<JobOutcome> {
