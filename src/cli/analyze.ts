@@ -90,6 +90,7 @@ export async function runAnalyze(files: string[], options: AnalyzeOptions, term:
   try {
     for (const [i, input] of inputs.entries()) {
       if (abort.aborted) break;
+      if (!term.fancy) term.note(`analyzing ${input.path}`, { file: input.path });
       let text: string;
       try {
         text = await analyzer.analyze(input, (f) => progress.update(i + Math.min(f, 0.999), basename(input.path)));
