@@ -16,10 +16,11 @@ const ALLOWED: Record<string, string[]> = {
   recipes: ['dsp', 'common'],
   engine: ['dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
+  tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
-  http: ['jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
+  http: ['tables', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
   client: [],
-  cli: ['client', 'http', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  cli: ['client', 'tables', 'http', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

@@ -3,7 +3,10 @@ import { basename, extname, join } from 'node:path';
 import { ApiProblemError, type RhythmetricClient } from '../client/index.js';
 import type { SignalView } from '../signals/view.js';
 import { createLocalEngine, formatOf, LocalInputError, type LocalEngine, type LocalInput } from './local-engine.js';
+import type { TableLevel } from '../tables/columns.js';
+import type { TableFormat } from '../tables/writer.js';
 import { EXIT, UsageError, writeFileAtomic, type Terminal } from './output.js';
+import { createTableSink } from './table-sink.js';
 import { clientFor, loadRecipe, type RecipeSource, type ServerOptions } from './sources.js';
 
 export interface InputOptions {
@@ -18,6 +21,9 @@ export interface AnalyzeOptions extends InputOptions, ServerOptions {
   recipe: string;
   out?: string | undefined;
   threads?: number | undefined;
+  /** write one table over every record instead of the records */
+  table?: TableLevel | undefined;
+  format?: TableFormat | undefined;
 }
 
 export function inputOf(path: string, options: InputOptions): LocalInput {
@@ -79,7 +85,9 @@ function remoteAnalyzer(client: RhythmetricClient, recipe: RecipeSource, abort: 
 export async function runAnalyze(files: string[], options: AnalyzeOptions, term: Terminal, abort: AbortSignal): Promise<number> {
   const recipe = await loadRecipe(options.recipe);
   const inputs = files.map((f) => inputOf(f, options));
-  const outDir = files.length > 1 && options.out ? options.out : null;
+  const table = options.table ? createTableSink(options.table, options.format ?? 'csv', options.out) : null;
+  if (!table && options.format) throw new UsageError('--format chooses the format of a table: give --table LEVEL too');
+  const outDir = !table && files.length > 1 && options.out ? options.out : null;
   if (outDir) {
     await mkdir(outDir, { recursive: true });
     if (!(await stat(outDir)).isDirectory()) throw new UsageError(`--out ${outDir}: with several files, --out names a directory`);
@@ -102,12 +110,15 @@ export async function runAnalyze(files: string[], options: AnalyzeOptions, term:
         continue;
       }
       const target = outDir ? join(outDir, `${basename(input.path, extname(input.path))}.record.json`) : options.out;
-      if (target) await writeFileAtomic(target, text + '\n');
+      if (table) await table.add(text);
+      else if (target) await writeFileAtomic(target, text + '\n');
       else process.stdout.write(text + '\n');
       progress.update(i + 1, basename(input.path));
     }
+    if (table && !abort.aborted) await table.finish();
   } finally {
     progress.stop();
+    await table?.abandon();
     await analyzer.close();
   }
   if (abort.aborted) return EXIT.interrupted;

@@ -3,6 +3,8 @@ import { Command, CommanderError, InvalidArgumentError, Option } from 'commander
 import { ApiProblemError } from '../client/index.js';
 import { ConfigError, loadConfig } from '../config.js';
 import { ENGINE_VERSION } from '../engine/version.js';
+import { TABLE_LEVELS } from '../tables/columns.js';
+import { TABLE_FORMATS } from '../tables/writer.js';
 import { EXIT, UsageError, createTerminal } from './output.js';
 import { createLogger, startApi, startWorker } from './runtime.js';
 
@@ -79,7 +81,9 @@ function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>) => Pr
       .description('compute a feature record for each file with one recipe: here, on worker threads, or on a server with --server')
       .argument('<files...>', 'signal files: JSON uploads, little-endian float32, or EDF/EDF+')
       .requiredOption('--recipe <recipe>', 'a recipe file, inline JSON, a record file (its recipe is used), or a pinned id rcp_… (with --server)')
-      .option('--out <path>', 'write the record to this file (several files: a directory, one <name>.record.json each); default: standard output, one record per line'),
+      .option('--out <path>', 'write the record to this file (several files: a directory, one <name>.record.json each); default: standard output, one record per line')
+      .addOption(new Option('--table <level>', 'write one table over every record instead of the records: one row per band, feature, spectrum bin, …').choices([...TABLE_LEVELS]))
+      .addOption(new Option('--format <format>', 'the table\'s format: CSV (RFC 4180) or Parquet (default csv)').choices([...TABLE_FORMATS])),
   )
     .addOption(serverOption())
     .addOption(keyOption())
@@ -136,8 +140,8 @@ function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>) => Pr
     .command('table')
     .description('fetch a finished job\'s record as a table from a server')
     .argument('<job>', 'job id (job_…)')
-    .addOption(new Option('--level <level>', 'one row per band, feature or spectrum bin').choices(['bands', 'features', 'spectra']).default('bands'))
-    .addOption(new Option('--format <format>', 'CSV (RFC 4180) or Parquet').choices(['csv', 'parquet']).default('csv'))
+    .addOption(new Option('--level <level>', 'the grain of a row: a band, a feature set, a spectrum bin, … (default: the first the record gives)').choices([...TABLE_LEVELS]))
+    .addOption(new Option('--format <format>', 'CSV (RFC 4180) or Parquet').choices([...TABLE_FORMATS]).default('csv'))
     .option('--out <path>', 'file to write (default: standard output)')
     .addOption(serverOption())
     .addOption(keyOption())

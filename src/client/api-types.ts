@@ -564,6 +564,215 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/v1/jobs/{id}/table": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The job's record as a table (CSV or Parquet)
+         * @description A tidy table of the record: `?level=` chooses the grain of a row, `?format=` (or `Accept: text/csv` / `application/vnd.apache.parquet`) the format. Numbers are written so that they read back to the same double; an empty CSV cell (a Parquet null) means null. Rows for the mean come first, then the means per event label, then each epoch when the recipe asked for `perEpoch`.
+         *
+         *     Every row starts with where it comes from and ends with provenance:
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `entry` | string |  | the study entry the row comes from (run-level tables only) |
+         *     | `<metadata key>` | string |  | one column per entry metadata key (run-level tables); double when every entry's value is a number |
+         *     | `signal` | string |  | id of the stored signal the record was computed from |
+         *     | `scope` | string |  | "mean" over every used epoch, "label-mean" over the epochs of one event or block label, or "epoch" for one epoch |
+         *     | `epoch` | integer |  | index of the analysed epoch (as in the record); empty for means |
+         *     | `epochStart` | double | s | start of the epoch, in seconds from the start of the stored signal; empty for means and for uploaded epochs, which have no time line |
+         *     | `label` | string |  | event or block label of the epoch (events or blocks epoching), or of a label mean; empty otherwise |
+         *     | `channel` | string |  | channel name |
+         *     | `channelA` | string |  | first channel of the pair |
+         *     | `channelB` | string |  | second channel of the pair |
+         *     | `recipe` | string |  | id of the pinned recipe |
+         *     | `resultHash` | string |  | SHA-256 of the record's canonical result: rows with equal hashes come from identical results |
+         *
+         *     `channel` is replaced by `channelA`, `channelB` in the pair levels. Then the values of each level:
+         *
+         *     **`bands`**: one row per spectrum × channel × band (welch, multitaper, periodogram).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `band` | string |  | band name from the recipe |
+         *     | `low` | double | Hz | lower band edge, included |
+         *     | `high` | double | Hz | upper band edge, excluded |
+         *     | `absolute` | double | signal unit² | Σ PSD·Δf over the bins low ≤ f < high |
+         *     | `relative` | double | 1 | absolute over the same sum across the recipe's frequencyRange; empty when that total is 0 |
+         *     | `decibels` | double | dB re 1 signal unit² | 10·log10(absolute); empty when absolute is 0 |
+         *     | `bins` | integer |  | frequency bins summed |
+         *
+         *     **`ratios`**: one row per spectrum × channel × band ratio (when the recipe has ratios).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `ratio` | string |  | ratio name (default "numerator/denominator") |
+         *     | `numerator` | string |  | band over the line |
+         *     | `denominator` | string |  | band under the line |
+         *     | `value` | double | 1 | absolute power of the numerator band over that of the denominator band; empty when the denominator is 0 |
+         *
+         *     **`features`**: one row per spectrum × channel, one column per feature the recipe names.
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `peakFrequency` | double | Hz | frequency of the highest peak above the power-law background; empty when none stands out (feature `peakFrequency`) |
+         *     | `peakPower` | double | signal unit²/Hz | PSD at the peak (feature `peakFrequency`) |
+         *     | `peakHeight` | double | dB | height of the peak above the background (feature `peakFrequency`) |
+         *     | `centroid` | double | Hz | power-weighted mean frequency Σf·P/ΣP (feature `centroid`) |
+         *     | `spectralEdge<percentile>` | double | Hz | frequency below which <percentile> % of the power in the range lies (a "." in the percentile is written "_") (feature `spectralEdge`) |
+         *     | `entropy` | double | 1 | normalized spectral entropy, 0…1 (feature `entropy`) |
+         *     | `powerLawIntercept` | double | log10 signal unit²/Hz | log10 of the fitted PSD at 1 Hz (feature `powerLaw`) |
+         *     | `powerLawSlope` | double | 1 | d log10 PSD / d log10 f (−1 for 1/f) (feature `powerLaw`) |
+         *     | `powerLawRSquared` | double | 1 | coefficient of determination of the fit (feature `powerLaw`) |
+         *     | `powerLawResidualRms` | double | decades | RMS of the log10 residuals (feature `powerLaw`) |
+         *     | `powerLawInlierFraction` | double | 1 | fraction of bins the robust fit kept (feature `powerLaw`) |
+         *     | `lineNoiseRatio` | double | 1 | mean PSD in the line band over the mean PSD beside it (1 = none), at the mains frequency (feature `lineNoise`) |
+         *     | `lineNoiseMaxRatio` | double | 1 | the largest ratio over the mains frequency and its harmonics (feature `lineNoise`) |
+         *     | `lineNoise<frequency>Hz` | double | 1 | the ratio at each harmonic (feature `lineNoise`) |
+         *     | `flat` | boolean |  | quality flag of the epoch and channel (epoch rows only) (feature `quality`) |
+         *     | `clipped` | boolean |  | quality flag of the epoch and channel (epoch rows only) (feature `quality`) |
+         *     | `excessiveAmplitude` | boolean |  | quality flag of the epoch and channel (epoch rows only) (feature `quality`) |
+         *
+         *     **`spectra`**: one row per spectrum × channel × frequency bin.
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `frequency` | double | Hz | bin frequency |
+         *     | `psd` | double | signal unit²/Hz | one-sided power spectral density |
+         *     | `psdLower` | double | signal unit²/Hz | lower χ² confidence bound of the PSD (recipes with `confidence`) |
+         *     | `psdUpper` | double | signal unit²/Hz | upper χ² confidence bound of the PSD (recipes with `confidence`) |
+         *     | `degreesOfFreedom` | double |  | equivalent degrees of freedom behind the bounds (recipes with `confidence`) |
+         *
+         *     **`quality`**: one row per screened epoch × channel (with the quality feature).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `used` | boolean |  | whether the epoch entered the averages |
+         *     | `flat` | boolean |  | standard deviation at or below flatThreshold |
+         *     | `clipped` | boolean |  | a run of clipRunSamples samples at the epoch's minimum or maximum |
+         *     | `excessiveAmplitude` | boolean |  | peak-to-peak above maxPeakToPeak |
+         *     | `peakToPeak` | double | signal unit | max − min of the epoch |
+         *     | `standardDeviation` | double | signal unit | standard deviation of the epoch |
+         *     | `longestClipRun` | integer |  | longest run of samples at the epoch's minimum or maximum |
+         *
+         *     **`summary`**: one row per channel × band-and-window summary (morlet, spectrogram with `summary`).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `window` | string |  | name of the band-and-window summary from the recipe |
+         *     | `low` | double | Hz | lower frequency, included |
+         *     | `high` | double | Hz | upper frequency, excluded |
+         *     | `start` | double | s | window start, included (relative to the event or the epoch start) |
+         *     | `end` | double | s | window end, excluded |
+         *     | `value` | double | signal unit² (morlet), signal unit²/Hz (spectrogram), or the baseline mode | mean of the trial-averaged (normalized) power over the cells, edge cells left out; empty when no cell is left |
+         *     | `cells` | integer |  | time–frequency cells averaged |
+         *
+         *     **`pair-bands`**: one row per channel pair × band (connectivity).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `band` | string |  | band name from the recipe |
+         *     | `low` | double | Hz | lower band edge, included |
+         *     | `high` | double | Hz | upper band edge, excluded |
+         *     | `bins` | integer |  | frequency bins in the band |
+         *     | `coherence` | double | 1 | magnitude-squared coherence over the band |
+         *     | `imaginaryCoherency` | double | 1 | imaginary part of coherency over the band |
+         *     | `phaseLocking` | double | 1 | phase-locking value across epochs over the band; empty with fewer than 2 epochs |
+         *
+         *     **`pair-spectra`**: one row per channel pair × frequency bin (connectivity).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `frequency` | double | Hz | bin frequency |
+         *     | `coherence` | double | 1 | magnitude-squared coherence |
+         *     | `imaginaryCoherency` | double | 1 | imaginary part of coherency |
+         *     | `phaseLocking` | double | 1 | phase-locking value across epochs; empty with fewer than 2 epochs |
+         */
+        get: {
+            parameters: {
+                query?: {
+                    /** @description csv or parquet; default: from the Accept header, else csv */
+                    format?: "csv" | "parquet";
+                    /** @description the grain of a row; default: the first level the record gives (bands for spectra, summary for time–frequency, pair-bands for connectivity) */
+                    level?: "bands" | "ratios" | "features" | "spectra" | "quality" | "summary" | "pair-bands" | "pair-spectra";
+                };
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description the table, streamed: RFC 4180 CSV with a header row, or Apache Parquet (typed columns, Snappy) */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/vnd.apache.parquet": string;
+                        "text/csv": string;
+                    };
+                };
+                /** @description unknown level or format (the detail lists the allowed ones) */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description unknown job */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Accept allows neither CSV nor Parquet */
+                406: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the job has not succeeded */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the record cannot give this level; `levels` lists those it gives */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/v1/recipes": {
         parameters: {
             query?: never;
@@ -692,6 +901,8 @@ export interface paths {
                     channels?: string;
                     /** @description float32: epochs in the body, default 1 */
                     epochCount?: number;
+                    /** @description float32: the events as a URL-encoded JSON array [{"onset": s, "duration": s or null, "label": "…"}], as in a JSON upload (EDF+ files bring theirs as annotations); for lists too long for a URL, start a resumable upload with `events` in its body */
+                    events?: string;
                     /** @description binary body: float32 (default) or an EDF/EDF+ file */
                     format?: "float32" | "edf";
                     /** @description float32: NaN/±Inf samples refused (default) or kept as gaps */
@@ -1494,7 +1705,7 @@ export interface components {
              */
             window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
         };
-        /** @description Cut a continuous signal into epochs: fixed-length, or around its events (EDF+ annotations or uploaded events). */
+        /** @description Cut a continuous signal into epochs: fixed-length, around its events, or fixed-length inside labelled blocks (events with a duration), each epoch carrying its block label. Events come from EDF+ annotations or an upload. */
         Epoching: {
             /** @description epoch length */
             lengthSeconds: number;
@@ -1528,8 +1739,20 @@ export interface components {
             labels: string[] | null;
             /** @constant */
             mode: "events";
+        } | {
+            /** @description labels of the blocks to tile: events with a duration, e.g. "eyes-closed" */
+            labels: string[];
+            /** @description epoch length */
+            lengthSeconds: number;
+            /** @constant */
+            mode: "blocks";
+            /**
+             * @description time between epoch starts within a block; null = lengthSeconds (no overlap)
+             * @default null
+             */
+            stepSeconds: number | null;
         };
-        /** @description Cut a continuous signal into epochs: fixed-length, or around its events (EDF+ annotations or uploaded events). */
+        /** @description Cut a continuous signal into epochs: fixed-length, around its events, or fixed-length inside labelled blocks (events with a duration), each epoch carrying its block label. Events come from EDF+ annotations or an upload. */
         EpochingInput: {
             /** @description epoch length */
             lengthSeconds: number;
@@ -1563,6 +1786,18 @@ export interface components {
             labels: string[] | null;
             /** @constant */
             mode: "events";
+        } | {
+            /** @description labels of the blocks to tile: events with a duration, e.g. "eyes-closed" */
+            labels: string[];
+            /** @description epoch length */
+            lengthSeconds: number;
+            /** @constant */
+            mode: "blocks";
+            /**
+             * @description time between epoch starts within a block; null = lengthSeconds (no overlap)
+             * @default null
+             */
+            stepSeconds: number | null;
         };
         FeatureRecord: {
             engineVersion: string;
@@ -2022,6 +2257,14 @@ export interface components {
             channels?: string[];
             /** @description float32 only; default 1 */
             epochCount?: number;
+            /** @description float32 only: events, as in a JSON upload */
+            events?: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
             /** @description path relative to the server's DATA_ROOT */
             file: string;
             /**
@@ -2039,6 +2282,14 @@ export interface components {
             channels?: string[];
             /** @description float32 only; default 1 */
             epochCount?: number;
+            /** @description float32 only: events, as in a JSON upload */
+            events?: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
             /**
              * @description layout of the file
              * @default edf
@@ -2058,6 +2309,14 @@ export interface components {
             channels?: string[];
             /** @description float32 only; default 1 */
             epochCount?: number;
+            /** @description float32 only: events, as in a JSON upload */
+            events?: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
             /** @description path relative to the server's DATA_ROOT */
             file: string;
             /**
@@ -2075,6 +2334,14 @@ export interface components {
             channels?: string[];
             /** @description float32 only; default 1 */
             epochCount?: number;
+            /** @description float32 only: events, as in a JSON upload */
+            events?: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
             /**
              * @description layout of the file
              * @default edf
@@ -3321,6 +3588,14 @@ export interface components {
              * @default 1
              */
             epochCount: number;
+            /** @description float32 only: events, as in a JSON upload; EDF+ files bring theirs as annotations */
+            events?: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
             /** @enum {string} */
             format: "float32" | "edf";
             /**
@@ -3344,6 +3619,14 @@ export interface components {
              * @default 1
              */
             epochCount: number;
+            /** @description float32 only: events, as in a JSON upload; EDF+ files bring theirs as annotations */
+            events?: {
+                /** @description seconds, or null for a marker */
+                duration: number | null;
+                label: string;
+                /** @description seconds from the start */
+                onset: number;
+            }[];
             /** @enum {string} */
             format: "float32" | "edf";
             /**

@@ -23,6 +23,8 @@ export const PROBLEMS = {
   'job-not-found': { status: 404, title: 'Job not found', about: 'No job with this id.' },
   'job-finished': { status: 409, title: 'The job has already finished', about: 'Only queued or running jobs can be canceled.' },
   'attachment-not-found': { status: 404, title: 'Attachment not found', about: 'The record lists no binary attachment of that name.' },
+  'table-level-unavailable': { status: 422, title: 'The record cannot give this table level', about: 'Each kind of record gives some levels (spectra: bands, ratios, features, spectra, quality; time–frequency: summary; connectivity: pair-bands, pair-spectra); `levels` lists those this record gives.' },
+  'not-acceptable': { status: 406, title: 'No acceptable representation', about: 'The Accept header allows none of the formats this route gives; `formats` lists them (a `format` query parameter also chooses).' },
   'record-not-ready': { status: 409, title: 'The record is not ready', about: 'The job has not succeeded (yet); poll the job.' },
   'unauthenticated': { status: 401, title: 'Authentication required', about: 'Send a valid API key as "Authorization: Bearer <key>".' },
   'forbidden': { status: 403, title: 'Not allowed for this key', about: "The key's role (read, submit, admin) does not cover this route." },

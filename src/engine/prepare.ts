@@ -1,11 +1,11 @@
 import type { Recipe } from '../recipes/schema.js';
-import { eventLockedEpochs, fixedLengthEpochs, type DroppedEpoch, type EpochDescriptor, type EpochingResult } from '../signals/epoching.js';
+import { blockEpochs, eventLockedEpochs, fixedLengthEpochs, type DroppedEpoch, type EpochDescriptor, type EpochingResult } from '../signals/epoching.js';
 import type { Signal } from '../signals/signal.js';
 import { applyView, resolveView, type SignalView } from '../signals/view.js';
 import { EngineInputError } from './errors.js';
 
 export interface EpochingSummary {
-  mode: 'fixed' | 'events';
+  mode: 'fixed' | 'events' | 'blocks';
   kept: { index: number; source: number; label: string; startSeconds: number }[];
   dropped: { source: number; label: string; startSeconds: number; reason: DroppedEpoch['reason']; channel?: string; value?: number; span?: [number, number] }[];
 }
@@ -14,7 +14,7 @@ export interface EpochingSummary {
 export interface PreparedInput {
   signal: Signal;
   epoching: EpochingSummary | null;
-  /** per epoch, its event label (events mode) for grouping */
+  /** per epoch, its event or block label (events and blocks modes) for grouping */
   labels: string[] | null;
   /** closed [start, end] s spans of a continuous signal that Welch segments must avoid */
   badSpans: [number, number][];
@@ -49,6 +49,15 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
   const e = recipe.epoching;
   if (e.mode === 'fixed') {
     cut = fixedLengthEpochs(continuous, { lengthSeconds: e.lengthSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
+  } else if (e.mode === 'blocks') {
+    const wanted = new Set(e.labels);
+    const blocks = (signal.events ?? [])
+      .filter((ev) => wanted.has(ev.label) && (ev.duration ?? 0) > 0)
+      .map((ev) => ({ onset: ev.onset, duration: ev.duration!, label: ev.label }));
+    if (blocks.length === 0) {
+      throw new EngineInputError('no-usable-epochs', `the signal has no event with a duration labelled ${e.labels.map((l) => `"${l}"`).join(', ')} to cut epochs in`, '/recipe/epoching/labels');
+    }
+    cut = blockEpochs(continuous, blocks, { lengthSeconds: e.lengthSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
   } else {
     const wanted = e.labels ? new Set(e.labels) : null;
     const events = (signal.events ?? []).filter((ev) => !labelled.has(ev.label) && (wanted === null || wanted.has(ev.label))).map((ev) => ({ onset: ev.onset, label: ev.label }));
@@ -86,7 +95,7 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
     samplesPerEpoch: cut.samplesPerEpoch,
     data: cut.data,
   };
-  return { signal: epoched, epoching, labels: e.mode === 'events' ? cut.kept.map((d) => d.label) : null, badSpans: [], warnings };
+  return { signal: epoched, epoching, labels: e.mode === 'fixed' ? null : cut.kept.map((d) => d.label), badSpans: [], warnings };
 }
 
 function rereference(signal: Signal, reference: Recipe['reference']): Signal {

@@ -19,6 +19,7 @@ import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
+import { tableRoutes } from './routes/tables.js';
 
 export interface AppDeps {
   config: Readonly<Config>;
@@ -117,6 +118,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(signalRoutes(deps));
   await app.register(recipeRoutes(deps));
   await app.register(jobRoutes(deps));
+  await app.register(tableRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
   await app.ready();

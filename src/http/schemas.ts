@@ -17,11 +17,27 @@ export function problemResponse(description: string) {
   return { description, content: { 'application/problem+json': { schema: ProblemSchema } } };
 }
 
-const EventSchema = z.strictObject({
+export const EventSchema = z.strictObject({
   onset: z.number().describe('seconds from the start'),
   duration: z.number().min(0).nullable().describe('seconds, or null for a marker'),
   label: z.string().min(1).max(200),
 });
+
+/** Events of a signal, as every upload form takes them. */
+export const EventListSchema = z.array(EventSchema).max(100_000);
+
+/** A binary upload's events: the same list as in a JSON upload, as JSON text in one query parameter. */
+const EventsQuery = z
+  .string()
+  .transform((text, ctx) => {
+    try {
+      return JSON.parse(text) as unknown;
+    } catch (error) {
+      ctx.addIssue({ code: 'custom', message: `events must be a JSON array of {onset, duration, label}: ${(error as Error).message}` });
+      return z.NEVER;
+    }
+  })
+  .pipe(EventListSchema);
 
 const SampleRows = z.array(z.array(z.number().nullable()));
 
@@ -33,7 +49,7 @@ export const SignalUploadSchema = z
     unit: z.string().min(1).max(32).optional().describe('physical unit of the samples; default uV'),
     data: SampleRows.optional().describe('continuous chunk, channel × sample'),
     epochs: z.array(SampleRows).optional().describe('epoch × channel × sample'),
-    events: z.array(EventSchema).max(100_000).optional(),
+    events: EventListSchema.optional(),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('null samples: refuse (default) or keep as gaps'),
   })
   .meta({ id: 'SignalUpload' });
@@ -58,6 +74,7 @@ export const BinaryUploadQuery = z.strictObject({
   unit: z.string().min(1).max(32).optional(),
   nonFinite: z.enum(['reject', 'keep']).optional(),
   format: z.literal('float32').optional().describe('binary layout; float32 little-endian [epoch][channel][sample]'),
+  events: EventsQuery.optional(),
 });
 
 /** Query of an EDF/EDF+ upload: optional selection of channels (by label) or of one sampling rate. */
@@ -80,6 +97,10 @@ export const UploadQueryDoc = z
     epochCount: z.coerce.number().int().min(1).optional().describe('float32: epochs in the body, default 1'),
     unit: z.string().optional().describe('float32: physical unit, default uV'),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('float32: NaN/±Inf samples refused (default) or kept as gaps'),
+    events: z
+      .string()
+      .optional()
+      .describe('float32: the events as a URL-encoded JSON array [{"onset": s, "duration": s or null, "label": "…"}], as in a JSON upload (EDF+ files bring theirs as annotations); for lists too long for a URL, start a resumable upload with `events` in its body'),
   })
   .describe('describes a binary (application/octet-stream) body');
 
@@ -125,6 +146,7 @@ const importFields = {
   channels: z.array(z.string().min(1)).min(1).max(1024).optional().describe('float32: names (required); edf: labels to keep'),
   epochCount: z.number().int().min(1).optional().describe('float32 only; default 1'),
   unit: z.string().min(1).max(32).optional().describe('float32 only; default uV'),
+  events: EventListSchema.optional().describe('float32 only: events, as in a JSON upload'),
 };
 
 export const ImportSourceSchema = z

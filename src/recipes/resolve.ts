@@ -256,8 +256,8 @@ function epochLength(recipe: Recipe, shape: SignalShape): number {
     throw new RecipeInputError('unfit-for-signal', `epoching cuts a continuous signal; this one already has ${shape.epochCount} epochs`, '/epoching');
   }
   const fs = shape.samplingRate;
-  const samples = e.mode === 'fixed' ? Math.round(e.lengthSeconds * fs) : Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs);
-  if (samples < 2) throw new RecipeInputError('unfit-for-signal', `epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'fixed' ? '/epoching/lengthSeconds' : '/epoching/afterSeconds');
+  const samples = e.mode === 'events' ? Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs) : Math.round(e.lengthSeconds * fs);
+  if (samples < 2) throw new RecipeInputError('unfit-for-signal', `epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'events' ? '/epoching/afterSeconds' : '/epoching/lengthSeconds');
   if (samples > shape.samplesPerEpoch) {
     throw new RecipeInputError('unfit-for-signal', `epochs of ${samples} samples are longer than the signal (${shape.samplesPerEpoch} samples)`, '/epoching');
   }

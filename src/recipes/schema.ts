@@ -89,8 +89,18 @@ export const EpochingSchema = z
       afterSeconds: z.number().positive().max(3600).describe('data kept after each event'),
       baseline: z.tuple([z.number(), z.number()]).nullable().default(null).describe('[start, end) s relative to the event; its mean is subtracted per channel'),
     }),
+    z.strictObject({
+      mode: z.literal('blocks'),
+      labels: z.array(z.string().min(1)).min(1).max(256).describe('labels of the blocks to tile: events with a duration, e.g. "eyes-closed"'),
+      lengthSeconds: z.number().positive().max(3600).describe('epoch length'),
+      stepSeconds: z.number().positive().max(3600).nullable().default(null).describe('time between epoch starts within a block; null = lengthSeconds (no overlap)'),
+    }),
   ])
-  .meta({ id: 'Epoching', description: 'Cut a continuous signal into epochs: fixed-length, or around its events (EDF+ annotations or uploaded events).' });
+  .meta({
+    id: 'Epoching',
+    description:
+      'Cut a continuous signal into epochs: fixed-length, around its events, or fixed-length inside labelled blocks (events with a duration), each epoch carrying its block label. Events come from EDF+ annotations or an upload.',
+  });
 
 const common = {
   schema: z.literal(RECIPE_SCHEMA).default(RECIPE_SCHEMA).describe('recipe format version'),

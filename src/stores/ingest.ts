@@ -11,7 +11,7 @@ import { checkSignalShape } from '../signals/validate.js';
 import { withStorageReservation, type SignalMeta, type Store } from './store.js';
 
 export type IngestDescription =
-  | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; nonFinite?: 'reject' | 'keep' | undefined }
+  | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; nonFinite?: 'reject' | 'keep' | undefined; events?: SignalEvent[] | undefined }
   | { format: 'edf'; channels?: string[] | undefined; samplingRate?: number | undefined };
 
 export interface IngestOptions {
@@ -121,7 +121,9 @@ async function decodeFloat32File(input: FileHandle, size: number, out: string, d
   } finally {
     await output.close();
   }
-  return { description: { samplingRate: d.samplingRate, channels: [...d.channels], unit: d.unit ?? 'uV', epochCount: d.epochCount, samplesPerEpoch }, nonFinite, samplesSha256: hash.digest('hex') };
+  // Events as a JSON upload has them: kept only when there are some, so the content hash is the same.
+  const events = d.events && d.events.length > 0 ? { events: d.events.map((ev) => ({ ...ev })) } : {};
+  return { description: { samplingRate: d.samplingRate, channels: [...d.channels], unit: d.unit ?? 'uV', epochCount: d.epochCount, samplesPerEpoch, ...events }, nonFinite, samplesSha256: hash.digest('hex') };
 }
 
 async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Extract<IngestDescription, { format: 'edf' }>, limits: SignalLimits): Promise<Decoded> {

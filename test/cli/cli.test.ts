@@ -139,6 +139,33 @@ describe('rhythmetric (the command line)', () => {
     });
   });
 
+  describe('when a table is asked for', () => {
+    it('should write the same CSV as the server\'s table route, and fetch that route with the table command', async () => {
+      const out = join(dir, 'bands.csv');
+      const local = await runCli(['analyze', signalFile, '--recipe', recipeFile, '--table', 'bands', '--format', 'csv', '--out', out]);
+      expect(local.code, local.stderr).toBe(0);
+      const upload = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal: JSON.parse(await readFile(signalFile, 'utf8')), recipe: RECIPE } });
+      const jobId = (upload.json() as { id: string }).id;
+      expect((await pollJob(api.app, jobId)).state).toBe('succeeded');
+      const served = (await api.app.inject({ method: 'GET', url: `/v1/jobs/${jobId}/table?level=bands&format=csv` })).body;
+      expect(await readFile(out, 'utf8')).toBe(served);
+
+      const fetched = join(dir, 'fetched.parquet');
+      const remote = await runCli(['table', jobId, '--level', 'bands', '--format', 'parquet', '--server', server, '--out', fetched]);
+      expect(remote.code, remote.stderr).toBe(0);
+      // Parquet files begin and end with the magic bytes "PAR1" (Apache Parquet file format).
+      const bytes = await readFile(fetched);
+      expect(bytes.subarray(0, 4).toString()).toBe('PAR1');
+      expect(bytes.subarray(-4).toString()).toBe('PAR1');
+    }, 60_000);
+
+    it('should refuse a level the record cannot give with exit status 2, listing those it can', async () => {
+      const run = await runCli(['analyze', signalFile, '--recipe', recipeFile, '--table', 'pair-bands']);
+      expect(run.code).toBe(2);
+      expect(run.stderr).toMatch(/"bands"/);
+    });
+  });
+
   describe('when asked for help', () => {
     it('should describe every command in its own help and exit 0', async () => {
       const commands = ['analyze', 'verify', 'record', 'plot', 'table', 'serve', 'worker', 'demo'];

@@ -4,18 +4,13 @@ import { decodeJsonSignal } from '../../signals/decode-json.js';
 import type { SignalView } from '../../signals/view.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
+import { requireJob as requireJobOf, unavailable } from '../job-access.js';
 import { importSignal } from '../imports.js';
 import { FeatureRecordSchema, ImportSourceSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse } from '../schemas.js';
 import { getRecipe, getSignalMeta, pinRecipe, planJob, storeSignal } from '../services.js';
 import { zodValidator } from '../validation.js';
 import { tenantOf } from '../auth.js';
 import { z } from 'zod';
-
-/** A queue fault becomes 503 with Retry-After, never a 500 that hides a transient outage. */
-function unavailable(error: unknown, what = 'try again shortly'): ProblemError {
-  const reason = error instanceof Error ? error.message : String(error);
-  return new ProblemError('queue-unavailable', `the job queue cannot be reached (${reason}); ${what}`, null, { 'retry-after': '5' });
-}
 
 function present(job: JobView) {
   const { recordKey: _key, ...rest } = job;
@@ -34,19 +29,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     return (await store.getDocument('records', entry.recordKey).catch(() => null)) !== null ? entry.recordKey : null;
   }
 
-  async function requireJob(id: string, tenant: string): Promise<JobView> {
-    let job: JobView | null = null;
-    if (/^job_[0-9a-f]{32}$/.test(id)) {
-      try {
-        job = await queue.get(id);
-      } catch (error) {
-        throw unavailable(error);
-      }
-    }
-    // Another tenant's job answers exactly like a missing one.
-    if (!job || job.tenant !== tenant) throw new ProblemError('job-not-found', `no job with id "${id}"`);
-    return job;
-  }
+  const requireJob = (id: string, tenant: string) => requireJobOf(queue, id, tenant);
 
   app.post(
     '/v1/jobs',

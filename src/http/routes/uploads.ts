@@ -11,7 +11,7 @@ import { tenantOf } from '../auth.js';
 import { describeIngest } from '../imports.js';
 import { ProblemError } from '../problem.js';
 import { isStream, receiveToFile } from '../receive.js';
-import { problemResponse, SignalInfoSchema } from '../schemas.js';
+import { EventListSchema, problemResponse, SignalInfoSchema } from '../schemas.js';
 import { zodValidator } from '../validation.js';
 
 const MAX_PARTS = 10_000;
@@ -24,6 +24,7 @@ const UploadStart = z
     epochCount: z.number().int().min(1).default(1).describe('float32 only'),
     unit: z.string().min(1).max(32).optional().describe('float32 only; default uV'),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('float32 only'),
+    events: EventListSchema.optional().describe('float32 only: events, as in a JSON upload; EDF+ files bring theirs as annotations'),
     sha256: z.string().regex(/^[0-9a-f]{64}$/).optional().describe('SHA-256 of the whole file (all parts in order); checked when the upload completes'),
   })
   .meta({ id: 'UploadStart', description: 'Starts a resumable upload of a large file in numbered parts.' });
