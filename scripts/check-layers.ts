@@ -18,9 +18,10 @@ const ALLOWED: Record<string, string[]> = {
   stores: ['signals', 'common'],
   tables: ['engine', 'common'],
   jobs: ['engine', 'stores', 'recipes', 'signals', 'common'],
-  http: ['tables', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
+  studies: ['tables', 'jobs', 'stores', 'recipes', 'signals', 'common'],
+  http: ['studies', 'tables', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'common', 'config'],
   client: [],
-  cli: ['client', 'tables', 'http', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  cli: ['client', 'tables', 'http', 'studies', 'jobs', 'stores', 'recipes', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

@@ -48,6 +48,7 @@ const EnvSchema = z.object({
   FETCH_MAX_REDIRECTS: int(3, 0),
   RETENTION_DAYS: z.coerce.number().min(0).default(0),
   SWEEP_INTERVAL_SECONDS: int(3600),
+  STUDY_RUN_WINDOW: z.coerce.number().int().min(1).optional(),
 });
 
 export interface Config {
@@ -88,6 +89,8 @@ export interface Config {
   /** days after which signals, jobs and records are swept; 0 = kept */
   retentionDays: number;
   sweepIntervalSeconds: number;
+  /** jobs of one study run in the queue at once (fairness towards other jobs) */
+  studyRunWindow: number;
 }
 
 export const ROLES = ['read', 'submit', 'admin'] as const;
@@ -165,6 +168,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     fetchMaxRedirects: e.FETCH_MAX_REDIRECTS,
     retentionDays: e.RETENTION_DAYS,
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
+    // A run keeps at most this many of its jobs in the queue at once, so other jobs wait behind a
+    // few of a run's, never behind all of them; by default one per compute thread.
+    studyRunWindow: e.STUDY_RUN_WINDOW ?? e.WORKER_THREADS,
   };
   return deepFreeze(config);
 }

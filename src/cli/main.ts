@@ -70,9 +70,10 @@ function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>) => Pr
     .command('demo')
     .description('write the invented night-shift alertness study (demo data, no real person) as upload-ready JSON')
     .option('--out <dir>', 'directory to write into', 'demo-data')
-    .action(async (options: { out: string }) => {
+    .option('--tenant <name>', 'write the study manifest with the signal ids this tenant gets (default: public, the open-mode tenant)', 'public')
+    .action(async (options: { out: string; tenant: string }) => {
       const { runDemoCommand } = await import('./demo.js');
-      program.setOptionValue('exitCode', await runDemoCommand(['--out', options.out]));
+      program.setOptionValue('exitCode', await runDemoCommand(['--out', options.out, '--tenant', options.tenant]));
     });
 
   inputOptions(

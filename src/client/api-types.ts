@@ -1134,6 +1134,748 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/v1/studies": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The caller's studies, oldest first, a page at a time */
+        get: {
+            parameters: {
+                query?: {
+                    /** @description cursor: the `next` of the previous page */
+                    after?: string;
+                    limit?: number;
+                };
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            /** @description cursor of the next page; null on the last */
+                            next: string | null;
+                            studies: components["schemas"]["Study"][];
+                        };
+                    };
+                };
+            };
+        };
+        put?: never;
+        /** Create a study */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": {
+                        description?: string;
+                        name: string;
+                    };
+                };
+            };
+            responses: {
+                /** @description Default Response */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Study"];
+                    };
+                };
+                /** @description malformed request */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/studies/{id}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** A study */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Study"];
+                    };
+                };
+                /** @description unknown study */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        /** Delete a study, its entries and its runs (unfinished runs are canceled first); signals, jobs and records stay */
+        delete: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            /** @enum {boolean} */
+                            deleted: true;
+                            id: string;
+                        };
+                    };
+                };
+                /** @description unknown study */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/studies/{id}/entries": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** A study's entries in the order they were added, a page at a time */
+        get: {
+            parameters: {
+                query?: {
+                    /** @description cursor: the `next` of the previous page */
+                    after?: string;
+                    limit?: number;
+                };
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            entries: components["schemas"]["StudyEntry"][];
+                            next: string | null;
+                        };
+                    };
+                };
+                /** @description unknown study */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        /** Add entries: a JSON list or a CSV manifest, all or nothing */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            /** @description JSON entries; or a CSV manifest (`Content-Type: text/csv`, RFC 4180, header row) with a `signal` or `upload` column, optional `start`, `end` (seconds) and `channels` (names separated by `;`), and one column per metadata key (a `subject` column is required; a header `age:number` makes a numeric column, other cells are text). The whole list is refused on the first fault, naming row and column; nothing is added then. */
+            requestBody: {
+                content: {
+                    "application/json": {
+                        entries: components["schemas"]["NewStudyEntryInput"][];
+                    };
+                };
+            };
+            responses: {
+                /** @description Default Response */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            added: number;
+                            entries: components["schemas"]["StudyEntry"][];
+                        };
+                    };
+                };
+                /** @description unknown study */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description neither JSON nor text/csv */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description a row is refused (row, column and pointer say where); nothing was added */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/studies/{id}/entries/{entryId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post?: never;
+        /** Remove an entry (runs already started keep it) */
+        delete: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    entryId: string;
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            /** @enum {boolean} */
+                            deleted: true;
+                            id: string;
+                        };
+                    };
+                };
+                /** @description unknown study or entry */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/studies/{id}/runs": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** A study's runs, oldest first */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": {
+                            runs: components["schemas"]["StudyRun"][];
+                        };
+                    };
+                };
+                /** @description unknown study */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        /**
+         * Run one recipe over the study (or the entries the filter selects), or retry the failed entries of a run
+         * @description One ordinary job per entry, on the same queue as single jobs; an entry whose record exists already is not computed again. At most STUDY_RUN_WINDOW (here 2) of a run's jobs are queued at once; the next are queued as those finish, so other jobs never wait behind a whole run. An entry the recipe does not fit fails at once with its problem.
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["StudyRunRequestInput"];
+                };
+            };
+            responses: {
+                /** @description Default Response */
+                202: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["StudyRun"];
+                    };
+                };
+                /** @description malformed request, or no entry is selected */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description unknown study, recipe or run to retry */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the recipe is invalid */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the queue is unavailable */
+                503: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/studies/{id}/runs/{runId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Progress of a run: counts per state, its failed entries with their problems, its state */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                    runId: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["StudyRun"];
+                    };
+                };
+                /** @description unknown study or run */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        /** Cancel a run: no more of its jobs are queued, and its queued and running jobs are canceled */
+        delete: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path: {
+                    id: string;
+                    runId: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["StudyRun"];
+                    };
+                };
+                /** @description unknown study or run */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the run already finished */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/studies/{id}/runs/{runId}/table": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * One table over every succeeded entry of a run, each row carrying its entry's metadata columns
+         * @description Every succeeded entry's table, in the order of the run, each row led by an `entry` column and one column per metadata key (a key numeric in every entry is a double column, else text).
+         *
+         *     A tidy table of the record: `?level=` chooses the grain of a row, `?format=` (or `Accept: text/csv` / `application/vnd.apache.parquet`) the format. Numbers are written so that they read back to the same double; an empty CSV cell (a Parquet null) means null. Rows for the mean come first, then the means per event label, then each epoch when the recipe asked for `perEpoch`.
+         *
+         *     Every row starts with where it comes from and ends with provenance:
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `entry` | string |  | the study entry the row comes from (run-level tables only) |
+         *     | `<metadata key>` | string |  | one column per entry metadata key (run-level tables); double when every entry's value is a number |
+         *     | `signal` | string |  | id of the stored signal the record was computed from |
+         *     | `scope` | string |  | "mean" over every used epoch, "label-mean" over the epochs of one event or block label, or "epoch" for one epoch |
+         *     | `epoch` | integer |  | index of the analysed epoch (as in the record); empty for means |
+         *     | `epochStart` | double | s | start of the epoch, in seconds from the start of the stored signal; empty for means and for uploaded epochs, which have no time line |
+         *     | `label` | string |  | event or block label of the epoch (events or blocks epoching), or of a label mean; empty otherwise |
+         *     | `channel` | string |  | channel name |
+         *     | `channelA` | string |  | first channel of the pair |
+         *     | `channelB` | string |  | second channel of the pair |
+         *     | `recipe` | string |  | id of the pinned recipe |
+         *     | `resultHash` | string |  | SHA-256 of the record's canonical result: rows with equal hashes come from identical results |
+         *
+         *     `channel` is replaced by `channelA`, `channelB` in the pair levels. Then the values of each level:
+         *
+         *     **`bands`**: one row per spectrum × channel × band (welch, multitaper, periodogram).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `band` | string |  | band name from the recipe |
+         *     | `low` | double | Hz | lower band edge, included |
+         *     | `high` | double | Hz | upper band edge, excluded |
+         *     | `absolute` | double | signal unit² | Σ PSD·Δf over the bins low ≤ f < high |
+         *     | `relative` | double | 1 | absolute over the same sum across the recipe's frequencyRange; empty when that total is 0 |
+         *     | `decibels` | double | dB re 1 signal unit² | 10·log10(absolute); empty when absolute is 0 |
+         *     | `bins` | integer |  | frequency bins summed |
+         *
+         *     **`ratios`**: one row per spectrum × channel × band ratio (when the recipe has ratios).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `ratio` | string |  | ratio name (default "numerator/denominator") |
+         *     | `numerator` | string |  | band over the line |
+         *     | `denominator` | string |  | band under the line |
+         *     | `value` | double | 1 | absolute power of the numerator band over that of the denominator band; empty when the denominator is 0 |
+         *
+         *     **`features`**: one row per spectrum × channel, one column per feature the recipe names.
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `peakFrequency` | double | Hz | frequency of the highest peak above the power-law background; empty when none stands out (feature `peakFrequency`) |
+         *     | `peakPower` | double | signal unit²/Hz | PSD at the peak (feature `peakFrequency`) |
+         *     | `peakHeight` | double | dB | height of the peak above the background (feature `peakFrequency`) |
+         *     | `centroid` | double | Hz | power-weighted mean frequency Σf·P/ΣP (feature `centroid`) |
+         *     | `spectralEdge<percentile>` | double | Hz | frequency below which <percentile> % of the power in the range lies (a "." in the percentile is written "_") (feature `spectralEdge`) |
+         *     | `entropy` | double | 1 | normalized spectral entropy, 0…1 (feature `entropy`) |
+         *     | `powerLawIntercept` | double | log10 signal unit²/Hz | log10 of the fitted PSD at 1 Hz (feature `powerLaw`) |
+         *     | `powerLawSlope` | double | 1 | d log10 PSD / d log10 f (−1 for 1/f) (feature `powerLaw`) |
+         *     | `powerLawRSquared` | double | 1 | coefficient of determination of the fit (feature `powerLaw`) |
+         *     | `powerLawResidualRms` | double | decades | RMS of the log10 residuals (feature `powerLaw`) |
+         *     | `powerLawInlierFraction` | double | 1 | fraction of bins the robust fit kept (feature `powerLaw`) |
+         *     | `lineNoiseRatio` | double | 1 | mean PSD in the line band over the mean PSD beside it (1 = none), at the mains frequency (feature `lineNoise`) |
+         *     | `lineNoiseMaxRatio` | double | 1 | the largest ratio over the mains frequency and its harmonics (feature `lineNoise`) |
+         *     | `lineNoise<frequency>Hz` | double | 1 | the ratio at each harmonic (feature `lineNoise`) |
+         *     | `flat` | boolean |  | quality flag of the epoch and channel (epoch rows only) (feature `quality`) |
+         *     | `clipped` | boolean |  | quality flag of the epoch and channel (epoch rows only) (feature `quality`) |
+         *     | `excessiveAmplitude` | boolean |  | quality flag of the epoch and channel (epoch rows only) (feature `quality`) |
+         *
+         *     **`spectra`**: one row per spectrum × channel × frequency bin.
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `frequency` | double | Hz | bin frequency |
+         *     | `psd` | double | signal unit²/Hz | one-sided power spectral density |
+         *     | `psdLower` | double | signal unit²/Hz | lower χ² confidence bound of the PSD (recipes with `confidence`) |
+         *     | `psdUpper` | double | signal unit²/Hz | upper χ² confidence bound of the PSD (recipes with `confidence`) |
+         *     | `degreesOfFreedom` | double |  | equivalent degrees of freedom behind the bounds (recipes with `confidence`) |
+         *
+         *     **`quality`**: one row per screened epoch × channel (with the quality feature).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `used` | boolean |  | whether the epoch entered the averages |
+         *     | `flat` | boolean |  | standard deviation at or below flatThreshold |
+         *     | `clipped` | boolean |  | a run of clipRunSamples samples at the epoch's minimum or maximum |
+         *     | `excessiveAmplitude` | boolean |  | peak-to-peak above maxPeakToPeak |
+         *     | `peakToPeak` | double | signal unit | max − min of the epoch |
+         *     | `standardDeviation` | double | signal unit | standard deviation of the epoch |
+         *     | `longestClipRun` | integer |  | longest run of samples at the epoch's minimum or maximum |
+         *
+         *     **`summary`**: one row per channel × band-and-window summary (morlet, spectrogram with `summary`).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `window` | string |  | name of the band-and-window summary from the recipe |
+         *     | `low` | double | Hz | lower frequency, included |
+         *     | `high` | double | Hz | upper frequency, excluded |
+         *     | `start` | double | s | window start, included (relative to the event or the epoch start) |
+         *     | `end` | double | s | window end, excluded |
+         *     | `value` | double | signal unit² (morlet), signal unit²/Hz (spectrogram), or the baseline mode | mean of the trial-averaged (normalized) power over the cells, edge cells left out; empty when no cell is left |
+         *     | `cells` | integer |  | time–frequency cells averaged |
+         *
+         *     **`pair-bands`**: one row per channel pair × band (connectivity).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `band` | string |  | band name from the recipe |
+         *     | `low` | double | Hz | lower band edge, included |
+         *     | `high` | double | Hz | upper band edge, excluded |
+         *     | `bins` | integer |  | frequency bins in the band |
+         *     | `coherence` | double | 1 | magnitude-squared coherence over the band |
+         *     | `imaginaryCoherency` | double | 1 | imaginary part of coherency over the band |
+         *     | `phaseLocking` | double | 1 | phase-locking value across epochs over the band; empty with fewer than 2 epochs |
+         *
+         *     **`pair-spectra`**: one row per channel pair × frequency bin (connectivity).
+         *
+         *     | column | type | unit | meaning |
+         *     |---|---|---|---|
+         *     | `frequency` | double | Hz | bin frequency |
+         *     | `coherence` | double | 1 | magnitude-squared coherence |
+         *     | `imaginaryCoherency` | double | 1 | imaginary part of coherency |
+         *     | `phaseLocking` | double | 1 | phase-locking value across epochs; empty with fewer than 2 epochs |
+         */
+        get: {
+            parameters: {
+                query?: {
+                    /** @description csv or parquet; default: from the Accept header, else csv */
+                    format?: "csv" | "parquet";
+                    /** @description the grain of a row; default: the first level the record gives (bands for spectra, summary for time–frequency, pair-bands for connectivity) */
+                    level?: "bands" | "ratios" | "features" | "spectra" | "quality" | "summary" | "pair-bands" | "pair-spectra";
+                };
+                header?: never;
+                path: {
+                    id: string;
+                    runId: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description the table, streamed: RFC 4180 CSV with a header row, or Apache Parquet (typed columns, Snappy) */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/vnd.apache.parquet": string;
+                        "text/csv": string;
+                    };
+                };
+                /** @description unknown level or format */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description unknown study or run */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Accept allows neither CSV nor Parquet */
+                406: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description no entry of the run has succeeded yet */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description the records of this recipe cannot give the level */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/v1/uploads": {
         parameters: {
             query?: never;
@@ -2899,6 +3641,50 @@ export interface components {
              */
             timeBandwidth: number;
         };
+        /** @description A stored signal (or a part of one) and its metadata. */
+        NewStudyEntry: {
+            /** @description [start, end] seconds from the signal start, left out of the analysis */
+            badSpans?: [
+                number,
+                number
+            ][];
+            /** @description channel names to keep, in this order */
+            channels?: string[];
+            /** @description seconds, excluded */
+            end?: number;
+            /** @description subject (required), session, condition and any further keys: letters, digits and _, not a table column name; string or number values */
+            metadata: {
+                [key: string]: string | number;
+            };
+            /** @description id of a stored signal */
+            signal?: string;
+            /** @description seconds from the start of a continuous signal */
+            start?: number;
+            /** @description id of a completed resumable upload (instead of signal) */
+            upload?: string;
+        };
+        /** @description A stored signal (or a part of one) and its metadata. */
+        NewStudyEntryInput: {
+            /** @description [start, end] seconds from the signal start, left out of the analysis */
+            badSpans?: [
+                number,
+                number
+            ][];
+            /** @description channel names to keep, in this order */
+            channels?: string[];
+            /** @description seconds, excluded */
+            end?: number;
+            /** @description subject (required), session, condition and any further keys: letters, digits and _, not a table column name; string or number values */
+            metadata: {
+                [key: string]: string | number;
+            };
+            /** @description id of a stored signal */
+            signal?: string;
+            /** @description seconds from the start of a continuous signal */
+            start?: number;
+            /** @description id of a completed resumable upload (instead of signal) */
+            upload?: string;
+        };
         /** @description The (modified) periodogram of each whole epoch. */
         PeriodogramRecipe: {
             /**
@@ -3554,6 +4340,176 @@ export interface components {
              * @default 0.5
              */
             windowSeconds: number;
+        };
+        Study: {
+            createdAt: string;
+            description: string | null;
+            entryCount: number;
+            id: string;
+            links: {
+                entries: string;
+                runs: string;
+                self: string;
+            };
+            name: string;
+            updatedAt: string;
+        };
+        StudyEntry: {
+            addedAt: string;
+            id: string;
+            metadata: {
+                [key: string]: string | number;
+            };
+            sha256: string;
+            signal: string;
+            view: {
+                badSpans?: [
+                    number,
+                    number
+                ][];
+                channels?: string[];
+                end?: number;
+                start?: number;
+            } | null;
+        };
+        StudyEntryInput: {
+            addedAt: string;
+            id: string;
+            metadata: {
+                [key: string]: string | number;
+            };
+            sha256: string;
+            signal: string;
+            view: {
+                badSpans?: [
+                    number,
+                    number
+                ][];
+                channels?: string[];
+                end?: number;
+                start?: number;
+            } | null;
+        };
+        StudyInput: {
+            createdAt: string;
+            description: string | null;
+            entryCount: number;
+            id: string;
+            links: {
+                entries: string;
+                runs: string;
+                self: string;
+            };
+            name: string;
+            updatedAt: string;
+        };
+        StudyRun: {
+            canceledAt: string | null;
+            counts: {
+                canceled: number;
+                failed: number;
+                queued: number;
+                /** @description entries whose record already existed or was already being computed, so nothing new was queued */
+                reused: number;
+                running: number;
+                succeeded: number;
+                total: number;
+                /** @description not yet in the queue: a run keeps only a bounded window of its jobs queued */
+                waiting: number;
+            };
+            createdAt: string;
+            failed: {
+                entryId: string;
+                job: string;
+                metadata: {
+                    [key: string]: string | number;
+                };
+                problem: components["schemas"]["Problem"] | null;
+                signal: string;
+            }[];
+            filter: {
+                [key: string]: unknown;
+            } | null;
+            finishedAt: string | null;
+            id: string;
+            links: {
+                self: string;
+                table: string;
+            };
+            progress: number;
+            recipe: {
+                hash: string;
+                id: string;
+                method: string;
+            };
+            retryOf: string | null;
+            /** @enum {string} */
+            state: "running" | "succeeded" | "failed" | "canceled";
+            study: string;
+        };
+        StudyRunInput: {
+            canceledAt: string | null;
+            counts: {
+                canceled: number;
+                failed: number;
+                queued: number;
+                /** @description entries whose record already existed or was already being computed, so nothing new was queued */
+                reused: number;
+                running: number;
+                succeeded: number;
+                total: number;
+                /** @description not yet in the queue: a run keeps only a bounded window of its jobs queued */
+                waiting: number;
+            };
+            createdAt: string;
+            failed: {
+                entryId: string;
+                job: string;
+                metadata: {
+                    [key: string]: string | number;
+                };
+                problem: components["schemas"]["ProblemInput"] | null;
+                signal: string;
+            }[];
+            filter: {
+                [key: string]: unknown;
+            } | null;
+            finishedAt: string | null;
+            id: string;
+            links: {
+                self: string;
+                table: string;
+            };
+            progress: number;
+            recipe: {
+                hash: string;
+                id: string;
+                method: string;
+            };
+            retryOf: string | null;
+            /** @enum {string} */
+            state: "running" | "succeeded" | "failed" | "canceled";
+            study: string;
+        };
+        StudyRunRequest: {
+            /** @description only entries whose metadata key equals the value (or one of a list), e.g. {"condition": "eyes-closed", "session": ["early", "late"]} */
+            filter?: {
+                [key: string]: string | number | (string | number)[];
+            };
+            /** @description required unless retryOf is given */
+            recipe?: string | components["schemas"]["Recipe"];
+            /** @description id of a finished run of this study: run its failed and canceled entries again, with its recipe */
+            retryOf?: string;
+        };
+        StudyRunRequestInput: {
+            /** @description only entries whose metadata key equals the value (or one of a list), e.g. {"condition": "eyes-closed", "session": ["early", "late"]} */
+            filter?: {
+                [key: string]: string | number | (string | number)[];
+            };
+            /** @description required unless retryOf is given */
+            recipe?: string | components["schemas"]["RecipeInput"];
+            /** @description id of a finished run of this study: run its failed and canceled entries again, with its recipe */
+            retryOf?: string;
         };
         Upload: {
             bytes: number;

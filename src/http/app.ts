@@ -19,6 +19,7 @@ import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
+import { studyRoutes } from './routes/studies.js';
 import { tableRoutes } from './routes/tables.js';
 
 export interface AppDeps {
@@ -108,6 +109,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
         { name: 'signals', description: 'Upload and describe signals' },
         { name: 'recipes', description: 'Pin analysis recipes' },
         { name: 'jobs', description: 'Submit analyses and fetch feature records' },
+        { name: 'studies', description: 'Recordings with their metadata, grouped in studies; one recipe run over a whole study' },
         { name: 'operations', description: 'Health, readiness and documentation' },
       ],
     },
@@ -121,6 +123,7 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   await app.register(tableRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
+  await app.register(studyRoutes(deps));
   await app.ready();
   return app;
 }

@@ -1,6 +1,6 @@
 import type { FastifyError, FastifyReply, FastifyRequest } from 'fastify';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
-import type { ProblemCode } from '../common/errors.js';
+import { DomainError, type ProblemCode } from '../common/errors.js';
 import { RecipeInputError } from '../recipes/errors.js';
 import { SignalInputError } from '../signals/errors.js';
 import { StorageFullError } from '../stores/store.js';
@@ -49,6 +49,7 @@ function isConnectionFault(error: Error): boolean {
 
 /** Maps every error to a problem code; unknown errors become `internal` with no internals exposed. */
 export function mapError(error: FastifyError | Error, request: FastifyRequest): Mapped {
+  if (error instanceof DomainError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extensions };
   if (error instanceof ProblemError) return { code: error.code, detail: error.detail, pointer: error.pointer, headers: error.headers, extra: error.extra };
   if (error instanceof SignalInputError) {
     const prefix = error.pointer === null ? '' : (request.routeOptions.config.signalPointer ?? '');

@@ -13,7 +13,7 @@ export interface SignalMeta extends SignalDescription {
   storedAt: string;
 }
 
-export type Collection = 'recipes' | 'records' | 'jobs' | 'job-index';
+export type Collection = 'recipes' | 'records' | 'jobs' | 'job-index' | 'studies' | 'runs' | 'upload-signals';
 
 /**
  * Content-addressed storage for signals and JSON documents. Every write is atomic: a reader sees

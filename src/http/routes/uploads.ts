@@ -185,6 +185,8 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
       }
       try {
         const meta = await ingestFile(deps.store, joined, describeIngest(stored.start, ''), { tenant: stored.tenant, limits: deps.config.signalLimits, maxStoreBytes: deps.config.maxStoreBytes });
+        // Study manifests may name the upload instead of the signal it became.
+        await deps.store.putDocument('upload-signals', stored.id, JSON.stringify({ tenant: stored.tenant, signal: meta.id }));
         await rm(dir, { recursive: true, force: true });
         request.log.info({ uploadId: stored.id, signalId: meta.id, bytes: meta.bytes, parts: list.length }, 'upload completed');
         return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
