@@ -109,6 +109,26 @@ function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>) => Pr
       program.setOptionValue('exitCode', await run((abort) => runVerify(recordPath, file, options as never, createTerminal({ json: options.json === true }), abort)));
     });
 
+  const study = program.command('study').description('studies: many files with their metadata, one recipe, one table');
+  inputOptions(
+    study
+      .command('run')
+      .description('analyze every file of a manifest with one recipe, here or on a server with --server; running it again skips what is done')
+      .argument('<manifest>', 'CSV manifest (RFC 4180, header row): a "file" column (relative to the manifest), "subject", optional start, end and channels, and metadata columns ("age:number" for numbers)')
+      .requiredOption('--recipe <recipe>', 'a recipe file, inline JSON, a record file (its recipe is used), or a pinned id rcp_… (with --server)')
+      .option('--out <dir>', 'directory for the records (here), the run table and the study state (default: <manifest name>-run)')
+      .addOption(new Option('--table <level>', 'also write the run table: every entry\'s rows led by the entry and its metadata').choices([...TABLE_LEVELS]))
+      .addOption(new Option('--format <format>', 'the table\'s format (default csv)').choices([...TABLE_FORMATS])),
+  )
+    .addOption(serverOption())
+    .addOption(keyOption())
+    .addOption(jsonOption())
+    .addHelpText('after', '\nExit status: 0 every entry done, 1 some entries failed (each is listed), 2 a bad manifest, recipe or option, 130 interrupted.')
+    .action(async (manifest: string, options: Record<string, unknown>) => {
+      const { runStudy } = await import('./study.js');
+      program.setOptionValue('exitCode', await run((abort) => runStudy(manifest, options as never, createTerminal({ json: options.json === true }), abort)));
+    });
+
   program
     .command('record')
     .description('fetch the feature record of a finished job from a server')

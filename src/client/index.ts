@@ -17,6 +17,8 @@ export type Problem = components['schemas']['Problem'];
 export type SignalInfo = components['schemas']['SignalInfo'];
 export type PinnedRecipe = components['schemas']['PinnedRecipe'];
 export type JobRequest = components['schemas']['JobRequestInput'];
+export type Study = components['schemas']['Study'];
+export type StudyRun = components['schemas']['StudyRun'];
 
 export interface ClientOptions {
   /** e.g. http://127.0.0.1:8080 */
@@ -124,6 +126,39 @@ export function createRhythmetricClient(options: ClientOptions) {
 
     async getAttachment(id: string, name: string): Promise<Uint8Array> {
       return new Uint8Array(expectData(await api.GET('/v1/jobs/{id}/attachments/{name}', { params: { path: { id, name } }, parseAs: 'arrayBuffer' })));
+    },
+
+    async createStudy(study: { name: string; description?: string }): Promise<Study> {
+      return expectData(await api.POST('/v1/studies', { body: study as never }));
+    },
+
+    /** Adds entries all or nothing, as JSON `{entries: [...]}` or a CSV manifest (text). */
+    async addStudyEntries(studyId: string, entries: unknown[] | string) {
+      if (typeof entries === 'string') {
+        return expectData(
+          await api.POST('/v1/studies/{id}/entries', {
+            params: { path: { id: studyId } },
+            body: entries as never,
+            bodySerializer: (b: unknown) => b as never,
+            headers: { 'content-type': 'text/csv' },
+          }),
+        );
+      }
+      return expectData(await api.POST('/v1/studies/{id}/entries', { params: { path: { id: studyId } }, body: { entries } as never }));
+    },
+
+    async startStudyRun(studyId: string, request: { recipe: unknown; filter?: Record<string, unknown> } | { retryOf: string }): Promise<StudyRun> {
+      return expectData(await api.POST('/v1/studies/{id}/runs', { params: { path: { id: studyId } }, body: request as never }));
+    },
+
+    async getStudyRun(studyId: string, runId: string): Promise<StudyRun> {
+      return expectData(await api.GET('/v1/studies/{id}/runs/{runId}', { params: { path: { id: studyId, runId } } }));
+    },
+
+    /** A run's table (every succeeded entry's rows, led by the entry and its metadata). */
+    async getStudyRunTable(studyId: string, runId: string, query: { level?: string; format?: string }): Promise<Uint8Array> {
+      const result = await api.GET('/v1/studies/{id}/runs/{runId}/table', { params: { path: { id: studyId, runId }, query: query as never }, parseAs: 'arrayBuffer' });
+      return new Uint8Array(expectData(result));
     },
 
     /**
