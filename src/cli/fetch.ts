@@ -26,6 +26,6 @@ export async function runPlot(job: string, kind: string, options: ServerOptions 
 
 /** `rhythmetric table JOB`: a job's record as a table (CSV or Parquet), made by the server. */
 export async function runTable(job: string, options: ServerOptions & { out?: string; level?: string; format: string }): Promise<number> {
-  const file = await requireClient(options).getJobFile('/v1/jobs/{id}/table', { id: job }, { level: options.level, format: options.format });
-  return deliver(file.bytes, options.out, options.format !== 'csv');
+  const bytes = await requireClient(options).getJobTable(job, { ...(options.level ? { level: options.level } : {}), format: options.format });
+  return deliver(bytes, options.out, options.format !== 'csv');
 }

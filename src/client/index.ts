@@ -161,12 +161,18 @@ export function createRhythmetricClient(options: ClientOptions) {
       return new Uint8Array(expectData(result));
     },
 
+    /** A job's record as a table (CSV or Parquet bytes). */
+    async getJobTable(id: string, query: { level?: string; format?: string }): Promise<Uint8Array> {
+      const result = await api.GET('/v1/jobs/{id}/table', { params: { path: { id }, query: query as never }, parseAs: 'arrayBuffer' });
+      return new Uint8Array(expectData(result));
+    },
+
     /**
      * A file the server renders from a job's record (a table or a plot), with its content type.
-     * @param path - e.g. `/v1/jobs/{id}/table` or `/v1/jobs/{id}/plots/{kind}`
+     * @param path - e.g. `/v1/jobs/{id}/plots/{kind}`
      */
     async getJobFile(path: string, params: { id: string; kind?: string }, query: Record<string, string | number | undefined>): Promise<{ bytes: Uint8Array; contentType: string }> {
-      // Typed loosely: these routes enter the OpenAPI document with the table and plot work.
+      // Typed loosely until the plot routes are in the OpenAPI document this client is generated from.
       const loose = api as unknown as { GET: (path: string, init: object) => Promise<{ data?: ArrayBuffer; error?: unknown; response: Response }> };
       const result = await loose.GET(path, { params: { path: params, query }, parseAs: 'arrayBuffer' });
       return { bytes: new Uint8Array(expectData(result)), contentType: result.response.headers.get('content-type') ?? 'application/octet-stream' };
