@@ -57,18 +57,21 @@ export async function createAnalyzer(recipe: RecipeSource, options: ServerOption
   };
 }
 
+/** Uploads a signal file as `POST /v1/signals` takes it: a JSON body, or float32/EDF bytes described by the query. */
+export async function uploadInput(client: RhythmetricClient, input: LocalInput) {
+  if (input.format === 'json') return client.uploadSignal(JSON.parse(await readFile(input.path, 'utf8')));
+  return client.uploadSignalBytes(await readFile(input.path), {
+    format: input.format,
+    ...(input.samplingRate !== undefined ? { samplingRate: input.samplingRate } : {}),
+    ...(input.channels ? { channels: input.channels.join(',') } : {}),
+    ...(input.epochCount !== undefined ? { epochCount: input.epochCount } : {}),
+  });
+}
+
 function remoteAnalyzer(client: RhythmetricClient, recipe: RecipeSource, abort: AbortSignal): Analyzer {
   return {
     async analyze(input, onProgress, view) {
-      const signal =
-        input.format === 'json'
-          ? await client.uploadSignal(JSON.parse(await readFile(input.path, 'utf8')))
-          : await client.uploadSignalBytes(await readFile(input.path), {
-              format: input.format,
-              ...(input.samplingRate !== undefined ? { samplingRate: input.samplingRate } : {}),
-              ...(input.channels ? { channels: input.channels.join(',') } : {}),
-              ...(input.epochCount !== undefined ? { epochCount: input.epochCount } : {}),
-            });
+      const signal = await uploadInput(client, input);
       const job = await client.submitJob({ signal: view ? { ...view, signal: signal.id } : signal.id, recipe: recipe.kind === 'id' ? recipe.id : recipe.recipe });
       const done = await client.waitForJob(job.id, { onProgress: (p) => onProgress(p), signal: abort });
       if (done.state !== 'succeeded') {

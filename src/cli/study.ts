@@ -12,7 +12,7 @@ import type { TableLevel } from '../tables/columns.js';
 import { createTableLayout, metadataColumns, tableRows, type TableLayout } from '../tables/rows.js';
 import { createTableWriter, type TableFormat } from '../tables/writer.js';
 import type { FeatureRecord } from '../engine/record.js';
-import { createAnalyzer, inputOf, type InputOptions } from './analyze.js';
+import { createAnalyzer, inputOf, uploadInput, type InputOptions } from './analyze.js';
 import { LocalInputError } from './local-engine.js';
 import { EXIT, UsageError, writeFileAtomic, type Terminal } from './output.js';
 import { clientFor, loadRecipe, type ServerOptions } from './sources.js';
@@ -204,10 +204,7 @@ async function runRemote(
     try {
       for (const [i, row] of rows.entries()) {
         abort.throwIfAborted();
-        const input = inputOf(row.file, options);
-        const signal = input.format === 'json'
-          ? await client.uploadSignal(JSON.parse(await readFile(row.file, 'utf8')))
-          : await client.uploadSignalBytes(await readFile(row.file), { format: input.format, ...(input.samplingRate ? { samplingRate: input.samplingRate } : {}), ...(input.channels ? { channels: input.channels.join(',') } : {}), ...(input.epochCount ? { epochCount: input.epochCount } : {}) });
+        const signal = await uploadInput(client, inputOf(row.file, options));
         entries.push({ signal: signal.id, ...row.entry.view, metadata: row.entry.metadata });
         uploads.update(i + 1, basename(row.file));
       }

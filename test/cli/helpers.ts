@@ -1,5 +1,7 @@
 import { spawn } from 'node:child_process';
+import type { AddressInfo } from 'node:net';
 import { resolve } from 'node:path';
+import { startTestApi } from '../helpers/app.js';
 
 export const ROOT = resolve(import.meta.dirname, '..', '..');
 const MAIN = resolve(ROOT, 'src', 'cli', 'main.ts');
@@ -32,4 +34,11 @@ export function runCli(args: string[], options: { cwd?: string; env?: Record<str
     child.on('error', fail);
     child.on('close', (code, signal) => done({ code, signal, stdout, stderr }));
   });
+}
+
+/** An embedded-mode API listening on a free loopback port, for clients in other processes. */
+export async function startListeningApi() {
+  const api = await startTestApi();
+  await api.app.listen({ port: 0, host: '127.0.0.1' });
+  return { api, url: `http://127.0.0.1:${(api.app.server.address() as AddressInfo).port}` };
 }

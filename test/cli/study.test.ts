@@ -1,11 +1,12 @@
 import { mkdir, mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
-import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { demoEpochs, toUploadJson } from '../../src/signals/demo-recording.js';
-import { startTestApi } from '../helpers/app.js';
-import { runCli } from './helpers.js';
+import { runCli, startListeningApi } from './helpers.js';
+
+// Each test starts the command as a child process, which takes seconds on a busy machine.
+vi.setConfig({ testTimeout: 120_000 });
 
 const RECIPE = '{"method":"welch","segmentSeconds":1}';
 
@@ -67,16 +68,14 @@ describe('rhythmetric study run', () => {
       expect(run.code).toBe(2);
       expect(run.stderr).toMatch(/"subject"/);
       expect((await readdir(dir)).includes('bad-run')).toBe(false);
-    }, 60_000);
+    });
   });
 
   describe('when run on a server', () => {
-    let api: Awaited<ReturnType<typeof startTestApi>>;
+    let api: Awaited<ReturnType<typeof startListeningApi>>['api'];
     let server: string;
     beforeAll(async () => {
-      api = await startTestApi();
-      await api.app.listen({ port: 0, host: '127.0.0.1' });
-      server = `http://127.0.0.1:${(api.app.server.address() as AddressInfo).port}`;
+      ({ api, url: server } = await startListeningApi());
     });
     afterAll(async () => {
       await api?.stop();

@@ -1,5 +1,4 @@
 import { readFile } from 'node:fs/promises';
-import type { AddressInfo } from 'node:net';
 import { resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sha256Hex } from '../../src/common/hash.js';
@@ -7,7 +6,7 @@ import { canonicalJson } from '../../src/common/canonical-json.js';
 import { ApiProblemError, createRhythmetricClient, type RhythmetricClient } from '../../src/client/index.js';
 import { demoEpochs, toUploadJson } from '../../src/signals/demo-recording.js';
 import { CLIENT_TYPES, generateClientTypes } from '../../scripts/write-client.js';
-import { startTestApi } from '../helpers/app.js';
+import { startListeningApi } from '../cli/helpers.js';
 
 const root = resolve(import.meta.dirname, '..', '..');
 
@@ -23,12 +22,12 @@ describe('when the OpenAPI document changes', () => {
 });
 
 describe('when the client talks to a running server', () => {
-  let api: Awaited<ReturnType<typeof startTestApi>>;
+  let api: Awaited<ReturnType<typeof startListeningApi>>['api'];
   let client: RhythmetricClient;
   beforeAll(async () => {
-    api = await startTestApi();
-    await api.app.listen({ port: 0, host: '127.0.0.1' });
-    client = createRhythmetricClient({ baseUrl: `http://127.0.0.1:${(api.app.server.address() as AddressInfo).port}/` });
+    let url: string;
+    ({ api, url } = await startListeningApi());
+    client = createRhythmetricClient({ baseUrl: `${url}/` });
   });
   afterAll(async () => {
     await api?.stop();
