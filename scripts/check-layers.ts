@@ -23,7 +23,8 @@ const ALLOWED: Record<string, string[]> = {
   plots: ['engine', 'recipes', 'methods', 'common'],
   studies: ['tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'common'],
   http: ['studies', 'tables', 'plots', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
-  cli: ['tables', 'plots', 'http', 'studies', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  client: [],
+  cli: ['client', 'tables', 'plots', 'http', 'studies', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

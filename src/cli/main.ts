@@ -1,63 +1,56 @@
 #!/usr/bin/env node
-import { ConfigError, loadConfig } from '../config.js';
-import { createLogger, startApi, startWorker } from './runtime.js';
+import { CommanderError } from 'commander';
+import { ApiProblemError } from '../client/index.js';
+import { ConfigError } from '../config.js';
+import { EXIT, UsageError } from './output.js';
+import { buildProgram } from './program.js';
 
-const USAGE = `usage: rhythmetric <command>
-
-commands:
-  serve     run the HTTP API (embedded mode unless REDIS_URL is set)
-  worker    consume jobs from the Redis queue (needs REDIS_URL)
-  demo      write the invented demo recording (night-shift alertness study) as JSON
-  help      this text
-
-configuration is by environment variables; see README.md.`;
-
-async function main(argv: string[]): Promise<number> {
-  const command = argv[0] ?? 'help';
-  if (command === 'help' || command === '--help' || command === '-h') {
-    process.stdout.write(USAGE + '\n');
-    return 0;
+/**
+ * Runs one command's work: Ctrl-C aborts it (running computations stop, no output file is left half
+ * written) and a second Ctrl-C exits at once. Usage and input errors exit with 2.
+ */
+async function runWork(work: (abort: AbortSignal) => Promise<number>): Promise<number> {
+  const controller = new AbortController();
+  const onInterrupt = () => {
+    if (controller.signal.aborted) process.exit(EXIT.interrupted);
+    process.stderr.write('interrupted: stopping (Ctrl-C again to quit at once)\n');
+    controller.abort(new Error('interrupted'));
+  };
+  process.on('SIGINT', onInterrupt);
+  try {
+    const code = await work(controller.signal);
+    return controller.signal.aborted ? EXIT.interrupted : code;
+  } catch (error) {
+    if (controller.signal.aborted) return EXIT.interrupted;
+    if (error instanceof UsageError || error instanceof ConfigError) {
+      process.stderr.write(`${error.message}\n`);
+      return EXIT.usage;
+    }
+    if (error instanceof ApiProblemError) {
+      process.stderr.write(`the server answered ${error.message}\n`);
+      return error.status >= 400 && error.status < 500 ? EXIT.usage : EXIT.differ;
+    }
+    throw error;
+  } finally {
+    process.off('SIGINT', onInterrupt);
   }
-  if (command === 'demo') {
-    const { runDemoCommand } = await import('./demo.js');
-    return runDemoCommand(argv.slice(1));
-  }
-  const config = loadConfig();
-  const logger = createLogger(config);
-  if (command === 'serve') {
-    const api = await startApi(config, logger);
-    await api.app.listen({ port: config.port, host: config.host });
-    logger.info({ mode: api.queue.mode, store: config.store.kind, dataDir: config.store.kind === 'filesystem' ? config.dataDir : undefined }, 'rhythmetric serving');
-    onShutdown(logger, () => api.close());
-    return -1;
-  }
-  if (command === 'worker') {
-    const worker = startWorker(config, logger);
-    logger.info({ queue: config.queueName, threads: config.workerThreads, store: config.store.kind }, 'rhythmetric worker started');
-    onShutdown(logger, () => worker.close());
-    return -1;
-  }
-  process.stderr.write(`unknown command "${command}"\n\n${USAGE}\n`);
-  return 2;
 }
 
-/** Stop accepting, let running work finish or go back to the queue, then exit. */
-function onShutdown(logger: ReturnType<typeof createLogger>, close: () => Promise<void>): void {
-  let closing = false;
-  for (const signal of ['SIGTERM', 'SIGINT'] as const) {
-    process.on(signal, () => {
-      if (closing) return;
-      closing = true;
-      logger.info({ signal }, 'shutting down');
-      close().then(
-        () => process.exit(0),
-        (error: unknown) => {
-          logger.error({ err: error }, 'shutdown failed');
-          process.exit(1);
-        },
-      );
-    });
+async function main(argv: string[]): Promise<number> {
+  const program = buildProgram(runWork);
+  if (argv.length === 0) {
+    program.outputHelp();
+    return EXIT.ok;
   }
+  try {
+    await program.parseAsync(argv, { from: 'user' });
+  } catch (error) {
+    if (error instanceof CommanderError) return error.exitCode === 0 ? EXIT.ok : EXIT.usage;
+    throw error;
+  }
+  const code = program.getOptionValue('exitCode') as number | undefined;
+  // serve and worker keep running until a signal; the other commands end with their exit code.
+  return code ?? -1;
 }
 
 main(process.argv.slice(2)).then(

@@ -3,11 +3,11 @@ import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { StoreConfig } from '../stores/store.js';
 import type { PoolTaskInput, PoolTaskOutput } from './pool-task.js';
-import type { JobSpec } from './spec.js';
+import type { JobSpec, RunMode } from './spec.js';
 
 export interface ComputePool {
   readonly threads: number;
-  run(spec: JobSpec, store: StoreConfig, mode: 'embedded' | 'distributed', onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<PoolTaskOutput>;
+  run(spec: JobSpec, store: StoreConfig, mode: RunMode, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<PoolTaskOutput>;
   close(): Promise<void>;
 }
 
@@ -26,7 +26,9 @@ export function createComputePool(threads = Math.max(1, availableParallelism()),
     minThreads: 1,
     maxThreads: threads,
     idleTimeout: 60_000,
-    execArgv: fromSource ? ['--import', 'tsx'] : [],
+    // tsx by its resolved URL: a bare 'tsx' would be looked up from the working directory, which
+    // for the command line is wherever the user's files are.
+    execArgv: fromSource ? ['--import', import.meta.resolve('tsx')] : [],
   });
   return {
     threads,

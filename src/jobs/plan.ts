@@ -1,6 +1,7 @@
 import { DomainError, locatedUnder } from '../common/errors.js';
 import { normalizeRecipe, type PinnedRecipe } from '../recipes/normalize.js';
 import { resolveRecipe, type RecipeLimits } from '../recipes/resolve.js';
+import { checkDerivedEcho } from '../recipes/round-trip.js';
 import type { SignalView } from '../signals/view.js';
 import type { SignalMeta, Store } from '../stores/store.js';
 import { jobIdOf, recordKeyOf, viewedShape, type JobSpec } from './spec.js';
@@ -8,7 +9,8 @@ import { jobIdOf, recordKeyOf, viewedShape, type JobSpec } from './spec.js';
 /** Pins a recipe: stored under its id, which follows from its hash. */
 export async function pinRecipe(store: Store, input: unknown): Promise<PinnedRecipe> {
   const pinned = normalizeRecipe(input);
-  if ((await store.getDocument('recipes', pinned.id)) === null) await store.putDocument('recipes', pinned.id, JSON.stringify(pinned));
+  const { derivedEcho: _echo, ...stored } = pinned;
+  if ((await store.getDocument('recipes', pinned.id)) === null) await store.putDocument('recipes', pinned.id, JSON.stringify(stored));
   return pinned;
 }
 
@@ -35,6 +37,7 @@ export function planJob(
   }
   const shape = locatedUnder('/signal', () => viewedShape(meta, view));
   const resolved = locatedUnder('/recipe', () => resolveRecipe(pinned.recipe, pinned.hash, shape, limits));
+  locatedUnder('/recipe', () => checkDerivedEcho(pinned.derivedEcho, resolved.derived));
   if (meta.nonFiniteSamples > 0 && pinned.recipe.nonFinite === 'reject') {
     throw new DomainError('non-finite', `signal ${meta.id} holds ${meta.nonFiniteSamples} non-finite sample(s); set the recipe's "nonFinite": "skip-epoch" to leave those epochs out, or "bad-span" to leave out only what overlaps the gaps`, {
       pointer: '/recipe/nonFinite',

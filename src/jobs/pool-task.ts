@@ -3,13 +3,13 @@ import { createStore } from '../stores/create-store.js';
 import type { Store, StoreConfig } from '../stores/store.js';
 import { refusalOf } from './failure.js';
 import { runJob, type JobOutcome } from './run-job.js';
-import type { JobProblem, JobSpec } from './spec.js';
+import type { JobProblem, JobSpec, RunMode } from './spec.js';
 
 /** Input of one worker-thread task. Progress goes back over `port`. */
 export interface PoolTaskInput {
   spec: JobSpec;
   store: StoreConfig;
-  mode: 'embedded' | 'distributed';
+  mode: RunMode;
   /** threads the job may spread time–frequency channels over, its own included */
   jobThreads: number;
   port: MessagePort;

@@ -5,7 +5,7 @@ import type { FeatureRecord } from '../engine/record.js';
 import { resolveRecipe, type ResolvedRecipe } from '../recipes/resolve.js';
 import type { Signal } from '../signals/signal.js';
 import type { Store } from '../stores/store.js';
-import { viewedShape, type JobSpec } from './spec.js';
+import { viewedShape, type JobSpec, type RunMode } from './spec.js';
 
 /**
  * The record as stored: `result` as its canonical JSON (the text its hash was taken over), the rest
@@ -31,7 +31,7 @@ export interface JobOutcome {
 export async function runJob(
   spec: JobSpec,
   store: Store,
-  mode: 'embedded' | 'distributed',
+  mode: RunMode,
   onProgress: ProgressListener = () => {},
   options: { checkpoint?: () => void; threads?: number } = {},
 ): Promise<JobOutcome> {

@@ -7,6 +7,9 @@ import { ENGINE_VERSION } from '../engine/version.js';
 import type { Recipe } from '../recipes/schema.js';
 import type { SignalView } from '../signals/view.js';
 
+/** Where a job runs: the API's own threads, BullMQ workers, or the command line with no server. */
+export type RunMode = 'embedded' | 'distributed' | 'local';
+
 export const JOB_STATES = ['queued', 'running', 'succeeded', 'failed', 'canceled'] as const;
 export type JobState = (typeof JOB_STATES)[number];
 

@@ -1,16 +1,20 @@
 import type { z } from 'zod';
+import { CanonicalJsonError } from '../common/canonical-json.js';
 import { deepFreeze } from '../common/freeze.js';
 import { hashCanonical } from '../common/hash.js';
 import { explainIssue, type SchemaIssue } from '../common/issue-text.js';
 import { methodOf } from '../methods/registry.js';
 import { pointerOf, RecipeInputError } from './errors.js';
 import { asRecipeError } from './method-errors.js';
+import { checkRecipeEcho, splitRecipeEcho } from './round-trip.js';
 import { RecipeSchema, type Recipe } from './schema.js';
 
 export interface PinnedRecipe {
   id: string;
   hash: string;
   recipe: Recipe;
+  /** derived values echoed by a record's recipe, checked once the signal is known (never stored) */
+  derivedEcho?: unknown;
 }
 
 export function recipeIdFromHash(hash: string): string {
@@ -20,9 +24,19 @@ export function recipeIdFromHash(hash: string): string {
 /**
  * Parses a recipe, fills every default, rejects contradictions by name (each method's own
  * `check`) and returns it frozen with its hash (SHA-256 of the canonical JSON). Two recipes that
- * differ only in defaults they spell out get the same hash.
+ * differ only in defaults they spell out get the same hash. A record's `recipe` is accepted as it
+ * prints it: its `id` and `hash` must be those of its settings, and its `derived` values are
+ * returned for a check against the signal.
  */
 export function normalizeRecipe(input: unknown): PinnedRecipe {
+  const { settings, echo } = splitRecipeEcho(input);
+  const pinned = normalizeSettings(settings);
+  if (!echo) return pinned;
+  checkRecipeEcho(echo, pinned);
+  return echo.derived === undefined ? pinned : { ...pinned, derivedEcho: echo.derived };
+}
+
+function normalizeSettings(input: unknown): PinnedRecipe {
   const parsed = RecipeSchema.safeParse(input);
   if (!parsed.success) throw fromZod(parsed.error, input);
   const recipe = parsed.data;
@@ -31,7 +45,13 @@ export function normalizeRecipe(input: unknown): PinnedRecipe {
   } catch (error) {
     throw asRecipeError(error);
   }
-  const hash = hashCanonical(recipe);
+  let hash: string;
+  try {
+    hash = hashCanonical(recipe);
+  } catch (error) {
+    if (error instanceof CanonicalJsonError) throw new RecipeInputError('invalid', error.message, error.pointer || '/');
+    throw error;
+  }
   return { id: recipeIdFromHash(hash), hash, recipe: deepFreeze(recipe) };
 }
 

@@ -1,3 +1,4 @@
+import { loneSurrogateAt } from '../common/canonical-json.js';
 import { SignalInputError } from './errors.js';
 import type { SignalLimits } from './limits.js';
 import type { Signal, SignalEvent } from './signal.js';
@@ -41,6 +42,15 @@ export function decodeJsonSignal(body: JsonSignalBody, limits: SignalLimits): Si
     limits,
     { samplingRate: '/samplingRate', channels: '/channels', samples: pointer(0, 0) },
   );
+  // Names and labels go into the signal's hash, whose canonical JSON (RFC 8785) takes I-JSON only.
+  const texts: [string | undefined, string, 'channels' | 'format'][] = [
+    ...body.channels.map((name, i): [string, string, 'channels'] => [name, `/channels/${i}`, 'channels']),
+    [body.unit, '/unit', 'format'],
+    ...(body.events ?? []).map((ev, i): [string, string, 'format'] => [ev.label, `/events/${i}/label`, 'format']),
+  ];
+  for (const [text, at, code] of texts) {
+    if (text !== undefined && loneSurrogateAt(text) >= 0) throw new SignalInputError(code, 'the text holds an unpaired UTF-16 surrogate, which JSON text exchanged between programs (I-JSON, RFC 7493) may not hold', at);
+  }
   const { unit, exponent } = resolveUploadUnit(body.unit, body.voltage, '/unit');
   const keep = body.nonFinite === 'keep';
   const data = new Float64Array(epochs.length * channelCount * samplesPerEpoch);

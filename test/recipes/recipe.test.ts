@@ -77,3 +77,15 @@ describe('when a time–frequency recipe would produce too much', () => {
     expect(() => resolveRecipe(small.recipe, small.hash, shape)).not.toThrow();
   });
 });
+
+describe('when a recipe holds text that canonical JSON (RFC 8785) cannot write', () => {
+  it('should refuse it with the pointer of the text instead of failing to hash it', () => {
+    try {
+      normalizeRecipe({ method: 'welch', bands: [{ name: 'a\ud800', low: 1, high: 4 }] });
+      expect.unreachable();
+    } catch (error) {
+      expect(error).toBeInstanceOf(RecipeInputError);
+      expect((error as RecipeInputError).pointer).toBe('/bands/0/name');
+    }
+  });
+});

@@ -12,7 +12,8 @@ export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     {
       schema: {
         summary: 'Pin a recipe',
-        description: 'Answers the recipe with every default filled in, its SHA-256 over canonical JSON, and an id derived from that hash.',
+        description:
+          "Answers the recipe with every default filled in, its SHA-256 over canonical JSON (RFC 8785), and an id derived from that hash. A record's `recipe` may be sent as the record prints it: its `id` and `hash` must be those of its settings (422 naming the field otherwise); its `derived` values are checked against the signal when a job runs.",
         tags: ['recipes'],
         body: RecipeSchema,
         response: { 201: PinnedRecipeSchema, 400: problemResponse('malformed request'), 422: problemResponse('invalid recipe (pointer names the field)') },
@@ -22,8 +23,8 @@ export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
       validatorCompiler: zodValidator({ body: z.unknown() }),
     },
     async (request, reply) => {
-      const pinned = await pinRecipe(deps.store, request.body);
-      return reply.code(201).header('location', `/v1/recipes/${pinned.id}`).send(pinned);
+      const { id, hash, recipe } = await pinRecipe(deps.store, request.body);
+      return reply.code(201).header('location', `/v1/recipes/${id}`).send({ id, hash, recipe });
     },
   );
 
