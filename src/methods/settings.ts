@@ -146,8 +146,10 @@ export const commonSettings = {
     .describe('what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out'),
 };
 
+// NW 2 on the 1-s default window or segment gives W = NW/T = ±2 Hz of smoothing: a 6-Hz theta peak
+// stays within 4–8 Hz and a 10-Hz alpha peak within 8–12 Hz, so the two rhythms do not blend.
 export const TapersSchema = z.strictObject({
-  timeBandwidth: z.number().min(0.5).max(50).default(3),
+  timeBandwidth: z.number().min(0.5).max(50).default(2).describe('NW; the half-bandwidth is NW/T Hz for a window of T s (2 on 1 s: ±2 Hz)'),
   taperCount: z.number().int().min(1).max(200).nullable().default(null).describe('null means ⌊2·NW⌋ − 1'),
 });
 

@@ -14,8 +14,10 @@ export const SpectrogramRecipeSchema = z
     window: z.enum(WINDOW_NAMES).default('hann'),
     tukeyRatio: z.number().min(0).max(1).optional(),
     tapers: TapersSchema.nullable().default(null).describe('DPSS tapers for a multitaper spectrogram, instead of window'),
-    windowSeconds: z.number().positive().max(60).default(0.5).describe('length of the sliding window'),
-    stepSeconds: z.number().positive().max(60).default(0.05).describe('time between window centres'),
+    // 1 s holds four cycles of 4 Hz, the lowest theta frequency, and with NW 2 gives ±2 Hz; a step of a
+    // tenth of the window samples its time smoothing ten times over without repeating it more.
+    windowSeconds: z.number().positive().max(60).default(1).describe('length of the sliding window'),
+    stepSeconds: z.number().positive().max(60).default(0.1).describe('time between window centres'),
     fftLength: commonSettings.fftLength,
     detrend: commonSettings.detrend,
     ...timeFrequencyCommon,
