@@ -18,9 +18,11 @@ const ALLOWED: Record<string, string[]> = {
   recipes: ['methods', 'dsp', 'common'],
   engine: ['methods', 'dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
-  jobs: ['engine', 'stores', 'recipes', 'methods', 'signals', 'common'],
+  // every thread of the process: the job pool, channel helpers, the thread budget and entry loading
+  threads: ['engine', 'signals', 'common'],
+  jobs: ['threads', 'engine', 'stores', 'recipes', 'methods', 'signals', 'common'],
   http: ['jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
-  cli: ['http', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  cli: ['threads', 'http', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

@@ -22,8 +22,10 @@ const EnvSchema = z.object({
   QUEUE_NAME: z.string().regex(/^[A-Za-z0-9_-]+$/).default('analyses'),
   STORE: z.enum(['filesystem', 'redis']).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
-  WORKER_THREADS: int(Math.max(1, availableParallelism())),
-  JOB_THREADS: int(Math.max(1, availableParallelism())),
+  THREADS: int(Math.max(1, availableParallelism())),
+  // Deprecated in 0.3.0 for THREADS; still honoured, with a warning in the log, until the next version.
+  WORKER_THREADS: z.coerce.number().int().min(1).optional(),
+  JOB_THREADS: z.coerce.number().int().min(1).optional(),
   JOB_ATTEMPTS: int(3),
   BODY_LIMIT_BYTES: int(256 * 1024 * 1024),
   MAX_CHANNELS: int(512),
@@ -60,9 +62,14 @@ export interface Config {
   queueName: string;
   store: StoreConfig;
   logLevel: z.infer<typeof EnvSchema>['LOG_LEVEL'];
+  /** computing threads of this process, shared by concurrent jobs and their channel helpers */
+  threads: number;
+  /** jobs computed at once (THREADS, or the deprecated WORKER_THREADS) */
   workerThreads: number;
-  /** threads one time–frequency job may spread its channels over, its own included */
+  /** threads one job may spread its channels over, its own included (THREADS, or the deprecated JOB_THREADS) */
   jobThreads: number;
+  /** deprecated settings in use, one line each, for the start-up log */
+  deprecations: string[];
   jobAttempts: number;
   bodyLimitBytes: number;
   signalLimits: SignalLimits;
@@ -141,8 +148,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     queueName: e.QUEUE_NAME,
     store: storeKind === 'redis' ? { kind: 'redis', url: e.REDIS_URL!, prefix: e.REDIS_PREFIX } : { kind: 'filesystem', dataDir },
     logLevel: e.LOG_LEVEL,
-    workerThreads: e.WORKER_THREADS,
-    jobThreads: e.JOB_THREADS,
+    ...threadSettings(e, env.THREADS !== undefined && env.THREADS !== ''),
     jobAttempts: e.JOB_ATTEMPTS,
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
     signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE },
@@ -168,6 +174,19 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
   };
   return deepFreeze(config);
+}
+
+/**
+ * One budget, THREADS, split at run time: a job always has its own thread and takes free ones for
+ * its channels. The old variables still cap jobs at once and threads per job for one version; the
+ * budget is then the larger of the settings, as the two together could use before.
+ */
+function threadSettings(e: { THREADS: number; WORKER_THREADS?: number | undefined; JOB_THREADS?: number | undefined }, explicit: boolean) {
+  const deprecations: string[] = [];
+  if (e.WORKER_THREADS !== undefined) deprecations.push('WORKER_THREADS is deprecated: set THREADS, the one thread budget shared by jobs and their channel helpers');
+  if (e.JOB_THREADS !== undefined) deprecations.push('JOB_THREADS is deprecated: set THREADS, the one thread budget shared by jobs and their channel helpers');
+  const threads = explicit || deprecations.length === 0 ? e.THREADS : Math.max(e.WORKER_THREADS ?? 1, e.JOB_THREADS ?? 1);
+  return { threads, workerThreads: e.WORKER_THREADS ?? threads, jobThreads: e.JOB_THREADS ?? threads, deprecations };
 }
 
 function readKeysFile(path: string): string {

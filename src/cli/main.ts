@@ -33,7 +33,7 @@ async function main(argv: string[]): Promise<number> {
   }
   if (command === 'worker') {
     const worker = startWorker(config, logger);
-    logger.info({ queue: config.queueName, threads: config.workerThreads, store: config.store.kind }, 'rhythmetric worker started');
+    logger.info({ queue: config.queueName, threads: config.threads, store: config.store.kind }, 'rhythmetric worker started');
     onShutdown(logger, () => worker.close());
     return -1;
   }

@@ -8,6 +8,7 @@ import { EmbeddedQueue } from '../jobs/embedded-queue.js';
 import type { JobQueue } from '../jobs/queue.js';
 import { sweepExpired } from '../jobs/retention.js';
 import { createStore } from '../stores/create-store.js';
+import { createThreadBudget } from '../threads/budget.js';
 
 export function createLogger(config: Pick<Config, 'logLevel'>, destination?: NodeJS.WritableStream): Logger {
   const options = { level: config.logLevel, base: { service: 'rhythmetric' }, redact: ['req.headers.authorization'] };
@@ -29,6 +30,7 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
   } else {
     logger.info({ keys: config.apiKeys.length, tenants: [...new Set(config.apiKeys.map((k) => k.tenant))].length }, 'API keys loaded');
   }
+  for (const message of config.deprecations) logger.warn({ deprecated: true }, message);
   const store = createStore(config.store);
   let pool: ComputePool | null = null;
   let queue: JobQueue;
@@ -37,7 +39,7 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
     if (!(await bull.connected())) logger.warn({ redis: redactUrl(config.redisUrl) }, 'Redis does not answer yet; submissions get 503 until it does');
     queue = bull;
   } else {
-    pool = createComputePool(config.workerThreads, config.jobThreads);
+    pool = createComputePool(config.workerThreads, config.jobThreads, createThreadBudget(config.threads));
     queue = await EmbeddedQueue.open({
       store,
       storeConfig: config.store,
@@ -74,7 +76,8 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
 /** A `rhythmetric worker` process: consumes the BullMQ queue, computes on its own thread pool. */
 export function startWorker(config: Readonly<Config>, logger: Logger = createLogger(config)) {
   if (!config.redisUrl) throw new Error('rhythmetric worker needs REDIS_URL (embedded mode computes inside the API process)');
-  const pool = createComputePool(config.workerThreads, config.jobThreads);
+  for (const message of config.deprecations) logger.warn({ deprecated: true }, message);
+  const pool = createComputePool(config.workerThreads, config.jobThreads, createThreadBudget(config.threads));
   const handle = startBullWorker({
     url: config.redisUrl,
     prefix: config.redisPrefix,

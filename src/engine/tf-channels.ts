@@ -169,3 +169,6 @@ function summarizeWindow(matrix: Float64Array, times: Float64Array, frequencies:
   }
   return { name: w.name, low: w.low, high: w.high, start: w.start, end: w.end, value: cells > 0 ? sum / cells : null, cells };
 }
+
+/** Time–frequency power per channel, for a channel runner. */
+export const timeFrequencyKernel = { prepare: createChannelWork, compute: computeChannel };

@@ -1,6 +1,7 @@
 import { DomainError, locatedUnder } from '../common/errors.js';
 import { canonicalJsonOnce } from '../common/canonical-json.js';
 import { analyze, type ProgressListener } from '../engine/analyze.js';
+import type { ChannelRunner } from '../engine/channel-runner.js';
 import type { FeatureRecord } from '../engine/record.js';
 import { resolveRecipe, type ResolvedRecipe } from '../recipes/resolve.js';
 import type { Signal } from '../signals/signal.js';
@@ -33,7 +34,7 @@ export async function runJob(
   store: Store,
   mode: 'embedded' | 'distributed',
   onProgress: ProgressListener = () => {},
-  options: { checkpoint?: () => void; threads?: number } = {},
+  options: { checkpoint?: () => void; channels?: ChannelRunner } = {},
 ): Promise<JobOutcome> {
   const existing = await store.getDocument('records', spec.recordKey);
   if (existing !== null) {
@@ -51,7 +52,7 @@ export async function runJob(
     mode,
     onProgress,
     ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
-    ...(options.threads !== undefined ? { threads: options.threads } : {}),
+    ...(options.channels ? { channels: options.channels } : {}),
   });
   // Attachments first: once the record exists, everything it names can be fetched.
   for (const a of record.attachments ?? []) {
