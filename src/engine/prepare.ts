@@ -48,7 +48,7 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
   let cut: EpochingResult;
   const e = recipe.epoching;
   if (e.mode === 'fixed') {
-    cut = fixedLengthEpochs(continuous, { lengthSeconds: e.lengthSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
+    cut = fixedLengthEpochs(continuous, { lengthSeconds: e.epochSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
   } else {
     const wanted = e.labels ? new Set(e.labels) : null;
     const events = (signal.events ?? []).filter((ev) => !labelled.has(ev.label) && (wanted === null || wanted.has(ev.label))).map((ev) => ({ onset: ev.onset, label: ev.label }));

@@ -3,6 +3,7 @@ import { canonicalJsonOnce } from '../common/canonical-json.js';
 import { analyze, type ProgressListener } from '../engine/analyze.js';
 import type { ChannelRunner } from '../engine/channel-runner.js';
 import type { FeatureRecord } from '../engine/record.js';
+import { renameDeprecated } from '../recipes/renames.js';
 import { resolveRecipe, type ResolvedRecipe } from '../recipes/resolve.js';
 import type { Signal } from '../signals/signal.js';
 import type { Store } from '../stores/store.js';
@@ -43,7 +44,9 @@ export async function runJob(
   }
   const loaded = await store.getSignal(spec.signalId);
   if (!loaded) throw new DomainError('signal-not-found', `signal ${spec.signalId} is not in the store`, { pointer: '/signal' });
-  const resolved = spec.resolved ?? (await resolveLegacy(spec, loaded.signal));
+  const queued = spec.resolved ?? (await resolveLegacy(spec, loaded.signal));
+  // A job queued before the 0.3.0 renames carries the old setting names.
+  const resolved = { ...queued, recipe: renameDeprecated(queued.recipe).input as ResolvedRecipe['recipe'] };
   const record = analyze(loaded.signal, resolved, {
     view: spec.view ?? null,
     signalId: spec.signalId,

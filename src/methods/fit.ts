@@ -140,7 +140,7 @@ export function analysedChannels(reference: Reference, shape: SignalShape): numb
 }
 
 interface EpochingSettings {
-  epoching: { mode: 'fixed'; lengthSeconds: number; stepSeconds: number | null } | { mode: 'events'; labels: string[] | null; beforeSeconds: number; afterSeconds: number; baseline: [number, number] | null } | null;
+  epoching: { mode: 'fixed'; epochSeconds: number; stepSeconds: number | null } | { mode: 'events'; labels: string[] | null; beforeSeconds: number; afterSeconds: number; baseline: [number, number] | null } | null;
   badSpans: { labels: string[]; peakToPeak: number | null };
 }
 
@@ -152,8 +152,8 @@ export function epochLength(recipe: EpochingSettings, shape: SignalShape): numbe
     throw unfit(`epoching cuts a continuous signal; this one already has ${shape.epochCount} epochs`, '/epoching');
   }
   const fs = shape.samplingRate;
-  const samples = e.mode === 'fixed' ? Math.round(e.lengthSeconds * fs) : Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs);
-  if (samples < 2) throw unfit(`epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'fixed' ? '/epoching/lengthSeconds' : '/epoching/afterSeconds');
+  const samples = e.mode === 'fixed' ? Math.round(e.epochSeconds * fs) : Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs);
+  if (samples < 2) throw unfit(`epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'fixed' ? '/epoching/epochSeconds' : '/epoching/afterSeconds');
   if (samples > shape.samplesPerEpoch) {
     throw unfit(`epochs of ${samples} samples are longer than the signal (${shape.samplesPerEpoch} samples)`, '/epoching');
   }
@@ -171,7 +171,7 @@ export function epochCountOf(recipe: EpochingSettings, shape: SignalShape, epoch
   const e = recipe.epoching;
   if (!e) return shape.epochCount ?? 1;
   if (e.mode === 'fixed') {
-    const step = Math.max(1, Math.round((e.stepSeconds ?? e.lengthSeconds) * shape.samplingRate));
+    const step = Math.max(1, Math.round((e.stepSeconds ?? e.epochSeconds) * shape.samplingRate));
     return Math.floor((shape.samplesPerEpoch - epochSamples) / step) + 1;
   }
   if (!shape.events) return Math.max(1, Math.floor(shape.samplesPerEpoch / epochSamples));

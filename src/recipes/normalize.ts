@@ -4,6 +4,7 @@ import { hashCanonical } from '../common/hash.js';
 import { methodOf } from '../methods/registry.js';
 import { pointerOf, RecipeInputError } from './errors.js';
 import { asRecipeError } from './method-errors.js';
+import { renameDeprecated } from './renames.js';
 import { METHODS, RecipeSchema, type Recipe } from './schema.js';
 
 export interface PinnedRecipe {
@@ -19,10 +20,11 @@ export function recipeIdFromHash(hash: string): string {
 /**
  * Parses a recipe, fills every default, rejects contradictions by name (each method's own
  * `check`) and returns it frozen with its hash (SHA-256 of the canonical JSON). Two recipes that
- * differ only in defaults they spell out get the same hash.
+ * differ only in defaults they spell out, or in the deprecated names they use (renames.ts), get
+ * the same hash.
  */
 export function normalizeRecipe(input: unknown): PinnedRecipe {
-  const parsed = RecipeSchema.safeParse(input);
+  const parsed = RecipeSchema.safeParse(renameDeprecated(input).input);
   if (!parsed.success) throw fromZod(parsed.error);
   const recipe = parsed.data;
   try {

@@ -40,11 +40,11 @@ const morlet = {
   frequencies: { low: 4, high: 30, count: 6 },
   cycles: 5,
   phaseConsistency: true,
-  perTrial: true,
+  perEpoch: true,
   baseline: { start: 0, end: 0.2, mode: 'zscore' },
   summary: [{ name: 'alpha', low: 8, high: 13, start: 0.3, end: 0.7 }],
 };
-const spectrogram = { method: 'spectrogram', windowSeconds: 0.25, stepSeconds: 0.125, frequencyRange: [0, 40] };
+const spectrogram = { method: 'spectrogram', segmentSeconds: 0.25, stepSeconds: 0.125, frequencyRange: [0, 40] };
 
 const welch = { method: 'welch', segmentSeconds: 0.5, perEpoch: true, features: { peakFrequency: {} } };
 const multitaper = { method: 'multitaper', timeBandwidth: 3 };

@@ -4,6 +4,7 @@ import type { AppDeps } from '../app.js';
 import { IdParams, PinnedRecipeSchema, problemResponse } from '../schemas.js';
 import { RecipeSchema } from '../../recipes/schema.js';
 import { getRecipe, pinRecipe } from '../../jobs/plan.js';
+import { warnDeprecated } from '../deprecations.js';
 import { zodValidator } from '../validation.js';
 
 export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
@@ -23,6 +24,7 @@ export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     },
     async (request, reply) => {
       const pinned = await pinRecipe(deps.store, request.body);
+      warnDeprecated(reply, request.body, '');
       return reply.code(201).header('location', `/v1/recipes/${pinned.id}`).send(pinned);
     },
   );
