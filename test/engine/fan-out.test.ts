@@ -50,6 +50,20 @@ const welch = { method: 'welch', segmentSeconds: 0.5, perEpoch: true, features: 
 const multitaper = { method: 'multitaper', timeBandwidth: 3 };
 const periodogram = { method: 'periodogram', window: 'hann' };
 
+/**
+ * Threads that computed a job on a budget of 2. A helper starts on first use and may miss a short
+ * job while it loads; once it runs it takes its share. Bounded retries keep a slow machine from
+ * failing this, not a broken helper.
+ */
+async function threadsOnceWarm(recipe: unknown): Promise<number> {
+  let threads = 0;
+  for (let attempt = 0; attempt < 40 && threads < 2; attempt++) {
+    threads = run(recipe, 2).provenance.threads ?? 0;
+    if (threads < 2) await new Promise((resolve) => setTimeout(resolve, 250));
+  }
+  return threads;
+}
+
 function attachmentBytes(record: FeatureRecord): string[] {
   return (record.attachments ?? []).map((a) => `${a.name}:${a.sha256}:${Buffer.from(a.data!.buffer, a.data!.byteOffset, a.data!.byteLength).toString('base64')}`);
 }
@@ -90,14 +104,7 @@ describe('when a time–frequency job spreads its channels over helper threads',
 
   it('should take channels on a helper thread once one is running, and say how many threads computed', async () => {
     expect(run(morlet, 1).provenance.threads).toBe(1);
-    // A helper starts on first use and may miss a short job while it loads; once it runs it takes
-    // its share. Bounded retries keep a slow machine from failing this, not a broken helper.
-    let threads = 0;
-    for (let attempt = 0; attempt < 40 && threads < 2; attempt++) {
-      threads = run(morlet, 2).provenance.threads ?? 0;
-      if (threads < 2) await new Promise((resolve) => setTimeout(resolve, 250));
-    }
-    expect(threads).toBe(2);
+    expect(await threadsOnceWarm(morlet)).toBe(2);
   });
 
   it('should report progress that never goes back and ends at 1', () => {
@@ -136,12 +143,7 @@ describe('when a spectrum job spreads its channels over helper threads', () => {
   });
 
   it('should take spectrum channels on a helper thread once one is running', async () => {
-    let threads = 0;
-    for (let attempt = 0; attempt < 40 && threads < 2; attempt++) {
-      threads = run(welch, 2).provenance.threads ?? 0;
-      if (threads < 2) await new Promise((resolve) => setTimeout(resolve, 250));
-    }
-    expect(threads).toBe(2);
+    expect(await threadsOnceWarm(welch)).toBe(2);
   });
 
   it('should use no helper when the thread budget has no free slot', () => {
