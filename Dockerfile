@@ -17,6 +17,8 @@ WORKDIR /app
 COPY package.json package-lock.json ./
 RUN npm ci --omit=dev --no-audit --no-fund && npm cache clean --force
 COPY --from=build /app/dist ./dist
+# The dashboard page: static files served as they are (routes/page.ts), no build step.
+COPY web ./web
 RUN mkdir -p /data && chown node:node /data
 USER node
 VOLUME ["/data"]

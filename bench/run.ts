@@ -28,6 +28,8 @@ const BLOCKS: readonly Block[] = [
   { name: '1 GiB upload', file: 'upload.ts', exportName: 'benchUpload' },
   { name: '2-hour recording', file: 'recording.ts', exportName: 'benchRecording' },
   { name: 'load (autocannon)', file: 'load.ts', exportName: 'benchLoad' },
+  { name: 'study run', file: 'study.ts', exportName: 'benchStudy' },
+  { name: 'table export', file: 'tables.ts', exportName: 'benchTables' },
 ];
 
 function machine(): string[] {

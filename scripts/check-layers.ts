@@ -18,11 +18,14 @@ const ALLOWED: Record<string, string[]> = {
   recipes: ['methods', 'dsp', 'common'],
   engine: ['methods', 'dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
+  tables: ['engine', 'common'],
   // every thread of the process: the job pool, channel helpers, the thread budget and entry loading
   threads: ['engine', 'signals', 'common'],
   jobs: ['threads', 'engine', 'stores', 'recipes', 'methods', 'signals', 'common'],
-  http: ['jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
-  cli: ['threads', 'http', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  plots: ['engine', 'recipes', 'methods', 'common'],
+  studies: ['tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'common'],
+  http: ['studies', 'tables', 'plots', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
+  cli: ['threads', 'tables', 'plots', 'http', 'studies', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

@@ -32,6 +32,7 @@ const EnvSchema = z.object({
   MAX_EPOCHS: int(100_000),
   MAX_SAMPLES: int(64 * 1024 * 1024),
   MAX_SAMPLING_RATE: int(100_000),
+  MIN_SAMPLING_RATE: z.coerce.number().positive().finite().default(0.01),
   MAX_FFT_LENGTH: int(1 << 20),
   MAX_OUTPUT_VALUES: int(64 * 1024 * 1024),
   MAX_JOB_BYTES: int(DEFAULT_MAX_JOB_BYTES),
@@ -40,6 +41,8 @@ const EnvSchema = z.object({
   API_KEYS_FILE: z.string().min(1).optional(),
   ALLOW_OPEN_MODE: z.enum(['true', 'false', '1', '0']).default('false'),
   RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(0).optional(),
+  AUTH_FAILURES_PER_MINUTE: int(20, 0),
+  METRICS_TOKEN_SHA256: z.string().regex(/^[0-9a-f]{64}$/, 'give the SHA-256 of the token as 64 lowercase hex digits, never the token itself').optional(),
   CORS_ORIGINS: z.string().optional(),
   WORKER_LOCK_MS: int(30_000, 1000),
   WORKER_MAX_STALLED: int(2, 0),
@@ -51,6 +54,9 @@ const EnvSchema = z.object({
   FETCH_MAX_REDIRECTS: int(3, 0),
   RETENTION_DAYS: z.coerce.number().min(0).default(0),
   SWEEP_INTERVAL_SECONDS: int(3600),
+  UPLOAD_EXPIRY_SECONDS: int(86_400),
+  RECORD_CACHE_BYTES: int(64 * 1024 * 1024, 0),
+  STUDY_RUN_WINDOW: z.coerce.number().int().min(1).optional(),
 });
 
 export interface Config {
@@ -81,6 +87,10 @@ export interface Config {
   allowOpenMode: boolean;
   /** requests per minute per key (or per address in open mode); 0 = no limit; default 6000 with keys, none in open mode */
   rateLimitPerMinute: number;
+  /** failed authentications per client address and minute before 429; 0 = no limit */
+  authFailuresPerMinute: number;
+  /** SHA-256 of a token that may read /metrics (besides admin keys); null = admin keys only */
+  metricsTokenSha256: string | null;
   corsOrigins: string[];
   workerLockMs: number;
   workerMaxStalled: number;
@@ -96,6 +106,12 @@ export interface Config {
   /** days after which signals, jobs and records are swept; 0 = kept */
   retentionDays: number;
   sweepIntervalSeconds: number;
+  /** seconds without a new part after which a resumable upload is abandoned and removed */
+  uploadExpirySeconds: number;
+  /** bytes of records and attachments the API keeps in memory with STORE=redis (readable while Redis is down); 0 = off */
+  recordCacheBytes: number;
+  /** jobs of one study run in the queue at once (fairness towards other jobs) */
+  studyRunWindow: number;
 }
 
 export const ROLES = ['read', 'submit', 'admin'] as const;
@@ -139,6 +155,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
   if (e.STORE === 'redis' && !e.REDIS_URL) throw new ConfigError('environment variable STORE=redis needs REDIS_URL');
   const dataDir = resolve(e.DATA_DIR);
   const storeKind = e.STORE ?? (e.REDIS_URL ? 'redis' : 'filesystem');
+  const threading = threadSettings(e, env.THREADS !== undefined && env.THREADS !== '');
   const config: Config = {
     port: e.PORT,
     host: e.HOST,
@@ -148,10 +165,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     queueName: e.QUEUE_NAME,
     store: storeKind === 'redis' ? { kind: 'redis', url: e.REDIS_URL!, prefix: e.REDIS_PREFIX } : { kind: 'filesystem', dataDir },
     logLevel: e.LOG_LEVEL,
-    ...threadSettings(e, env.THREADS !== undefined && env.THREADS !== ''),
+    ...threading,
     jobAttempts: e.JOB_ATTEMPTS,
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
-    signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE },
+    signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE, minSamplingRate: e.MIN_SAMPLING_RATE },
     recipeLimits: { maxFftLength: e.MAX_FFT_LENGTH, maxOutputValues: e.MAX_OUTPUT_VALUES, maxJobBytes: e.MAX_JOB_BYTES },
     maxStoreBytes: e.MAX_STORE_BYTES,
     apiKeys: [
@@ -161,6 +178,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     allowOpenMode: e.ALLOW_OPEN_MODE === 'true' || e.ALLOW_OPEN_MODE === '1',
     // Per key once keys exist; open mode serves only this machine (or a forced network), so no default limit.
     rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE ?? (e.API_KEYS || e.API_KEYS_FILE ? 6000 : 0),
+    authFailuresPerMinute: e.AUTH_FAILURES_PER_MINUTE,
+    metricsTokenSha256: e.METRICS_TOKEN_SHA256 ?? null,
     corsOrigins: e.CORS_ORIGINS ? e.CORS_ORIGINS.split(',').map((o) => o.trim()).filter(Boolean) : [],
     workerLockMs: e.WORKER_LOCK_MS,
     workerMaxStalled: e.WORKER_MAX_STALLED,
@@ -172,6 +191,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     fetchMaxRedirects: e.FETCH_MAX_REDIRECTS,
     retentionDays: e.RETENTION_DAYS,
     sweepIntervalSeconds: e.SWEEP_INTERVAL_SECONDS,
+    uploadExpirySeconds: e.UPLOAD_EXPIRY_SECONDS,
+    recordCacheBytes: e.RECORD_CACHE_BYTES,
+    // A run keeps at most this many of its jobs in the queue at once, so other jobs wait behind a
+    // few of a run's, never behind all of them; by default one per job thread.
+    studyRunWindow: e.STUDY_RUN_WINDOW ?? threading.workerThreads,
   };
   return deepFreeze(config);
 }

@@ -1,11 +1,12 @@
 import type { Recipe } from '../recipes/schema.js';
-import { eventLockedEpochs, fixedLengthEpochs, type DroppedEpoch, type EpochDescriptor, type EpochingResult } from '../signals/epoching.js';
+import { blockEpochs, eventLockedEpochs, fixedLengthEpochs, type DroppedEpoch, type EpochDescriptor, type EpochingResult } from '../signals/epoching.js';
 import type { Signal } from '../signals/signal.js';
 import { applyView, resolveView, type SignalView } from '../signals/view.js';
 import { EngineInputError } from './errors.js';
+import { gapSpans } from './gaps.js';
 
 export interface EpochingSummary {
-  mode: 'fixed' | 'events';
+  mode: 'fixed' | 'events' | 'blocks';
   kept: { index: number; source: number; label: string; startSeconds: number }[];
   dropped: { source: number; label: string; startSeconds: number; reason: DroppedEpoch['reason']; channel?: string; value?: number; span?: [number, number] }[];
 }
@@ -14,7 +15,7 @@ export interface EpochingSummary {
 export interface PreparedInput {
   signal: Signal;
   epoching: EpochingSummary | null;
-  /** per epoch, its event label (events mode) for grouping */
+  /** per epoch, its event or block label (events and blocks modes) for grouping */
   labels: string[] | null;
   /** closed [start, end] s spans of a continuous signal that Welch segments must avoid */
   badSpans: [number, number][];
@@ -37,7 +38,12 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
   const labelled = new Set(recipe.badSpans.labels);
   const eventSpans = (signal.events ?? []).filter((ev) => labelled.has(ev.label)).map((ev): [number, number] => [ev.onset, ev.onset + (ev.duration ?? 0)]);
   if (recipe.badSpans.labels.length > 0 && eventSpans.length === 0) warnings.push(`no event carries a bad-span label (${recipe.badSpans.labels.join(', ')})`);
-  const badSpans = [...viewSpans, ...eventSpans].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+  const gaps = recipe.nonFinite === 'bad-span' ? gapSpans(signal) : [];
+  if (gaps.length > 0) {
+    const seconds = gaps.reduce((sum, [a, b]) => sum + (b - a) + 1 / signal.samplingRate, 0);
+    warnings.push(`${gaps.length} run(s) of non-finite samples (${Number(seconds.toPrecision(6))} s in all) treated as bad spans`);
+  }
+  const badSpans = [...viewSpans, ...eventSpans, ...gaps].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
   if (!recipe.epoching) return { signal, epoching: null, labels: null, badSpans, warnings };
 
   const continuous = { data: signal.data, channelCount: signal.channels.length, samplingRate: signal.samplingRate };
@@ -49,6 +55,15 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
   const e = recipe.epoching;
   if (e.mode === 'fixed') {
     cut = fixedLengthEpochs(continuous, { lengthSeconds: e.epochSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
+  } else if (e.mode === 'blocks') {
+    const wanted = new Set(e.labels);
+    const blocks = (signal.events ?? [])
+      .filter((ev) => wanted.has(ev.label) && (ev.duration ?? 0) > 0)
+      .map((ev) => ({ onset: ev.onset, duration: ev.duration!, label: ev.label }));
+    if (blocks.length === 0) {
+      throw new EngineInputError('no-usable-epochs', `the signal has no event with a duration labelled ${e.labels.map((l) => `"${l}"`).join(', ')} to cut epochs in`, '/recipe/epoching/labels');
+    }
+    cut = blockEpochs(continuous, blocks, { lengthSeconds: e.epochSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
   } else {
     const wanted = e.labels ? new Set(e.labels) : null;
     const events = (signal.events ?? []).filter((ev) => !labelled.has(ev.label) && (wanted === null || wanted.has(ev.label))).map((ev) => ({ onset: ev.onset, label: ev.label }));
@@ -86,7 +101,7 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
     samplesPerEpoch: cut.samplesPerEpoch,
     data: cut.data,
   };
-  return { signal: epoched, epoching, labels: e.mode === 'events' ? cut.kept.map((d) => d.label) : null, badSpans: [], warnings };
+  return { signal: epoched, epoching, labels: e.mode === 'fixed' ? null : cut.kept.map((d) => d.label), badSpans: [], warnings };
 }
 
 function rereference(signal: Signal, reference: Recipe['reference']): Signal {

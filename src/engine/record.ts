@@ -59,7 +59,7 @@ export interface FeatureResult {
   };
   /** epochs cut by the recipe's epoching: those kept and those dropped with the reason */
   epoching?: EpochingSummary;
-  /** events epoching: mean spectra and features per event label */
+  /** events or blocks epoching: mean spectra and features per event or block label */
   groups?: { label: string; epochs: number; channels: ChannelFeatures[] }[];
   /** time-domain flags per used-or-dropped epoch and channel (with features.quality) */
   quality?: { index: number; channels: ChannelQuality[] }[];

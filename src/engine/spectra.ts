@@ -7,7 +7,7 @@ import { channelView, type Signal } from '../signals/signal.js';
 import { createLocalRunner, type ChannelRunContext, type ChannelRunner } from './channel-runner.js';
 import { EngineInputError } from './errors.js';
 import { createSpectrumEstimator, peakToPeak, type SpectrumOutcome, type SpectrumSetup } from './spectrum-channels.js';
-import { screenEpochs } from './gaps.js';
+import { gapHandling, screenEpochs } from './gaps.js';
 import { methodOf } from '../methods/registry.js';
 import type { PreparedInput } from './prepare.js';
 import type { ChannelFeatures, ChannelQuality, FeatureResult, SkippedEpoch } from './record.js';
@@ -116,7 +116,9 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) 
   const quality: { index: number; channels: ChannelQuality[] }[] | null = qualityOptions ? [] : null;
   const limit = recipe.badSpans.peakToPeak;
   const segmentsLeftOut = methodOf(recipe).leavesOutSegments === true;
-  const { used, skipped } = screenEpochs(signal, recipe.nonFinite, (e): SkippedEpoch | null => {
+  // Gaps as bad spans stay in a continuous signal whose Welch segments go round them (segmentFilterFor).
+  const segmentsAvoidGaps = segmentsLeftOut && recipe.epoching === null && signal.epochCount === 1;
+  const { used, skipped } = screenEpochs(signal, gapHandling(recipe.nonFinite, segmentsAvoidGaps), (e): SkippedEpoch | null => {
     // Without recipe epoching, Welch drops segments (see segmentFilterFor); the other methods drop epochs.
     if (limit !== null && recipe.epoching === null && !segmentsLeftOut) {
       const over = signal.channels.map((name, c) => ({ name, p2p: peakToPeak(channelView(signal, e, c)) })).filter((c) => c.p2p > limit);

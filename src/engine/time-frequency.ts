@@ -4,7 +4,7 @@ import type { ConnectivityRecipe, TimeFrequencyRecipe } from '../recipes/schema.
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
 import { createLocalRunner, type ChannelRunContext, type ChannelRunner } from './channel-runner.js';
-import { screenEpochs } from './gaps.js';
+import { gapHandling, screenEpochs } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
 import type { Attachment, TimeFrequencyResult } from './record.js';
 import { taperOptions } from '../methods/settings.js';
@@ -26,7 +26,7 @@ export function analyzeTimeFrequency(
   context: Context,
 ): { result: TimeFrequencyResult; attachments: Attachment[]; threads?: number } {
   const { recipe } = resolved;
-  const { used, skipped } = screenEpochs(signal, recipe.nonFinite);
+  const { used, skipped } = screenEpochs(signal, gapHandling(recipe.nonFinite, false));
   const warnings = [...resolved.warnings, ...prepared.warnings];
   const base = { estimate: { method: recipe.method, epochsUsed: used.length, epochsSkipped: skipped }, warnings };
   if (recipe.method === 'connectivity') {

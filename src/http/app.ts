@@ -8,7 +8,9 @@ import type { Config } from '../config.js';
 import { ENGINE_VERSION } from '../engine/version.js';
 import type { JobQueue } from '../jobs/queue.js';
 import type { Store } from '../stores/store.js';
-import { errorHandler, notFoundHandler } from './error-handler.js';
+import { documentRoute, finishDocument } from './contract.js';
+import { errorHandler } from './error-handler.js';
+import { buildClientErrorHandler, buildNotFoundHandler, createRouteTable, frameworkErrors, SECURITY_HEADERS } from './early-errors.js';
 import cors from '@fastify/cors';
 import rateLimit from '@fastify/rate-limit';
 import { registerAuth } from './auth.js';
@@ -17,8 +19,12 @@ import { eventRoutes } from './routes/events.js';
 import { jobRoutes } from './routes/jobs.js';
 import { uploadRoutes } from './routes/uploads.js';
 import { metaRoutes } from './routes/meta.js';
+import { pageRoutes } from './routes/page.js';
+import { plotRoutes } from './routes/plots.js';
 import { recipeRoutes } from './routes/recipes.js';
 import { signalRoutes } from './routes/signals.js';
+import { studyRoutes } from './routes/studies.js';
+import { tableRoutes } from './routes/tables.js';
 
 export interface AppDeps {
   config: Readonly<Config>;
@@ -45,7 +51,10 @@ export const API_DESCRIPTION = [
 
 /** Builds the app without listening, so tests drive it with `inject()`. */
 export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
+  const routes = createRouteTable();
   const app = Fastify({
+    frameworkErrors,
+    clientErrorHandler: buildClientErrorHandler(routes, deps.logger),
     loggerInstance: deps.logger as unknown as FastifyBaseLogger,
     bodyLimit: deps.config.bodyLimitBytes,
     // A client that trickles its body is cut off instead of holding a connection for ever. Node
@@ -66,26 +75,32 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
   app.setValidatorCompiler(validatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
   app.setErrorHandler(errorHandler);
-  app.setNotFoundHandler(notFoundHandler);
+  app.setNotFoundHandler(buildNotFoundHandler(routes));
+  app.addHook('onRoute', (route) => {
+    routes.add(route.method, route.url);
+    documentRoute(route);
+  });
+  // A JSON body sent as text/plain is refused as 415 naming the accepted types, not parsed as a
+  // string and then refused as a malformed recipe or signal.
+  app.removeContentTypeParser('text/plain');
   app.addHook('onSend', async (request, reply) => {
     reply.header('x-request-id', request.id);
-    reply.header('x-content-type-options', 'nosniff');
-    reply.header('x-frame-options', 'DENY');
-    reply.header('referrer-policy', 'no-referrer');
-    reply.header('content-security-policy', "default-src 'none'; frame-ancestors 'none'");
-    reply.header('cross-origin-resource-policy', 'same-site');
+    // The page's files carry their own, wider content policy (routes/page.ts).
+    for (const [name, value] of Object.entries(SECURITY_HEADERS)) if (name !== 'content-security-policy' || !reply.hasHeader(name)) reply.header(name, value);
     if (!reply.hasHeader('cache-control')) reply.header('cache-control', 'no-store');
   });
   if (deps.config.corsOrigins.length > 0) {
     await app.register(cors, {
       origin: deps.config.corsOrigins.includes('*') ? true : deps.config.corsOrigins,
       methods: ['GET', 'POST', 'PUT', 'DELETE'],
-      allowedHeaders: ['authorization', 'content-type', 'x-request-id'],
-      exposedHeaders: ['x-request-id', 'location', 'retry-after'],
+      allowedHeaders: ['authorization', 'content-type', 'x-request-id', 'if-none-match'],
+      // What a dashboard on another origin reads: ids for support, caching, download names and the
+      // layout of a binary attachment.
+      exposedHeaders: ['x-request-id', 'location', 'retry-after', 'etag', 'content-disposition', 'x-rhythmetric-shape', 'x-rhythmetric-dtype'],
       maxAge: 600,
     });
   }
-  registerAuth(app, deps.config.apiKeys);
+  registerAuth(app, { keys: deps.config.apiKeys, metricsTokenSha256: deps.config.metricsTokenSha256, failuresPerMinute: deps.config.authFailuresPerMinute });
   if (deps.config.rateLimitPerMinute > 0) {
     await app.register(rateLimit, {
       max: deps.config.rateLimitPerMinute,
@@ -103,22 +118,36 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
     openapi: {
       openapi: '3.1.0',
       info: { title: 'rhythmetric', version: ENGINE_VERSION, description: API_DESCRIPTION, license: { name: 'Apache-2.0', identifier: 'Apache-2.0' } },
+      // Relative: the document is served by the service it describes, wherever that runs.
+      servers: [{ url: '/', description: 'the service that serves this document' }],
+      components: {
+        securitySchemes: {
+          bearer: { type: 'http', scheme: 'bearer', description: 'An API key with the role read, submit or admin, as "Authorization: Bearer <key>". Without configured keys the service runs in an announced open mode.' },
+        },
+      },
+      security: [{ bearer: [] }],
       tags: [
         { name: 'signals', description: 'Upload and describe signals' },
         { name: 'recipes', description: 'Pin analysis recipes' },
         { name: 'jobs', description: 'Submit analyses and fetch feature records' },
+        { name: 'plots', description: 'Records drawn as SVG' },
+        { name: 'studies', description: 'Recordings with their metadata, grouped in studies; one recipe run over a whole study' },
         { name: 'operations', description: 'Health, readiness and documentation' },
       ],
     },
     transform: jsonSchemaTransform,
-    transformObject: jsonSchemaTransformObject,
+    transformObject: (input) => finishDocument(jsonSchemaTransformObject(input)),
   });
   await app.register(metaRoutes(deps));
   await app.register(signalRoutes(deps));
   await app.register(recipeRoutes(deps));
   await app.register(jobRoutes(deps));
+  await app.register(tableRoutes(deps));
   await app.register(eventRoutes(deps));
   await app.register(uploadRoutes(deps));
+  await app.register(plotRoutes(deps));
+  await app.register(studyRoutes(deps));
+  await app.register(pageRoutes());
   await app.ready();
   return app;
 }

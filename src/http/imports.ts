@@ -3,6 +3,7 @@ import { locatedUnder } from '../common/errors.js';
 import { createDataRoot, type DataRoot } from '../signals/data-root.js';
 import { ingestFile, type IngestDescription } from '../stores/ingest.js';
 import type { SignalMeta, Store } from '../stores/store.js';
+import type { SignalEvent } from '../signals/signal.js';
 import { ProblemError } from './problem.js';
 import { receiveToFile } from './receive.js';
 import { openRemote } from './remote-source.js';
@@ -17,6 +18,7 @@ export interface FileDescription {
   unit?: string | undefined;
   voltage?: boolean | undefined;
   nonFinite?: 'reject' | 'keep' | undefined;
+  events?: SignalEvent[] | undefined;
 }
 
 export type ImportSource = ({ file: string; url?: undefined } | { url: string; file?: undefined }) & FileDescription;
@@ -63,9 +65,12 @@ export async function importSignal(config: Readonly<Config>, store: Store, sourc
 
 /** The ingest description of a file; a float32 file needs its sampling rate and channel names. */
 export function describeIngest(d: FileDescription, pointer: string): IngestDescription {
-  if (d.format === 'edf') return { format: 'edf', channels: d.channels, samplingRate: d.samplingRate };
+  if (d.format === 'edf') {
+    if (d.events !== undefined) throw new ProblemError('invalid-signal', 'an EDF+ file brings its events as annotations; events are for float32 files', `${pointer}/events`);
+    return { format: 'edf', channels: d.channels, samplingRate: d.samplingRate };
+  }
   if (d.samplingRate === undefined || d.channels === undefined) {
     throw new ProblemError('invalid-signal', 'a float32 file needs samplingRate and channels', `${pointer}/${d.samplingRate === undefined ? 'samplingRate' : 'channels'}`);
   }
-  return { format: 'float32', samplingRate: d.samplingRate, channels: d.channels, epochCount: d.epochCount ?? 1, unit: d.unit, voltage: d.voltage, nonFinite: d.nonFinite };
+  return { format: 'float32', samplingRate: d.samplingRate, channels: d.channels, epochCount: d.epochCount ?? 1, unit: d.unit, voltage: d.voltage, nonFinite: d.nonFinite, events: d.events };
 }

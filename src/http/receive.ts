@@ -24,12 +24,13 @@ export interface ReceivedFile {
 /**
  * Streams a request body to a file, counting and hashing as it goes. A declared Content-Length
  * over the limit is refused before reading; a body that grows past it is cut off. Either way the
- * answer is 413 and the partial file is removed.
+ * answer is 413 (with `tooLargeHint`, say where such bodies can go) and the partial file is removed.
  */
-export async function receiveToFile(body: Readable, dir: string, limit: number, declared?: string | undefined): Promise<ReceivedFile> {
+export async function receiveToFile(body: Readable, dir: string, limit: number, declared?: string | undefined, tooLargeHint = ''): Promise<ReceivedFile> {
+  const hint = tooLargeHint ? `; ${tooLargeHint}` : '';
   if (declared !== undefined && Number(declared) > limit) {
     body.resume();
-    throw new ProblemError('payload-too-large', `the body of ${declared} bytes exceeds this server's limit of ${limit} bytes`);
+    throw new ProblemError('payload-too-large', `the body of ${declared} bytes exceeds this server's limit of ${limit} bytes${hint}`);
   }
   const path = join(dir, `${randomBytes(8).toString('hex')}.upload`);
   const hash = createHash('sha256');
@@ -38,7 +39,7 @@ export async function receiveToFile(body: Readable, dir: string, limit: number, 
     transform(chunk: Buffer, _encoding, done) {
       bytes += chunk.length;
       if (bytes > limit) {
-        done(new ProblemError('payload-too-large', `the body exceeds this server's limit of ${limit} bytes`));
+        done(new ProblemError('payload-too-large', `the body exceeds this server's limit of ${limit} bytes${hint}`));
         return;
       }
       hash.update(chunk);

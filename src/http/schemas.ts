@@ -3,25 +3,43 @@ import { JOB_STATES } from '../jobs/spec.js';
 import { RecipeSchema } from '../recipes/schema.js';
 
 export const ProblemSchema = z
-  .object({
+  .looseObject({
     type: z.string().describe('stable URI of the problem kind, e.g. /problems/invalid-recipe (GET it for documentation)'),
     title: z.string(),
     status: z.number().int(),
     detail: z.string().describe('what is wrong, in words'),
     pointer: z.string().optional().describe('RFC 6901 JSON pointer to the offending input (/query/… for query parameters)'),
-    requestId: z.string().optional(),
+    requestId: z.string().optional().describe('the x-request-id of the answer'),
+    accepted: z.array(z.string()).optional().describe('unsupported-media-type: the content types the route reads'),
+    allowed: z.array(z.string()).optional().describe('method-not-allowed: the methods the path answers (also in Allow)'),
   })
-  .meta({ id: 'Problem', description: 'RFC 9457 problem details.' });
+  .meta({ id: 'Problem', description: 'RFC 9457 problem details; further members (extensions) may appear, as RFC 9457 §3.2 allows.' });
 
 export function problemResponse(description: string) {
   return { description, content: { 'application/problem+json': { schema: ProblemSchema } } };
 }
 
-const EventSchema = z.strictObject({
+export const EventSchema = z.strictObject({
   onset: z.number().describe('seconds from the start'),
   duration: z.number().min(0).nullable().describe('seconds, or null for a marker'),
   label: z.string().min(1).max(200),
 });
+
+/** Events of a signal, as every upload form takes them. */
+export const EventListSchema = z.array(EventSchema).max(100_000);
+
+/** A binary upload's events: the same list as in a JSON upload, as JSON text in one query parameter. */
+const EventsQuery = z
+  .string()
+  .transform((text, ctx) => {
+    try {
+      return JSON.parse(text) as unknown;
+    } catch (error) {
+      ctx.addIssue({ code: 'custom', message: `events must be a JSON array of {onset, duration, label}: ${(error as Error).message}` });
+      return z.NEVER;
+    }
+  })
+  .pipe(EventListSchema);
 
 const SampleRows = z.array(z.array(z.number().nullable()));
 
@@ -34,7 +52,7 @@ export const SignalUploadSchema = z
     voltage: z.boolean().optional().describe('false when the samples are not a voltage: the unit is then kept as given and nothing is converted; default true'),
     data: SampleRows.optional().describe('continuous chunk, channel × sample'),
     epochs: z.array(SampleRows).optional().describe('epoch × channel × sample'),
-    events: z.array(EventSchema).max(100_000).optional(),
+    events: EventListSchema.optional(),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('null samples: refuse (default) or keep as gaps'),
   })
   .meta({ id: 'SignalUpload' });
@@ -60,6 +78,7 @@ export const BinaryUploadQuery = z.strictObject({
   voltage: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
   nonFinite: z.enum(['reject', 'keep']).optional(),
   format: z.literal('float32').optional().describe('binary layout; float32 little-endian [epoch][channel][sample]'),
+  events: EventsQuery.optional(),
 });
 
 /** Query of an EDF/EDF+ upload: optional selection of channels (by label) or of one sampling rate. */
@@ -83,6 +102,10 @@ export const UploadQueryDoc = z
     unit: z.string().optional().describe('float32: nV, uV (µV), mV or V, stored as uV; any other unit needs voltage=false; default uV'),
     voltage: z.enum(['true', 'false']).optional().describe('float32: false when the samples are not a voltage; default true'),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('float32: NaN/±Inf samples refused (default) or kept as gaps'),
+    events: z
+      .string()
+      .optional()
+      .describe('float32: the events as a URL-encoded JSON array [{"onset": s, "duration": s or null, "label": "…"}], as in a JSON upload (EDF+ files bring theirs as annotations); for lists too long for a URL, start a resumable upload with `events` in its body'),
   })
   .describe('describes a binary (application/octet-stream) body');
 
@@ -130,6 +153,7 @@ const importFields = {
   epochCount: z.number().int().min(1).optional().describe('float32 only; default 1'),
   unit: z.string().min(1).max(32).optional().describe('float32 only: nV, uV (µV), mV or V, stored as uV; default uV'),
   voltage: z.boolean().optional().describe('float32 only: false when the samples are not a voltage (the unit is kept as given)'),
+  events: EventListSchema.optional().describe('float32 only: events, as in a JSON upload'),
 };
 
 export const ImportSourceSchema = z
@@ -139,10 +163,17 @@ export const ImportSourceSchema = z
   ])
   .meta({ id: 'ImportSource', description: 'A recording the server reads itself: a file under its data root, or an allow-listed URL. Both are off unless configured.' });
 
+/** Labels a client attaches to a job (e.g. `study`); listed with it and filterable, never hashed. */
+export const JobLabelsSchema = z
+  .record(z.string().regex(/^[A-Za-z][A-Za-z0-9_.-]{0,63}$/, 'a label name starts with a letter and holds at most 64 letters, digits, "_", "." or "-"'), z.string().max(256))
+  .refine((labels) => Object.keys(labels).length <= 32, 'at most 32 labels')
+  .describe('free labels, e.g. {"study": "…", "condition": "eyes-closed"}; GET /v1/jobs?study= filters on the study label; an identical job keeps the labels it was first submitted with');
+
 export const JobRequestSchema = z
   .strictObject({
     signal: z.union([z.string().describe('id of a stored signal'), SignalReferenceSchema, ImportSourceSchema, SignalUploadSchema]),
     recipe: z.union([z.string().describe('id of a pinned recipe'), RecipeSchema]),
+    labels: JobLabelsSchema.optional(),
   })
   .meta({ id: 'JobRequest' });
 
@@ -163,6 +194,7 @@ export const JobSignalSchema = z.union([
 export const JobRequestEnvelope = z.strictObject({
   signal: JobSignalSchema,
   recipe: z.union([z.string().min(1), z.record(z.string(), z.unknown())]),
+  labels: JobLabelsSchema.optional(),
 });
 export type JobRequest = z.output<typeof JobRequestEnvelope>;
 
@@ -173,12 +205,15 @@ export const JobViewSchema = z
     progress: z.number().min(0).max(1),
     signal: z.string(),
     recipe: z.string(),
+    method: z.string().describe("the recipe's method"),
+    labels: z.record(z.string(), z.string()).describe('labels given at submission'),
     resultHash: z.string().nullable(),
     attempts: z.number().int(),
     createdAt: z.string(),
     startedAt: z.string().nullable(),
     finishedAt: z.string().nullable(),
     problem: ProblemSchema.nullable().describe('why a failed job failed'),
+    tenant: z.string().optional().describe('the tenant the job belongs to (sent by the event stream)'),
     links: z.object({ self: z.string(), record: z.string() }),
   })
   .meta({ id: 'Job' });
@@ -217,6 +252,20 @@ export const FeatureRecordSchema = z
       warnings: z.array(z.string()),
     }),
     resultHash: z.string().describe('SHA-256 of the canonical JSON of result'),
+    attachments: z
+      .array(
+        z.object({
+          name: z.string().describe('GET /v1/jobs/{id}/attachments/{name}'),
+          kind: z.string().describe('what it holds, e.g. power, trialPower, phaseConsistency, edgeMask'),
+          channel: z.string().nullable(),
+          shape: z.array(z.number().int()).describe('row-major dimensions, e.g. [times, frequencies]'),
+          dtype: z.enum(['float64-le', 'uint8']),
+          bytes: z.number().int(),
+          sha256: z.string(),
+        }),
+      )
+      .optional()
+      .describe('time–frequency records: the binary matrices, fetched separately; their hashes are inside result'),
     provenance: z.looseObject({}),
   })
   .meta({ id: 'FeatureRecord' });

@@ -2,6 +2,7 @@ import { Queue, QueueEvents, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
 import { crashProblem } from './failure.js';
 import type { JobOutcome } from './run-job.js';
+import { newestFirst, positionMatches, specMatches, stateMatches, type JobListFilter, type JobPosition } from './list.js';
 import type { JobQueue } from './queue.js';
 import { newJobView, type JobProblem, type JobSpec, type JobState, type JobView } from './spec.js';
 import { waitForJob } from './wait.js';
@@ -99,7 +100,10 @@ export class BullQueue implements JobQueue {
     const job = await this.queue.getJob(jobId);
     if (job) return this.view(job);
     const tombstone = await this.connection.get(this.tombstoneKey(jobId));
-    return tombstone ? (JSON.parse(tombstone) as JobView) : null;
+    // Tombstones written before views carried method and labels lack them.
+    if (!tombstone) return null;
+    const view = JSON.parse(tombstone) as Partial<JobView> & Omit<JobView, 'method' | 'labels'>;
+    return { ...view, method: view.method ?? 'unknown', labels: view.labels ?? {} };
   }
 
   async cancel(jobId: string): Promise<JobView | null> {
@@ -121,19 +125,22 @@ export class BullQueue implements JobQueue {
     return this.view(job);
   }
 
-  async list(filter: { tenant: string | null; signal?: string; limit: number }): Promise<JobView[]> {
+  async list(filter: JobListFilter): Promise<JobView[]> {
     this.ensureUp();
-    // Scans at most 10 000 recent jobs; enough for a lab's dashboard, bounded for Redis.
-    const jobs = await this.queue.getJobs(['active', 'waiting', 'delayed', 'prioritized', 'completed', 'failed'], 0, 9999);
-    const views = await Promise.all(
-      jobs
-        .filter((j) => {
-          const spec = j.data as JobSpec;
-          return (filter.tenant === null || spec.tenant === filter.tenant) && (filter.signal === undefined || spec.signalId === filter.signal);
-        })
-        .map((j) => this.view(j)),
-    );
-    return views.sort((a, b) => (a.createdAt < b.createdAt ? 1 : a.createdAt > b.createdAt ? -1 : a.id < b.id ? 1 : -1)).slice(0, filter.limit);
+    // Scans at most 10 000 recent jobs of the asked states; enough for a lab's dashboard, bounded for Redis.
+    const jobs = await this.queue.getJobs(bullTypesOf(filter.states), 0, 9999);
+    const seen = new Set<string>();
+    // A job moving between BullMQ states while they are read can be returned twice.
+    const candidates = jobs
+      .filter((j) => j.id !== undefined && !seen.has(j.id) && seen.add(j.id) && specMatches(j.data as JobSpec, filter) && positionMatches(positionOf(j), filter))
+      .sort((a, b) => newestFirst(positionOf(a), positionOf(b)));
+    // A job's state costs a round trip: read them in small batches until the page is full.
+    const views: JobView[] = [];
+    for (let at = 0; at < candidates.length && views.length < filter.limit; at += LIST_BATCH) {
+      const batch = await Promise.all(candidates.slice(at, at + LIST_BATCH).map((j) => this.view(j)));
+      views.push(...batch.filter((v) => stateMatches(v, filter)));
+    }
+    return views.slice(0, filter.limit);
   }
 
   async remove(jobId: string): Promise<boolean> {
@@ -240,6 +247,22 @@ export class BullQueue implements JobQueue {
       problem,
     };
   }
+}
+
+const LIST_BATCH = 50;
+
+type BullType = 'active' | 'waiting' | 'delayed' | 'prioritized' | 'completed' | 'failed';
+
+/** The BullMQ states that can hold jobs in the given states (canceled jobs are failed ones, marked). */
+function bullTypesOf(states: readonly JobState[] | undefined): BullType[] {
+  const all: BullType[] = ['active', 'waiting', 'delayed', 'prioritized', 'completed', 'failed'];
+  if (!states || states.length === 0) return all;
+  const map: Record<JobState, BullType[]> = { queued: ['waiting', 'delayed', 'prioritized'], running: ['active'], succeeded: ['completed'], failed: ['failed'], canceled: ['failed'] };
+  return all.filter((t) => states.some((s) => map[s].includes(t)));
+}
+
+function positionOf(job: Job): JobPosition {
+  return { createdAt: new Date(job.timestamp).toISOString(), id: job.id! };
 }
 
 function baseView(job: Job, spec: JobSpec): JobView {

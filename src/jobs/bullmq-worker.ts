@@ -17,7 +17,7 @@ export interface BullWorkerOptions {
   lockDurationMs?: number;
   /** redeliveries after stalls before the job fails */
   maxStalledCount?: number;
-  onEvent?: (event: 'completed' | 'failed' | 'stalled' | 'error', detail: Record<string, unknown>) => void;
+  onEvent?: (event: 'started' | 'completed' | 'failed' | 'stalled' | 'lock-lost' | 'error', detail: Record<string, unknown>) => void;
 }
 
 /**
@@ -76,6 +76,9 @@ export function startBullWorker(options: BullWorkerOptions): { worker: Worker; c
     stalledInterval: options.lockDurationMs ?? 30_000,
     maxStalledCount: options.maxStalledCount ?? 2,
   });
+  // Every start (BullMQ's attemptsStarted) and every lost lock is logged, so a redelivery can be traced to its cause.
+  worker.on('active', (job) => options.onEvent?.('started', { jobId: job.id, attemptsStarted: job.attemptsStarted }));
+  worker.on('lockRenewalFailed', (jobIds) => options.onEvent?.('lock-lost', { jobIds }));
   worker.on('completed', (job) => options.onEvent?.('completed', { jobId: job.id, resultHash: job.returnvalue?.resultHash }));
   worker.on('failed', (job, error) => options.onEvent?.('failed', { jobId: job?.id, reason: error.message }));
   worker.on('stalled', (jobId) => options.onEvent?.('stalled', { jobId }));

@@ -1,6 +1,8 @@
+import { DomainError, toProblem } from '../common/errors.js';
 import type { Store, StoreConfig } from '../stores/store.js';
 import type { ComputePool } from './compute-pool.js';
 import { crashProblem } from './failure.js';
+import { newestFirst, positionMatches, specMatches, stateMatches, type JobListFilter } from './list.js';
 import type { JobQueue } from './queue.js';
 import { isFinished, newJobView, type JobSpec, type JobState, type JobView } from './spec.js';
 import { waitForJob } from './wait.js';
@@ -9,6 +11,21 @@ interface Entry {
   view: JobView;
   spec: JobSpec;
   abort: AbortController | null;
+  /** starts that a graceful shutdown interrupted: they do not count against the attempts */
+  shutdowns: number;
+  /** times the process died while the job ran */
+  crashes: number;
+  /** true while the last persisted 'running' state was written by close() */
+  stopped: boolean;
+}
+
+/** A job's document in the store. */
+interface StoredJob {
+  view: JobView;
+  spec: JobSpec;
+  shutdowns?: number;
+  crashes?: number;
+  stopped?: boolean;
 }
 
 export interface EmbeddedQueueOptions {
@@ -49,20 +66,43 @@ export class EmbeddedQueue implements JobQueue {
     return queue;
   }
 
+  /**
+   * Reloads every job. A job found `running` that close() did not stop was running when the process
+   * died: that start is spent, and a job that has spent its attempts this way fails instead of
+   * taking the process down again.
+   */
   private async restore(): Promise<void> {
+    const failed: Entry[] = [];
     for (const id of await this.options.store.listDocuments('jobs')) {
       const text = await this.options.store.getDocument('jobs', id);
       if (!text) continue;
-      const { view, spec } = JSON.parse(text) as { view: JobView; spec: JobSpec };
-      const entry: Entry = { view, spec, abort: null };
+      const { view, spec, shutdowns = 0, crashes = 0, stopped = false } = JSON.parse(text) as StoredJob;
+      // Jobs stored before views carried method and labels.
+      view.method ??= spec.recipe.method;
+      view.labels ??= { ...spec.labels };
+      const entry: Entry = { view, spec, abort: null, shutdowns, crashes, stopped };
       this.entries.set(view.id, entry);
-      if (!isFinished(view.state)) {
-        view.state = 'queued';
-        view.progress = 0;
-        this.pending.push(view.id);
+      if (isFinished(view.state)) continue;
+      if (view.state === 'running' && !stopped) {
+        entry.crashes++;
+        if (this.attemptsUsed(entry) >= this.maxAttempts) {
+          view.problem = toProblem(
+            new DomainError('worker-crashed', `the job took the process down ${entry.crashes} time(s) and has used its ${this.maxAttempts} attempt(s) (JOB_ATTEMPTS); it is not started again`),
+          ).problem;
+          failed.push(entry);
+          continue;
+        }
       }
+      view.state = 'queued';
+      view.progress = 0;
+      this.pending.push(view.id);
     }
+    for (const entry of failed) await this.finish(entry, 'failed');
     this.pump();
+  }
+
+  private attemptsUsed(entry: Entry): number {
+    return entry.view.attempts - entry.shutdowns;
   }
 
   async submit(spec: JobSpec, jobId: string): Promise<{ job: JobView; created: boolean }> {
@@ -71,7 +111,7 @@ export class EmbeddedQueue implements JobQueue {
       return { job: { ...existing.view }, created: false };
     }
     const view = newJobView(jobId, spec, new Date().toISOString());
-    const entry: Entry = { view, spec, abort: null };
+    const entry: Entry = { view, spec, abort: null, shutdowns: 0, crashes: 0, stopped: false };
     this.entries.set(jobId, entry);
     await this.persist(entry);
     this.pending.push(jobId);
@@ -97,11 +137,11 @@ export class EmbeddedQueue implements JobQueue {
     return { ...entry.view };
   }
 
-  async list(filter: { tenant: string | null; signal?: string; limit: number }): Promise<JobView[]> {
+  async list(filter: JobListFilter): Promise<JobView[]> {
     return [...this.entries.values()]
+      .filter(({ view, spec }) => specMatches(spec, filter) && positionMatches(view, filter) && stateMatches(view, filter))
       .map((e) => e.view)
-      .filter((v) => (filter.tenant === null || v.tenant === filter.tenant) && (filter.signal === undefined || v.signal === filter.signal))
-      .sort((a, b) => (a.createdAt < b.createdAt ? 1 : a.createdAt > b.createdAt ? -1 : a.id < b.id ? 1 : -1))
+      .sort(newestFirst)
       .slice(0, filter.limit)
       .map((v) => ({ ...v }));
   }
@@ -137,12 +177,23 @@ export class EmbeddedQueue implements JobQueue {
   /**
    * Stops taking work, abandons running computations (they resume on restart) and waits for the
    * job-state writes already under way, so that a restart reads the last state the process gave a
-   * job (a fault test once found an interrupted job resumed with its attempt not counted).
+   * job (a fault test once found an interrupted job resumed with its attempt not counted). Then it
+   * marks each interrupted job as stopped on purpose, after those writes so that none overwrites
+   * the mark: a restart does not count a shutdown as a crash.
    */
   async close(): Promise<void> {
     this.closed = true;
-    for (const entry of this.entries.values()) entry.abort?.abort();
+    const interrupted = [...this.entries.values()].filter((e) => e.abort !== null);
+    for (const entry of interrupted) entry.abort?.abort();
     await Promise.allSettled([...this.writes]);
+    const marks = interrupted
+      .filter((e) => e.view.state === 'running')
+      .map((entry) => {
+        entry.shutdowns++;
+        entry.stopped = true;
+        return this.persist(entry);
+      });
+    await Promise.allSettled(marks);
   }
 
   private pump(): void {
@@ -163,7 +214,10 @@ export class EmbeddedQueue implements JobQueue {
     view.state = 'running';
     view.startedAt = new Date().toISOString();
     view.attempts++;
+    entry.stopped = false;
     entry.abort = new AbortController();
+    // Durable before the computation begins: if the computation takes the process down, the
+    // restart counts this start.
     await this.persist(entry);
     try {
       const output = await this.options.pool.run(entry.spec, this.options.storeConfig, 'embedded', (f) => (view.progress = f), entry.abort.signal);
@@ -182,7 +236,7 @@ export class EmbeddedQueue implements JobQueue {
         return;
       }
       this.options.onError?.(error, view.id);
-      if (view.attempts < this.maxAttempts) {
+      if (this.attemptsUsed(entry) < this.maxAttempts) {
         view.state = 'queued';
         view.progress = 0;
         await this.persist(entry);
@@ -209,8 +263,10 @@ export class EmbeddedQueue implements JobQueue {
    * power loss drops it, the job runs again on restart and finds its durable record at once.
    */
   private persist(entry: Entry): Promise<void> {
-    const durable = entry.view.state === 'queued' || entry.view.state === 'running';
-    const write = this.options.store.putDocument('jobs', entry.view.id, JSON.stringify({ view: entry.view, spec: entry.spec }), { durable });
+    const { view } = entry;
+    const durable = view.state === 'queued' || view.state === 'running';
+    const stored: StoredJob = { view, spec: entry.spec, shutdowns: entry.shutdowns, crashes: entry.crashes, stopped: entry.stopped };
+    const write = this.options.store.putDocument('jobs', view.id, JSON.stringify(stored), { durable });
     const tracked = write.then(() => undefined, () => undefined).finally(() => this.writes.delete(tracked));
     this.writes.add(tracked);
     return write;

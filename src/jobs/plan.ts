@@ -25,7 +25,13 @@ export async function getRecipe(store: Store, id: string, pointer: string | null
  * Builds the job for a (signal, recipe) pair after checking, before anything is queued, that the
  * recipe fits the signal; a misfit answers 422 now instead of a failed job later.
  */
-export function planJob(limits: RecipeLimits, meta: SignalMeta, pinned: PinnedRecipe, view: SignalView | null = null): { jobId: string; spec: JobSpec } {
+export function planJob(
+  limits: RecipeLimits,
+  meta: SignalMeta,
+  pinned: PinnedRecipe,
+  view: SignalView | null = null,
+  labels: Record<string, string> = {},
+): { jobId: string; spec: JobSpec } {
   const reference = pinned.recipe.reference;
   if (view?.channels && typeof reference === 'object' && view.channels.includes(reference.channel)) {
     throw new DomainError('recipe-unfit', `channel "${reference.channel}" is the recipe's reference and is left out of the output; do not select it`, { pointer: '/signal/channels' });
@@ -33,13 +39,13 @@ export function planJob(limits: RecipeLimits, meta: SignalMeta, pinned: PinnedRe
   const shape = locatedUnder('/signal', () => viewedShape(meta, view));
   const resolved = locatedUnder('/recipe', () => resolveRecipe(pinned.recipe, pinned.hash, shape, limits));
   if (meta.nonFiniteSamples > 0 && pinned.recipe.nonFinite === 'reject') {
-    throw new DomainError('non-finite', `signal ${meta.id} holds ${meta.nonFiniteSamples} non-finite sample(s); set the recipe's "nonFinite": "skip-epoch" to leave those epochs out`, {
+    throw new DomainError('non-finite', `signal ${meta.id} holds ${meta.nonFiniteSamples} non-finite sample(s); set the recipe's "nonFinite": "skip-epoch" to leave those epochs out, or "bad-span" to leave out only what overlaps the gaps`, {
       pointer: '/recipe/nonFinite',
     });
   }
   const recordKey = recordKeyOf(meta.tenant, meta.sha256, pinned.hash, view);
   return {
     jobId: jobIdOf(recordKey),
-    spec: { tenant: meta.tenant, signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey, view, resolved },
+    spec: { tenant: meta.tenant, signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey, view, resolved, labels },
   };
 }

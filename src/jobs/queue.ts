@@ -1,3 +1,4 @@
+import type { JobListFilter } from './list.js';
 import type { JobSpec, JobState, JobView } from './spec.js';
 
 /**
@@ -13,8 +14,8 @@ export interface JobQueue {
   cancel(jobId: string): Promise<JobView | null>;
   /** Resolves when the job reaches a finished state (for tests and the CLI). */
   waitFor(jobId: string, timeoutMs: number): Promise<JobView>;
-  /** Jobs newest first; `tenant: null` lists every tenant's (admin). */
-  list(filter: { tenant: string | null; signal?: string; limit: number }): Promise<JobView[]>;
+  /** Jobs newest first (creation time, then id), at most `filter.limit`; `tenant: null` lists every tenant's (admin). */
+  list(filter: JobListFilter): Promise<JobView[]>;
   /** Cancels the job if it runs, then forgets it; false when unknown. */
   remove(jobId: string): Promise<boolean>;
   /** Jobs per state, for metrics. */

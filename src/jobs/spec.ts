@@ -27,6 +27,11 @@ export interface JobSpec {
    * queued by earlier versions
    */
   resolved?: ResolvedRecipe;
+  /**
+   * Free labels a client attaches at submission (e.g. `study`), listed with the job so dashboards
+   * can filter without one lookup per job; not part of the job id or the record.
+   */
+  labels?: Record<string, string>;
 }
 
 /** RFC 9457 problem details, as stored on a failed job. */
@@ -40,6 +45,9 @@ export interface JobView {
   progress: number;
   signal: string;
   recipe: string;
+  /** the recipe's method, so a job list needs no recipe lookup per job */
+  method: string;
+  labels: Record<string, string>;
   recordKey: string;
   resultHash: string | null;
   attempts: number;
@@ -80,6 +88,8 @@ export function newJobView(id: string, spec: JobSpec, createdAt: string): JobVie
     progress: 0,
     signal: spec.signalId,
     recipe: spec.recipeId,
+    method: spec.recipe.method,
+    labels: { ...spec.labels },
     recordKey: spec.recordKey,
     resultHash: null,
     attempts: 0,

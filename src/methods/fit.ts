@@ -13,7 +13,7 @@ export interface SignalShape {
   epochCount?: number;
   channels?: readonly string[];
   /** the signal's events, when the caller knows them; labels are checked only then */
-  events?: readonly Pick<SignalEvent, 'label' | 'onset'>[];
+  events?: readonly (Pick<SignalEvent, 'label' | 'onset'> & { duration?: number | null })[];
 }
 
 export interface RecipeLimits {
@@ -140,7 +140,11 @@ export function analysedChannels(reference: Reference, shape: SignalShape): numb
 }
 
 interface EpochingSettings {
-  epoching: { mode: 'fixed'; epochSeconds: number; stepSeconds: number | null } | { mode: 'events'; labels: string[] | null; beforeSeconds: number; afterSeconds: number; baseline: [number, number] | null } | null;
+  epoching:
+    | { mode: 'fixed'; epochSeconds: number; stepSeconds: number | null }
+    | { mode: 'events'; labels: string[] | null; beforeSeconds: number; afterSeconds: number; baseline: [number, number] | null }
+    | { mode: 'blocks'; labels: string[]; epochSeconds: number; stepSeconds: number | null }
+    | null;
   badSpans: { labels: string[]; peakToPeak: number | null };
 }
 
@@ -152,8 +156,8 @@ export function epochLength(recipe: EpochingSettings, shape: SignalShape): numbe
     throw unfit(`epoching cuts a continuous signal; this one already has ${shape.epochCount} epochs`, '/epoching');
   }
   const fs = shape.samplingRate;
-  const samples = e.mode === 'fixed' ? Math.round(e.epochSeconds * fs) : Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs);
-  if (samples < 2) throw unfit(`epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'fixed' ? '/epoching/epochSeconds' : '/epoching/afterSeconds');
+  const samples = e.mode === 'events' ? Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs) : Math.round(e.epochSeconds * fs);
+  if (samples < 2) throw unfit(`epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'events' ? '/epoching/afterSeconds' : '/epoching/epochSeconds');
   if (samples > shape.samplesPerEpoch) {
     throw unfit(`epochs of ${samples} samples are longer than the signal (${shape.samplesPerEpoch} samples)`, '/epoching');
   }
@@ -175,6 +179,14 @@ export function epochCountOf(recipe: EpochingSettings, shape: SignalShape, epoch
     return Math.floor((shape.samplesPerEpoch - epochSamples) / step) + 1;
   }
   if (!shape.events) return Math.max(1, Math.floor(shape.samplesPerEpoch / epochSamples));
+  if (e.mode === 'blocks') {
+    const fs = shape.samplingRate;
+    const step = Math.max(1, Math.round((e.stepSeconds ?? e.epochSeconds) * fs));
+    const wanted = new Set(e.labels);
+    return shape.events
+      .filter((ev) => wanted.has(ev.label) && (ev.duration ?? 0) > 0)
+      .reduce((n, ev) => n + Math.max(0, Math.floor((Math.round((ev.onset + ev.duration!) * fs) - Math.round(ev.onset * fs) - epochSamples) / step) + 1), 0);
+  }
   const wanted = e.labels ? new Set(e.labels) : null;
   const bad = new Set(recipe.badSpans.labels);
   return shape.events.filter((ev) => !bad.has(ev.label) && (wanted === null || wanted.has(ev.label))).length;
@@ -194,6 +206,13 @@ export function checkLabels(recipe: EpochingSettings, shape: SignalShape): void 
     if (known.size === 0) throw unfit(`events epoching needs events; ${has}`, '/epoching');
     e.labels?.forEach((label, i) => {
       if (!known.has(label)) throw unfit(`epoching label "${label}" is not an event label of the signal; ${has}`, `/epoching/labels/${i}`);
+    });
+  }
+  if (e?.mode === 'blocks') {
+    const blocks = new Set(shape.events.filter((ev) => (ev.duration ?? 0) > 0).map((ev) => ev.label));
+    e.labels.forEach((label, i) => {
+      if (!known.has(label)) throw unfit(`block label "${label}" is not an event label of the signal; ${has}`, `/epoching/labels/${i}`);
+      if (!blocks.has(label)) throw unfit(`events labelled "${label}" have no duration, so they hold no block to cut epochs in`, `/epoching/labels/${i}`);
     });
   }
   recipe.badSpans.labels.forEach((label, i) => {

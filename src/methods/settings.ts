@@ -93,8 +93,18 @@ export const EpochingSchema = z
       afterSeconds: z.number().positive().max(3600).describe('data kept after each event'),
       baseline: z.tuple([z.number(), z.number()]).nullable().default(null).describe('[start, end) s relative to the event; its mean is subtracted per channel'),
     }),
+    z.strictObject({
+      mode: z.literal('blocks'),
+      labels: z.array(z.string().min(1)).min(1).max(256).describe('labels of the blocks to tile: events with a duration, e.g. "eyes-closed"'),
+      epochSeconds: z.number().positive().max(3600).describe('epoch length'),
+      stepSeconds: z.number().positive().max(3600).nullable().default(null).describe('time between epoch starts within a block; null = epochSeconds (no overlap)'),
+    }),
   ])
-  .meta({ id: 'Epoching', description: 'Cut a continuous signal into epochs: fixed-length, or around its events (EDF+ annotations or uploaded events).' });
+  .meta({
+    id: 'Epoching',
+    description:
+      'Cut a continuous signal into epochs: fixed-length, around its events, or fixed-length inside labelled blocks (events with a duration), each epoch carrying its block label. Events come from EDF+ annotations or an upload.',
+  });
 
 /** Settings every spectrum method shares, in the order the recipe documents them. */
 export const commonSettings = {
@@ -141,9 +151,11 @@ export const commonSettings = {
     .default({ labels: [], peakToPeak: null })
     .describe('time spans left out: a Welch segment or an epoch overlapping one is not averaged'),
   nonFinite: z
-    .enum(['reject', 'skip-epoch'])
+    .enum(['reject', 'skip-epoch', 'bad-span'])
     .default('reject')
-    .describe('what to do with epochs holding NaN or ±Inf samples (gaps): refuse the job, or leave those epochs out'),
+    .describe(
+      'NaN or ±Inf samples (gaps): refuse the job; leave out the epochs holding them; or treat each run of them in a continuous recording as a bad span (Welch segments, or epochs cut by epoching, that overlap it are left out and counted)',
+    ),
 };
 
 // NW 2 on the 1-s default window or segment gives W = NW/T = ±2 Hz of smoothing: a 6-Hz theta peak

@@ -1,11 +1,12 @@
 import type { z } from 'zod';
 import { deepFreeze } from '../common/freeze.js';
 import { hashCanonical } from '../common/hash.js';
+import { explainIssue, type SchemaIssue } from '../common/issue-text.js';
 import { methodOf } from '../methods/registry.js';
 import { pointerOf, RecipeInputError } from './errors.js';
 import { asRecipeError } from './method-errors.js';
 import { renameDeprecated } from './renames.js';
-import { METHODS, RecipeSchema, type Recipe } from './schema.js';
+import { RecipeSchema, type Recipe } from './schema.js';
 
 export interface PinnedRecipe {
   id: string;
@@ -24,8 +25,9 @@ export function recipeIdFromHash(hash: string): string {
  * the same hash.
  */
 export function normalizeRecipe(input: unknown): PinnedRecipe {
-  const parsed = RecipeSchema.safeParse(renameDeprecated(input).input);
-  if (!parsed.success) throw fromZod(parsed.error);
+  const renamed = renameDeprecated(input).input;
+  const parsed = RecipeSchema.safeParse(renamed);
+  if (!parsed.success) throw fromZod(parsed.error, renamed);
   const recipe = parsed.data;
   try {
     methodOf(recipe).check(recipe);
@@ -36,14 +38,9 @@ export function normalizeRecipe(input: unknown): PinnedRecipe {
   return { id: recipeIdFromHash(hash), hash, recipe: deepFreeze(recipe) };
 }
 
-export function fromZod(error: z.ZodError): RecipeInputError {
-  const issue = error.issues[0]!;
-  const pointer = pointerOf(issue.path);
-  let message = issue.message;
-  if (issue.code === 'unrecognized_keys') {
-    message = `unknown setting${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${k}"`).join(', ')}; a misspelt setting is never replaced by a default`;
-  } else if (issue.code === 'invalid_union' && issue.path.length === 0) {
-    message = `method must be one of ${METHODS.map((m) => `"${m}"`).join(', ')}`;
-  }
-  return new RecipeInputError('invalid', message, pointer || '/');
+/** A recipe's first schema violation in words people can act on; `input` is the recipe as sent. */
+export function fromZod(error: z.ZodError, input?: unknown): RecipeInputError {
+  const { path, text } = explainIssue(error.issues[0]! as SchemaIssue, input);
+  const pointer = pointerOf(path);
+  return new RecipeInputError('invalid', `${pointer ? `${pointer.slice(1)} ` : ''}${text}`, pointer || '/');
 }

@@ -1,6 +1,6 @@
 import { methodOf } from '../methods/registry.js';
 import type { CostEstimate, DerivedSettings, RecipeLimits, SignalShape } from '../methods/fit.js';
-import { DEFAULT_RECIPE_LIMITS as DEFAULTS, overLimit } from '../methods/fit.js';
+import { DEFAULT_RECIPE_LIMITS as DEFAULTS, overLimit, unfit } from '../methods/fit.js';
 import { asRecipeError } from './method-errors.js';
 import type { Recipe } from './schema.js';
 
@@ -25,6 +25,7 @@ export function resolveRecipe<R extends Recipe>(recipe: R, hash: string, shape: 
   const bounds: RecipeLimits = { ...DEFAULTS, ...limits };
   try {
     const method = methodOf(recipe);
+    checkGapPolicy(recipe, shape, method.leavesOutSegments === true);
     const { derived, warnings } = method.fit(recipe, shape, bounds);
     const cost = method.cost(recipe, derived, shape);
     checkCost(cost, bounds);
@@ -32,6 +33,19 @@ export function resolveRecipe<R extends Recipe>(recipe: R, hash: string, shape: 
   } catch (error) {
     throw asRecipeError(error);
   }
+}
+
+/**
+ * Gaps as bad spans need something to leave out around them: Welch segments, or the epochs that
+ * epoching cuts. A whole-recording estimate (multitaper, periodogram, time–frequency) of an unepoched
+ * continuous signal would have to take the gap in.
+ */
+function checkGapPolicy(recipe: Recipe, shape: SignalShape, leavesOutSegments: boolean): void {
+  if (recipe.nonFinite !== 'bad-span' || recipe.epoching !== null || (shape.epochCount ?? 1) !== 1 || leavesOutSegments) return;
+  throw unfit(
+    `"nonFinite": "bad-span" leaves out what overlaps a gap, but ${recipe.method} on an unepoched recording uses it whole; add "epoching", or use welch, or "skip-epoch"`,
+    '/nonFinite',
+  );
 }
 
 function checkCost(cost: CostEstimate, limits: RecipeLimits): void {

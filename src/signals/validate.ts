@@ -8,12 +8,7 @@ export function checkSignalShape(
   where: { samplingRate: string; channels: string; samples: string },
 ): void {
   const { samplingRate, channels, epochCount, samplesPerEpoch } = shape;
-  if (!Number.isFinite(samplingRate) || samplingRate <= 0) {
-    throw new SignalInputError('sampling-rate', `samplingRate must be a positive number of Hz, got ${samplingRate}`, where.samplingRate);
-  }
-  if (samplingRate > limits.maxSamplingRate) {
-    throw new SignalInputError('sampling-rate', `samplingRate ${samplingRate} Hz is above this server's limit of ${limits.maxSamplingRate} Hz`, where.samplingRate);
-  }
+  checkSamplingRate(samplingRate, limits, where.samplingRate);
   if (channels.length === 0) throw new SignalInputError('channels', 'at least one channel name is required', where.channels);
   if (channels.length > limits.maxChannels) {
     throw new SignalInputError('limit', `${channels.length} channels exceed this server's limit of ${limits.maxChannels}`, where.channels);
@@ -35,5 +30,18 @@ export function checkSignalShape(
   const total = epochCount * channels.length * samplesPerEpoch;
   if (total > limits.maxSamples) {
     throw new SignalInputError('limit', `${total} samples exceed this server's limit of ${limits.maxSamples}`, where.samples);
+  }
+}
+
+/** Refuses a sampling rate that is not a positive number of Hz within the server's limits. */
+export function checkSamplingRate(samplingRate: number, limits: Pick<SignalLimits, 'minSamplingRate' | 'maxSamplingRate'>, pointer: string): void {
+  if (!Number.isFinite(samplingRate) || samplingRate <= 0) {
+    throw new SignalInputError('sampling-rate', `samplingRate must be a positive number of Hz, got ${samplingRate}`, pointer);
+  }
+  if (samplingRate > limits.maxSamplingRate) {
+    throw new SignalInputError('sampling-rate', `samplingRate ${samplingRate} Hz is above this server's limit of ${limits.maxSamplingRate} Hz`, pointer);
+  }
+  if (samplingRate < limits.minSamplingRate) {
+    throw new SignalInputError('sampling-rate', `samplingRate ${samplingRate} Hz is below this server's minimum of ${limits.minSamplingRate} Hz (MIN_SAMPLING_RATE); give the rate in Hz (samples per second)`, pointer);
   }
 }

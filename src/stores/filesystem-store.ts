@@ -17,7 +17,7 @@ export class FilesystemStore implements Store {
 
   private async init(): Promise<void> {
     this.ready ??= (async () => {
-      for (const dir of ['signals', 'recipes', 'records', 'jobs', 'job-index', 'attachments', 'tmp']) await mkdir(join(this.dataDir, dir), { recursive: true });
+      for (const dir of ['signals', 'recipes', 'records', 'jobs', 'job-index', 'studies', 'runs', 'upload-signals', 'attachments', 'tmp']) await mkdir(join(this.dataDir, dir), { recursive: true });
     })();
     return this.ready;
   }

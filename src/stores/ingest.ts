@@ -12,7 +12,7 @@ import { checkSignalShape } from '../signals/validate.js';
 import { withStorageReservation, type SignalMeta, type Store } from './store.js';
 
 export type IngestDescription =
-  | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; voltage?: boolean | undefined; nonFinite?: 'reject' | 'keep' | undefined }
+  | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; voltage?: boolean | undefined; nonFinite?: 'reject' | 'keep' | undefined; events?: SignalEvent[] | undefined }
   | { format: 'edf'; channels?: string[] | undefined; samplingRate?: number | undefined };
 
 export interface IngestOptions {
@@ -130,8 +130,10 @@ async function decodeFloat32File(input: FileHandle, size: number, out: string, d
   } finally {
     await output.close();
   }
+  // Events as a JSON upload has them: kept only when there are some, so the content hash is the same.
+  const events = d.events && d.events.length > 0 ? { events: d.events.map((ev) => ({ ...ev })) } : {};
   return {
-    description: { samplingRate: d.samplingRate, channels: [...d.channels], unit, epochCount: d.epochCount, samplesPerEpoch },
+    description: { samplingRate: d.samplingRate, channels: [...d.channels], unit, epochCount: d.epochCount, samplesPerEpoch, ...events },
     nonFinite,
     warnings: survey.warnings(unit),
     samplesSha256: hash.digest('hex'),

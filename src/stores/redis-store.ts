@@ -1,23 +1,30 @@
-import { mkdir, readFile, rm } from 'node:fs/promises';
+import { mkdir, open, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Redis } from 'ioredis';
 
-/** Redis strings hold at most 512 MiB. */
-const REDIS_VALUE_LIMIT = 512 * 1024 * 1024;
+/**
+ * Samples are stored in values of at most this many bytes. Redis runs one command at a time: a
+ * whole signal in one value held every client (job locks, stall checks, the queue) for the length
+ * of one write or read, 1.6 s for 61 MB on the shared test Redis; a chunk holds them for
+ * milliseconds. Chunks are written first with an expiry that the script storing the meta lifts, so
+ * a write interrupted half-way leaves nothing behind for long.
+ */
+export const SAMPLE_CHUNK_BYTES = 4 * 1024 * 1024;
+const PENDING_CHUNK_MS = 3_600_000;
 
-/** Stores a signal unless its meta exists, so that storing the same content twice counts it once. */
+/** Stores a signal unless its meta exists, so that storing the same content twice counts it once; makes its chunks permanent. */
 const PUT_SIGNAL = `
+for i = 4, #KEYS do redis.call('PERSIST', KEYS[i]) end
 if redis.call('SETNX', KEYS[1], ARGV[1]) == 0 then return 0 end
-redis.call('SET', KEYS[2], ARGV[2])
-redis.call('INCRBY', KEYS[3], ARGV[3])
-redis.call('INCR', KEYS[4])
+redis.call('INCRBY', KEYS[2], ARGV[2])
+redis.call('INCR', KEYS[3])
 return 1`;
 import { checkKey, signalFromParts, type Collection, type SignalMeta, type Store } from './store.js';
 
 /**
  * Signals and documents in Redis, for workers on machines without a shared disk. A signal's meta
- * and samples are written in one MULTI transaction, so no reader sees one without the other.
+ * is written after every chunk of its samples, so no reader sees the meta without the samples.
  */
 export class RedisStore implements Store {
   readonly kind = 'redis' as const;
@@ -37,28 +44,43 @@ export class RedisStore implements Store {
     return [this.prefix, ...parts].join(':');
   }
 
-  /** One atomic script: the meta is set only when absent, and only then are samples and usage written. */
-  async putSignal(meta: SignalMeta, samples: Uint8Array): Promise<void> {
+  private chunkKeys(id: string, bytes: number): string[] {
+    return Array.from({ length: Math.ceil(bytes / SAMPLE_CHUNK_BYTES) }, (_, n) => this.key('signal', id, 'samples', String(n)));
+  }
+
+  /** The chunks are written first (expiring), then one atomic script sets the meta, counts the usage and keeps the chunks. */
+  private async commitSignal(meta: SignalMeta, writeChunks: (keys: string[]) => Promise<void>): Promise<void> {
     const id = checkKey(meta.id);
-    await this.redis.eval(
-      PUT_SIGNAL,
-      4,
-      this.key('signal', id, 'meta'),
-      this.key('signal', id, 'samples'),
-      this.key('usage', 'bytes'),
-      this.key('usage', 'signals'),
-      JSON.stringify(meta),
-      Buffer.from(samples.buffer, samples.byteOffset, samples.byteLength),
-      meta.bytes,
-    );
+    const chunks = this.chunkKeys(id, meta.bytes);
+    await writeChunks(chunks);
+    await this.redis.eval(PUT_SIGNAL, 3 + chunks.length, this.key('signal', id, 'meta'), this.key('usage', 'bytes'), this.key('usage', 'signals'), ...chunks, JSON.stringify(meta), meta.bytes);
+  }
+
+  async putSignal(meta: SignalMeta, samples: Uint8Array): Promise<void> {
+    await this.commitSignal(meta, async (keys) => {
+      for (const [n, key] of keys.entries()) {
+        const start = samples.byteOffset + n * SAMPLE_CHUNK_BYTES;
+        const end = Math.min(samples.byteOffset + samples.byteLength, start + SAMPLE_CHUNK_BYTES);
+        await this.redis.set(key, Buffer.from(samples.buffer, start, end - start), 'PX', PENDING_CHUNK_MS);
+      }
+    });
   }
 
   async putSignalFile(meta: SignalMeta, path: string): Promise<void> {
     try {
-      if (meta.bytes > REDIS_VALUE_LIMIT) {
-        throw new RangeError(`a signal of ${meta.bytes} bytes exceeds what one Redis value can hold (${REDIS_VALUE_LIMIT}); use STORE=filesystem on a shared disk for recordings this large`);
+      const file = await open(path, 'r');
+      try {
+        await this.commitSignal(meta, async (keys) => {
+          for (const [n, key] of keys.entries()) {
+            const chunk = Buffer.alloc(Math.min(SAMPLE_CHUNK_BYTES, meta.bytes - n * SAMPLE_CHUNK_BYTES));
+            const { bytesRead } = await file.read(chunk, 0, chunk.length, n * SAMPLE_CHUNK_BYTES);
+            if (bytesRead !== chunk.length) throw new Error(`samples file ${path} ended after ${n * SAMPLE_CHUNK_BYTES + bytesRead} of ${meta.bytes} bytes`);
+            await this.redis.set(key, chunk, 'PX', PENDING_CHUNK_MS);
+          }
+        });
+      } finally {
+        await file.close();
       }
-      await this.putSignal(meta, await readFile(path));
     } finally {
       await rm(path, { force: true });
     }
@@ -92,7 +114,8 @@ export class RedisStore implements Store {
     if (!meta) return false;
     const [[, removed]] = (await this.redis
       .multi()
-      .del(this.key('signal', id, 'meta'), this.key('signal', id, 'samples'))
+      // 'samples' is the single value signals were stored in before chunks.
+      .del(this.key('signal', id, 'meta'), this.key('signal', id, 'samples'), ...this.chunkKeys(id, meta.bytes))
       .decrby(this.key('usage', 'bytes'), meta.bytes)
       .decr(this.key('usage', 'signals'))
       .exec()) as [[unknown, number]];
@@ -125,13 +148,17 @@ export class RedisStore implements Store {
   }
 
   async getSignal(id: string) {
-    const [[, metaText], [, samples]] = (await this.redis
-      .multi()
-      .get(this.key('signal', checkKey(id), 'meta'))
-      .getBuffer(this.key('signal', id, 'samples'))
-      .exec()) as [[unknown, string | null], [unknown, Buffer | null]];
-    if (metaText === null || samples === null) return null;
-    const meta = JSON.parse(metaText) as SignalMeta;
+    const meta = await this.getSignalMeta(id);
+    if (meta === null) return null;
+    // Signals stored before chunks hold their samples in one value.
+    const whole = await this.redis.getBuffer(this.key('signal', id, 'samples'));
+    if (whole !== null) return { meta, signal: signalFromParts(meta, whole) };
+    const samples = new Uint8Array(new ArrayBuffer(meta.bytes));
+    for (const [n, key] of this.chunkKeys(id, meta.bytes).entries()) {
+      const chunk = await this.redis.getBuffer(key);
+      if (chunk === null) return null; // deleted while it was read
+      samples.set(chunk, n * SAMPLE_CHUNK_BYTES);
+    }
     return { meta, signal: signalFromParts(meta, samples) };
   }
 

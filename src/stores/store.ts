@@ -16,7 +16,7 @@ export interface SignalMeta extends SignalDescription {
   storedAt: string;
 }
 
-export type Collection = 'recipes' | 'records' | 'jobs' | 'job-index';
+export type Collection = 'recipes' | 'records' | 'jobs' | 'job-index' | 'studies' | 'runs' | 'upload-signals';
 
 /**
  * Content-addressed storage for signals and JSON documents. Every write is atomic: a reader sees
@@ -89,22 +89,46 @@ export class StorageFullError extends DomainError {
 
 const reserved = new WeakMap<Store, number>();
 
+/** Bytes held against the store limit until released (idempotent). */
+export interface Reservation {
+  readonly bytes: number;
+  release(): void;
+}
+
 /**
- * Runs `write` with `bytes` reserved against `limit` (0 = none). The check and the reservation
- * happen together after the usage is read, so concurrent uploads in one process cannot overshoot
- * the limit together; a reservation is released only after the write, so the count errs on the
- * safe side while a write lands.
+ * Reserves `bytes` against `limit` (0 = none, and the bytes are still counted for others). The
+ * check and the reservation happen together after the usage is read, so concurrent writes in one
+ * process cannot overshoot the limit together.
+ */
+export async function reserveStorage(store: Store, bytes: number, limit: number): Promise<Reservation> {
+  if (limit > 0) {
+    const { bytes: used } = await store.usage();
+    const pending = reserved.get(store) ?? 0;
+    if (used + pending + bytes > limit) throw new StorageFullError(bytes, used + pending, limit);
+  }
+  reserved.set(store, (reserved.get(store) ?? 0) + bytes);
+  let held = true;
+  return {
+    bytes,
+    release() {
+      if (!held) return;
+      held = false;
+      reserved.set(store, (reserved.get(store) ?? bytes) - bytes);
+    },
+  };
+}
+
+/**
+ * Runs `write` with `bytes` reserved against `limit` (0 = none). A reservation is released only
+ * after the write, so the count errs on the safe side while a write lands.
  */
 export async function withStorageReservation<T>(store: Store, bytes: number, limit: number, write: () => Promise<T>): Promise<T> {
   if (limit <= 0) return write();
-  const { bytes: used } = await store.usage();
-  const pending = reserved.get(store) ?? 0;
-  if (used + pending + bytes > limit) throw new StorageFullError(bytes, used + pending, limit);
-  reserved.set(store, pending + bytes);
+  const reservation = await reserveStorage(store, bytes, limit);
   try {
     return await write();
   } finally {
-    reserved.set(store, (reserved.get(store) ?? bytes) - bytes);
+    reservation.release();
   }
 }
 

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { redisForTests } from '../helpers/redis.js';
-import { freePort, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, OwnRedis, pollJobHttp, ServiceProcess, startDistributed, until, uploadFloat32, type Distributed } from './helpers.js';
+import { freePort, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, OwnRedis, pollJobHttp, serveEmbedded, ServiceProcess, startDistributed, until, uploadFloat32, type Distributed } from './helpers.js';
 
 const withRedis = await redisForTests();
 const { channels, seconds, samplingRate } = LONG_SIGNAL;
@@ -39,13 +39,7 @@ describe('when the embedded server gets SIGTERM while a job runs', () => {
     await rm(dataDir, { recursive: true, force: true });
   });
 
-  async function serve(): Promise<{ child: ServiceProcess; base: string }> {
-    const port = await freePort();
-    const child = new ServiceProcess('serve', { DATA_DIR: dataDir, PORT: String(port), HOST: '127.0.0.1', RATE_LIMIT_PER_MINUTE: '0' });
-    children.push(child);
-    await child.waitForLog('rhythmetric serving', 20_000);
-    return { child, base: `http://127.0.0.1:${port}` };
-  }
+  const serve = () => serveEmbedded(dataDir, children);
 
   it('should exit 0 promptly and resume the job from DATA_DIR after a restart', async () => {
     const first = await serve();

@@ -108,6 +108,18 @@ export class ServiceProcess {
   }
 }
 
+/**
+ * An embedded-mode `rhythmetric serve` child on `dataDir` and a free loopback port, pushed onto
+ * `children` (for afterAll); resolves once it serves.
+ */
+export async function serveEmbedded(dataDir: string, children: ServiceProcess[], env: Record<string, string> = {}): Promise<{ child: ServiceProcess; base: string }> {
+  const port = await freePort();
+  const child = new ServiceProcess('serve', { DATA_DIR: dataDir, PORT: String(port), HOST: '127.0.0.1', RATE_LIMIT_PER_MINUTE: '0', ...env });
+  children.push(child);
+  await child.waitForLog('rhythmetric serving', 20_000);
+  return { child, base: `http://127.0.0.1:${port}` };
+}
+
 export function startWorkerProcess(env: Record<string, string>): ServiceProcess {
   return new ServiceProcess('worker', env);
 }
@@ -129,6 +141,23 @@ export async function busiest(processes: readonly ServiceProcess[], windowMs = 8
   const ticks = after.map((a, i) => a - before[i]!);
   const best = ticks.indexOf(Math.max(...ticks));
   return { process: live[best]!, ticks };
+}
+
+/**
+ * The process computing a job, once it is clearly computing: a job is "running" as soon as a worker
+ * takes it, but the worker then loads the signal (a 19 MB GET took 0.8 s on the shared test Redis)
+ * before its thread burns CPU, so a single sample taken at once can find every process idle.
+ */
+export async function computing(processes: readonly ServiceProcess[], timeoutMs = 20_000): Promise<{ process: ServiceProcess; ticks: number[] }> {
+  return until(
+    'a process to compute',
+    async () => {
+      const sample = await busiest(processes);
+      return Math.max(...sample.ticks) > 3 * Math.min(...sample.ticks) + 5 ? sample : undefined;
+    },
+    timeoutMs,
+    0,
+  );
 }
 
 /** A redis-server of the test's own on a free loopback port, with AOF in its own directory. */

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { RedisStore } from '../../src/stores/redis-store.js';
 import { redisForTests, TEST_REDIS_URL } from '../helpers/redis.js';
-import { busiest, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, startDistributed, until, uploadFloat32, type Distributed } from './helpers.js';
+import { computing, http, LONG_RECIPE, LONG_SIGNAL, noiseFloat32, startDistributed, until, uploadFloat32, type Distributed } from './helpers.js';
 
 const withRedis = await redisForTests();
 const { channels, seconds, samplingRate } = LONG_SIGNAL;
@@ -43,7 +43,7 @@ describe.skipIf(!withRedis)('when a job kills every worker that picks it up', ()
         100,
       );
       if (job.state !== 'running') break;
-      const { process: holder } = await busiest(workers);
+      const { process: holder } = await computing(workers);
       holder.kill('SIGKILL');
       await holder.exited;
       kills++;

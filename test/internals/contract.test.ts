@@ -34,7 +34,7 @@ describe('when the contract documents change', () => {
       for (const name of readdirSync(dir)) {
         const path = join(dir, name);
         if (statSync(path).isDirectory()) walk(path);
-        else if (path.endsWith('.ts')) for (const m of readFileSync(path, 'utf8').matchAll(/(?:ProblemError|problemType)\(\s*'([a-z-]+)'/g)) used.add(m[1]!);
+        else if (path.endsWith('.ts')) for (const m of readFileSync(path, 'utf8').matchAll(/(?:ProblemError|DomainError|problemType)\(\s*'([a-z-]+)'/g)) used.add(m[1]!);
       }
     };
     walk(join(root, 'src'));

@@ -50,3 +50,46 @@ describe('when the embedded queue closes while a job-state write is under way', 
     expect(stored.view).toMatchObject({ state: 'running', attempts: 1 });
   });
 });
+
+describe('when the embedded queue restarts with a job that was running', () => {
+  async function runningThen(dataDir: string, end: (queue: EmbeddedQueue) => Promise<void>, maxAttempts: number) {
+    const store = new FilesystemStore(dataDir);
+    const queue = await EmbeddedQueue.open({ store, storeConfig: { kind: 'filesystem', dataDir }, pool: idlePool, maxAttempts });
+    const { job } = await queue.submit(spec, 'job_restart');
+    for (let i = 0; i < 100 && (await queue.get(job.id))?.state !== 'running'; i++) await new Promise((r) => setTimeout(r, 5));
+    // Let the durable "running" write land, as the computation would have begun by then.
+    await new Promise((r) => setTimeout(r, 50));
+    await end(queue);
+    return job.id;
+  }
+
+  it('should fail the job without starting it when the process died during its last attempt', async () => {
+    const dataDir = await mkdtemp(join(tmpdir(), 'rhythmetric-crash-'));
+    dirs.push(dataDir);
+    // A process that dies runs no close(): abandoning the queue object is what the disk sees.
+    const id = await runningThen(dataDir, async () => {}, 1);
+    let starts = 0;
+    const countingPool: ComputePool = { ...idlePool, run: (...args) => (starts++, idlePool.run(...args)) };
+    const store = new FilesystemStore(dataDir);
+    const reopened = await EmbeddedQueue.open({ store, storeConfig: { kind: 'filesystem', dataDir }, pool: countingPool, maxAttempts: 1 });
+    const job = await reopened.get(id);
+    expect(job).toMatchObject({ state: 'failed', attempts: 1 });
+    expect(job?.problem?.detail).toMatch(/took the process down 1 time\(s\)/);
+    expect(starts).toBe(0);
+    await reopened.close();
+  });
+
+  it('should not count a graceful shutdown as a crash, however often it happens', async () => {
+    const dataDir = await mkdtemp(join(tmpdir(), 'rhythmetric-shutdown-'));
+    dirs.push(dataDir);
+    const id = await runningThen(dataDir, (queue) => queue.close(), 1);
+    for (let restart = 0; restart < 3; restart++) {
+      const store = new FilesystemStore(dataDir);
+      const queue = await EmbeddedQueue.open({ store, storeConfig: { kind: 'filesystem', dataDir }, pool: idlePool, maxAttempts: 1 });
+      for (let i = 0; i < 100 && (await queue.get(id))?.state !== 'running'; i++) await new Promise((r) => setTimeout(r, 5));
+      expect((await queue.get(id))?.state).toBe('running');
+      await new Promise((r) => setTimeout(r, 50));
+      await queue.close();
+    }
+  });
+});

@@ -9,7 +9,8 @@ import { startBullWorker } from '../../src/jobs/bullmq-worker.js';
 import { createComputePool, type ComputePool } from '../../src/jobs/compute-pool.js';
 import { EmbeddedQueue } from '../../src/jobs/embedded-queue.js';
 import type { JobQueue } from '../../src/jobs/queue.js';
-import { jobIdOf, recordKeyOf, type JobSpec } from '../../src/jobs/spec.js';
+import type { JobListFilter } from '../../src/jobs/list.js';
+import { jobIdOf, recordKeyOf, type JobSpec, type JobView } from '../../src/jobs/spec.js';
 import { normalizeRecipe } from '../../src/recipes/normalize.js';
 import type { Signal } from '../../src/signals/signal.js';
 import { FilesystemStore } from '../../src/stores/filesystem-store.js';
@@ -31,11 +32,14 @@ function noise(channels: number, samples: number, seed: number, epochs = 1): Sig
   return { samplingRate: 500, channels: Array.from({ length: channels }, (_, i) => `E${i + 1}`), unit: 'uV', epochCount: epochs, samplesPerEpoch: samples, data };
 }
 
-async function specFor(store: Store, signal: Signal, recipe: unknown): Promise<{ spec: JobSpec; id: string }> {
-  const meta = await storeSignal(store, signal, 'public');
+async function specFor(store: Store, signal: Signal, recipe: unknown, tenant = 'public', labels?: Record<string, string>): Promise<{ spec: JobSpec; id: string }> {
+  const meta = await storeSignal(store, signal, tenant);
   const pinned = normalizeRecipe(recipe);
-  const recordKey = recordKeyOf('public', meta.sha256, pinned.hash);
-  return { id: jobIdOf(recordKey), spec: { tenant: 'public', signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey } };
+  const recordKey = recordKeyOf(tenant, meta.sha256, pinned.hash);
+  return {
+    id: jobIdOf(recordKey),
+    spec: { tenant, signalId: meta.id, sha256: meta.sha256, recipeId: pinned.id, recipeHash: pinned.hash, recipe: pinned.recipe, recordKey, ...(labels ? { labels } : {}) },
+  };
 }
 
 const adapters: [string, boolean, () => Promise<Harness>][] = [
@@ -155,6 +159,39 @@ describe.each(adapters)('queue adapter %s', (name, enabled, create) => {
     const canceled = await h.queue.cancel(big.id);
     expect(canceled?.state, JSON.stringify(canceled?.problem)).toBe('canceled');
     expect(await h.store.getDocument('records', big.spec.recordKey)).toBeNull();
+  });
+
+  it.skipIf(!enabled)('should list by state, method, study and creation window, newest first, and continue after a position', async () => {
+    const tenant = `lister-${name}`;
+    const submitted: JobView[] = [];
+    const add = async (spec: JobSpec, id: string) => {
+      // Creation times are in milliseconds: keep them distinct so that the expected order is the submission order.
+      await new Promise((r) => setTimeout(r, 3));
+      submitted.push((await h.queue.submit(spec, id)).job);
+    };
+    const a = await specFor(h.store, noise(1, 1000, 31), { method: 'welch', segmentSeconds: 1 }, tenant, { study: 's1' });
+    const b = await specFor(h.store, noise(1, 1000, 32), { method: 'periodogram' }, tenant, { study: 's1', condition: 'late' });
+    const c = await specFor(h.store, noise(1, 1000, 33), { method: 'welch', segmentSeconds: 1 }, tenant, { study: 's2' });
+    const broken = { ...c.spec, signalId: 'sig_eeeeeeeeeeeeeeeeeeeeeeeeeeeeeeee', recordKey: `${c.spec.recordKey}.broken` };
+    for (const { spec, id } of [a, b, c, { spec: broken, id: jobIdOf(broken.recordKey) }]) await add(spec, id);
+    for (const job of submitted) await h.queue.waitFor(job.id, 20_000);
+    const [ja, jb, jc, jd] = submitted.map((j) => j.id);
+    const ids = async (filter: Partial<JobListFilter>) => (await h.queue.list({ tenant, limit: 100, ...filter })).map((j) => j.id);
+
+    const all = await h.queue.list({ tenant, limit: 100 });
+    expect(all.map((j) => j.id)).toEqual([jd, jc, jb, ja]);
+    expect(all.map((j) => j.method)).toEqual(['welch', 'welch', 'periodogram', 'welch']);
+    expect(all[2]!.labels).toEqual({ study: 's1', condition: 'late' });
+    expect(await ids({ method: 'periodogram' })).toEqual([jb]);
+    expect(await ids({ study: 's1' })).toEqual([jb, ja]);
+    expect(await ids({ states: ['failed'] })).toEqual([jd]);
+    expect(await ids({ states: ['succeeded', 'canceled'] })).toEqual([jc, jb, ja]);
+    expect(await ids({ createdAfter: all[2]!.createdAt })).toEqual([jd, jc]);
+    expect(await ids({ createdBefore: all[2]!.createdAt })).toEqual([ja]);
+    expect(await ids({ after: all[1]! })).toEqual([jb, ja]);
+    expect(await ids({ limit: 2 })).toEqual([jd, jc]);
+    // Another tenant's jobs never show.
+    expect(await ids({ tenant: 'nobody' })).toEqual([]);
   });
 
   it.skipIf(!enabled)('should answer null for an unknown job and report ready', async () => {

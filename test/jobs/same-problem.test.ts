@@ -74,6 +74,21 @@ describe('when the same bad input reaches the embedded queue as a job planned wi
     return api.queue.waitFor(id, 20_000);
   }
 
+  it('should give a planned job (recipe resolved once, with the limits) and an earlier version\'s job the same record', async () => {
+    const recipe = { method: 'welch', segmentSeconds: 0.5 };
+    const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal: signalId, recipe } });
+    expect(res.statusCode).toBe(202);
+    const planned = await api.queue.waitFor((res.json() as { id: string }).id, 20_000);
+    expect(planned.state).toBe('succeeded');
+    const record = (await api.store.getDocument('records', planned.recordKey))!;
+    await api.store.deleteDocument('records', planned.recordKey);
+    await api.queue.remove(planned.id);
+    const unchecked = await runUnchecked(recipe, null);
+    expect(unchecked.state).toBe('succeeded');
+    expect(unchecked.resultHash).toBe(planned.resultHash);
+    expect(JSON.parse((await api.store.getDocument('records', unchecked.recordKey))!).result).toEqual(JSON.parse(record).result);
+  });
+
   it.each([
     ['a segment longer than the epoch', { method: 'welch', segmentSeconds: 4 }, null],
     ['a time window outside the signal', { method: 'welch', segmentSeconds: 0.5 }, { start: 30 }],

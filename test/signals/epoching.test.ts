@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { eventLockedEpochs, fixedLengthEpochs, type ContinuousData } from '../../src/signals/epoching.js';
+import { blockEpochs, eventLockedEpochs, fixedLengthEpochs, type ContinuousData } from '../../src/signals/epoching.js';
 
 // Hand-derived cases. Data: 2 channels at 10 Hz, 50 samples (5 s). Channel 0 is the ramp x[k] = k;
 // channel 1 is 0 except a 500-unit spike at sample 31. Every expected value below follows from
@@ -126,6 +126,55 @@ describe('when cutting event-locked epochs', () => {
   });
 });
 
+describe('when cutting fixed-length epochs inside labelled blocks', () => {
+  // Block [0.5, 2.7) s = samples [5, 27): 1-s epochs every 0.5 s start at 5, 10, 15; one at 20 would end at 30 > 27.
+  // Block [3.0, 4.9) s = samples [30, 49): epochs at 30 and 35; one at 40 would end at 50 > 49.
+  const blocks = [
+    { onset: 0.5, duration: 2.2, label: 'eyes-open' },
+    { onset: 3.0, duration: 1.9, label: 'eyes-closed' },
+  ];
+
+  it('should tile each block from its onset, never past its end, each epoch with its block label', () => {
+    const r = blockEpochs(input(), blocks, { lengthSeconds: 1, stepSeconds: 0.5 });
+    expect(r.kept.map((d) => [d.startSample, d.label, d.source])).toEqual([
+      [5, 'eyes-open', 0],
+      [10, 'eyes-open', 0],
+      [15, 'eyes-open', 0],
+      [30, 'eyes-closed', 1],
+      [35, 'eyes-closed', 1],
+    ]);
+    expect(r.kept.map((d) => d.startSeconds)).toEqual([0.5, 1, 1.5, 3, 3.5]);
+    expect(r.dropped).toEqual([]);
+    expect(epoch(r, 3, 0)).toEqual(ramp(30, 10));
+  });
+
+  it('should not overlap epochs by default (step = length)', () => {
+    const r = blockEpochs(input(), blocks, { lengthSeconds: 1 });
+    expect(r.kept.map((d) => d.startSample)).toEqual([5, 15, 30]);
+  });
+
+  it('should drop by amplitude inside a block: the spike at sample 31 falls in the epoch at 30, not in the one at 35', () => {
+    const r = blockEpochs(input(), blocks, { lengthSeconds: 1, stepSeconds: 0.5, peakToPeakThreshold: 100 });
+    expect(r.kept.map((d) => d.startSample)).toEqual([5, 10, 15, 35]);
+    expect(r.dropped).toMatchObject([{ startSample: 30, label: 'eyes-closed', reason: 'amplitude', channel: 1, value: 500 }]);
+  });
+
+  it('should drop epochs of a block that runs past the data as out of bounds', () => {
+    // Block [4, 6) s = samples [40, 60) of 50: epochs at 40, 45 and 50 tile the block; only the one at 40 fits the data.
+    const r = blockEpochs(input(), [{ onset: 4, duration: 2, label: 'late' }], { lengthSeconds: 1, stepSeconds: 0.5 });
+    expect(r.kept.map((d) => d.startSample)).toEqual([40]);
+    expect(r.dropped).toMatchObject([
+      { startSample: 45, label: 'late', reason: 'out-of-bounds' },
+      { startSample: 50, label: 'late', reason: 'out-of-bounds' },
+    ]);
+  });
+
+  it('should cut nothing in a block shorter than one epoch', () => {
+    const r = blockEpochs(input(), [{ onset: 1, duration: 0.9, label: 'short' }], { lengthSeconds: 1 });
+    expect([r.epochCount, r.dropped.length]).toEqual([0, 0]);
+  });
+});
+
 describe('when the epoching input is wrong', () => {
   it.each([
     ['a zero length', () => fixedLengthEpochs(input(), { lengthSeconds: 0 }), /lengthSeconds/],
@@ -139,6 +188,9 @@ describe('when the epoching input is wrong', () => {
     ['a zero sampling rate', () => fixedLengthEpochs({ ...input(), samplingRate: 0 }, { lengthSeconds: 1 }), /samplingRate/],
     ['a NaN onset', () => eventLockedEpochs(input(), [{ onset: Number.NaN, label: 'x' }], { beforeSeconds: 0, afterSeconds: 1 }), /events\[0\]\.onset/],
     ['an empty window', () => eventLockedEpochs(input(), [], { beforeSeconds: 0.2, afterSeconds: -0.2 }), /at least one sample/],
+    ['a block with a negative duration', () => blockEpochs(input(), [{ onset: 1, duration: -1, label: 'x' }], { lengthSeconds: 1 }), /blocks\[0\]\.duration/],
+    ['a block with a NaN onset', () => blockEpochs(input(), [{ onset: Number.NaN, duration: 1, label: 'x' }], { lengthSeconds: 1 }), /blocks\[0\]\.onset/],
+    ['a zero block epoch length', () => blockEpochs(input(), [], { lengthSeconds: 0 }), /lengthSeconds/],
   ])('should refuse %s, naming the parameter', (_, run, message) => {
     expect(run).toThrow(message);
   });

@@ -1,9 +1,13 @@
+import type { FastifyRequest } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import type { JobView } from '../../jobs/spec.js';
+import { decodeCursor, encodeCursor, type JobListFilter } from '../../jobs/list.js';
+import { JOB_STATES, type JobView } from '../../jobs/spec.js';
+import { METHODS } from '../../recipes/schema.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
 import type { SignalView } from '../../signals/view.js';
 import type { AppDeps } from '../app.js';
 import { ProblemError } from '../problem.js';
+import { requireJob as findJob, unavailable } from '../job-access.js';
 import { importSignal } from '../imports.js';
 import { locatedUnder } from '../../common/errors.js';
 import { getRecipe, pinRecipe, planJob } from '../../jobs/plan.js';
@@ -13,41 +17,75 @@ import { getSignalMeta, storeSignal } from '../../stores/signals.js';
 import type { SignalMeta } from '../../stores/store.js';
 import { FeatureRecordSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse, type JobRequest } from '../schemas.js';
 import { zodValidator } from '../validation.js';
+import { presentJob } from './present.js';
 import { tenantOf } from '../auth.js';
 import { z } from 'zod';
 
-/** A queue fault becomes 503 with Retry-After, never a 500 that hides a transient outage. */
-function unavailable(error: unknown, what = 'try again shortly'): ProblemError {
-  const reason = error instanceof Error ? error.message : String(error);
-  return new ProblemError('queue-unavailable', `the job queue cannot be reached (${reason}); ${what}`, null, { 'retry-after': '5' });
+/** The same list URL with the cursor replaced. */
+function nextPageUrl(url: string, cursor: string): string {
+  const parsed = new URL(url, 'http://localhost');
+  parsed.searchParams.set('cursor', cursor);
+  return `${parsed.pathname}${parsed.search}`;
 }
 
-function present(job: JobView) {
-  const { recordKey: _key, ...rest } = job;
-  return { ...rest, links: { self: `/v1/jobs/${job.id}`, record: `/v1/jobs/${job.id}/record` } };
-}
+/** An ISO 8601 instant, normalized to the form job times are stored in so that they compare as strings. */
+const Instant = z.iso
+  .datetime({ offset: true })
+  .transform((s) => new Date(s).toISOString())
+  .describe('ISO 8601 date-time, e.g. 2026-12-01T00:00:00Z');
+
+const JobListQuery = z.strictObject({
+  limit: z.coerce.number().int().min(1).max(1000).default(100),
+  cursor: z.string().min(1).max(512).optional().describe('nextCursor of the previous page'),
+  state: z
+    .string()
+    .transform((s) => s.split(',').map((part) => part.trim()))
+    .pipe(z.array(z.enum(JOB_STATES)))
+    .optional()
+    .describe('one state or several, comma-separated (queued,running)'),
+  method: z.enum(METHODS).optional(),
+  study: z.string().min(1).max(256).optional().describe('jobs whose "study" label is this'),
+  createdAfter: Instant.optional().describe('only jobs created strictly after this ISO 8601 date-time'),
+  createdBefore: Instant.optional().describe('only jobs created strictly before this ISO 8601 date-time'),
+  signal: z.string().optional().describe('only jobs on this signal'),
+  tenant: z.literal('all').optional().describe('admin only: every tenant'),
+});
+
 
 export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
   const { store, queue, config } = deps;
 
-  async function requireJob(id: string, tenant: string): Promise<JobView> {
-    let job: JobView | null = null;
-    if (/^job_[0-9a-f]{32}$/.test(id)) {
-      try {
-        job = await queue.get(id);
-      } catch (error) {
-        throw unavailable(error);
-      }
+  const requireJob = (id: string, tenant: string): Promise<JobView> => findJob(queue, id, tenant);
+
+  /**
+   * The record key of the request's job once it has succeeded. While the queue is down, a record
+   * that is already stored (or, with STORE=redis, cached by this API) is still served.
+   */
+  async function succeededRecordKey(request: FastifyRequest<{ Params: { id: string } }>, notReady: string): Promise<string> {
+    const tenant = tenantOf(request);
+    try {
+      const job = await requireJob(request.params.id, tenant);
+      if (job.state !== 'succeeded') throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}${job.problem ? `: ${job.problem.detail}` : ''}; ${notReady}`);
+      return job.recordKey;
+    } catch (error) {
+      const fallback = error instanceof ProblemError && error.code === 'queue-unavailable' ? await indexedRecordKey(store, request.params.id, tenant) : null;
+      if (!fallback) throw error;
+      request.log.info({ jobId: request.params.id }, 'record served from the store while the queue is unavailable');
+      return fallback;
     }
-    // Another tenant's job answers exactly like a missing one.
-    if (!job || job.tenant !== tenant) throw new ProblemError('job-not-found', `no job with id "${id}"`);
-    return job;
   }
 
   app.post(
     '/v1/jobs',
     {
-      config: { access: 'submit' },
+      config: {
+        access: 'submit',
+        unionForms: {
+          '/signal':
+            'a stored signal id (string), a reference {signal, start?, end?, channels?, badSpans?}, an import {file or url, format?, …} or an upload {samplingRate, channels, data or epochs}',
+          '/recipe': 'a pinned recipe id (string) or a recipe object with a "method"',
+        },
+      },
       schema: {
         summary: 'Submit an analysis',
         description:
@@ -67,7 +105,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       validatorCompiler: zodValidator({ body: JobRequestEnvelope }, { parsedBody: true }),
     },
     async (request, reply) => {
-      const { signal, recipe } = request.body as unknown as JobRequest;
+      const { signal, recipe, labels } = request.body as unknown as JobRequest;
       const tenant = tenantOf(request);
       let view: SignalView | null = null;
       let meta: SignalMeta;
@@ -88,7 +126,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       }
       const pinned = typeof recipe === 'string' ? await getRecipe(store, recipe, '/recipe') : await locatedUnder('/recipe', () => pinRecipe(store, recipe));
       if (typeof recipe !== 'string') warnDeprecated(reply, recipe, '/recipe');
-      const { jobId, spec } = planJob(config.recipeLimits, meta, pinned, view);
+      const { jobId, spec } = planJob(config.recipeLimits, meta, pinned, view, labels);
       let submitted;
       try {
         submitted = await queue.submit(spec, jobId);
@@ -100,7 +138,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       if (submitted.created) await indexJob(store, queue, jobId, spec);
       request.log.info({ jobId, created: submitted.created, signalId: meta.id, recipeId: pinned.id }, 'job submitted');
       const status = !submitted.created && submitted.job.state === 'succeeded' ? 200 : 202;
-      return reply.code(status).header('location', `/v1/jobs/${jobId}`).send(present(submitted.job));
+      return reply.code(status).header('location', `/v1/jobs/${jobId}`).send(presentJob(submitted.job));
     },
   );
 
@@ -109,7 +147,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     {
       schema: { summary: 'Job state and progress', tags: ['jobs'], params: IdParams, response: { 200: JobViewSchema, 404: problemResponse('unknown job') } },
     },
-    async (request) => present(await requireJob(request.params.id, tenantOf(request))),
+    async (request) => presentJob(await requireJob(request.params.id, tenantOf(request))),
   );
 
   app.get(
@@ -117,24 +155,51 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     {
       schema: {
         summary: "List jobs, newest first (the caller's tenant; admin keys may ask for every tenant)",
+        description:
+          'Cursor paging: pass `nextCursor` of one page as `cursor` to get the next; the cursor is opaque. Filters combine with AND. Each job carries its method and labels, so a dashboard needs no lookup per job.',
         tags: ['jobs'],
-        querystring: z.strictObject({
-          limit: z.coerce.number().int().min(1).max(1000).default(100),
-          signal: z.string().optional().describe('only jobs on this signal'),
-          tenant: z.literal('all').optional().describe('admin only: every tenant'),
-        }),
-        response: { 200: z.object({ jobs: z.array(JobViewSchema) }), 403: problemResponse('tenant=all needs an admin key') },
+        querystring: JobListQuery,
+        response: {
+          200: z.object({
+            jobs: z.array(JobViewSchema),
+            nextCursor: z.string().nullable().describe('pass as `cursor` for the next page; null on the last page'),
+            links: z.object({ next: z.string().nullable() }),
+          }),
+          400: problemResponse('a malformed filter or cursor'),
+          403: problemResponse('tenant=all needs an admin key'),
+          503: problemResponse('the queue is unavailable; retry after Retry-After seconds'),
+        },
       },
     },
     async (request) => {
-      const all = request.query.tenant === 'all';
+      const query = request.query;
+      const all = query.tenant === 'all';
       if (all && request.principal?.role !== 'admin') throw new ProblemError('forbidden', 'listing every tenant\'s jobs needs an admin key');
+      const after = query.cursor === undefined ? undefined : (decodeCursor(query.cursor) ?? undefined);
+      if (query.cursor !== undefined && !after) {
+        throw new ProblemError('invalid-request', 'query parameter /query/cursor: not a cursor this service issued; pass nextCursor from a previous page unchanged', '/query/cursor');
+      }
+      const filter: JobListFilter = {
+        tenant: all ? null : tenantOf(request),
+        limit: query.limit + 1,
+        ...(query.signal !== undefined ? { signal: query.signal } : {}),
+        ...(query.state !== undefined ? { states: query.state } : {}),
+        ...(query.method !== undefined ? { method: query.method } : {}),
+        ...(query.study !== undefined ? { study: query.study } : {}),
+        ...(query.createdAfter !== undefined ? { createdAfter: query.createdAfter } : {}),
+        ...(query.createdBefore !== undefined ? { createdBefore: query.createdBefore } : {}),
+        ...(after ? { after } : {}),
+      };
+      let jobs: JobView[];
       try {
-        const jobs = await queue.list({ tenant: all ? null : tenantOf(request), limit: request.query.limit, ...(request.query.signal ? { signal: request.query.signal } : {}) });
-        return { jobs: jobs.map(present) };
+        jobs = await queue.list(filter);
       } catch (error) {
         throw unavailable(error);
       }
+      const page = jobs.slice(0, query.limit);
+      const last = page.at(-1);
+      const nextCursor = jobs.length > query.limit && last ? encodeCursor(last) : null;
+      return { jobs: page.map(presentJob), nextCursor, links: { next: nextCursor === null ? null : nextPageUrl(request.url, nextCursor) } };
     },
   );
 
@@ -154,7 +219,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       if (job.state === 'succeeded' || job.state === 'failed') {
         throw new ProblemError('job-finished', `job ${job.id} already ${job.state}; only queued or running jobs can be canceled`);
       }
-      return present((await queue.cancel(job.id)) ?? job);
+      return presentJob((await queue.cancel(job.id)) ?? job);
     },
   );
 
@@ -166,17 +231,24 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
         description: 'Little-endian float64 (or uint8 for masks), row-major with the shape in the x-rhythmetric-shape header (e.g. "200,40" for times × frequencies).',
         tags: ['jobs'],
         params: z.object({ id: z.string().min(1).max(200), name: z.string().regex(/^[a-z0-9-]{1,64}$/) }),
-        response: { 404: problemResponse('unknown job or attachment'), 409: problemResponse('the job has not succeeded') },
+        response: {
+          200: {
+            description: 'the matrix as raw bytes (its headers are documented in the OpenAPI document)',
+            content: { 'application/octet-stream': { schema: z.string().meta({ format: 'binary' }) } },
+          },
+          404: problemResponse('unknown job or attachment'),
+          409: problemResponse('the job has not succeeded'),
+        },
       },
     },
     async (request, reply) => {
-      const job = await requireJob(request.params.id, tenantOf(request));
-      if (job.state !== 'succeeded') throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}; attachments exist once it has succeeded`);
-      const text = await store.getDocument('records', job.recordKey);
+      const jobId = request.params.id;
+      const recordKey = await succeededRecordKey(request, 'attachments exist once it has succeeded');
+      const text = await store.getDocument('records', recordKey);
       const listed = text ? ((JSON.parse(text) as { attachments?: { name: string; shape: number[]; dtype: string; sha256: string }[] }).attachments ?? []) : [];
       const entry = listed.find((a) => a.name === request.params.name);
-      const bytes = entry ? await store.getAttachment(`${job.recordKey}.${entry.name}`) : null;
-      if (!entry || !bytes) throw new ProblemError('attachment-not-found', `job ${job.id} has no attachment "${request.params.name}"; the record lists ${listed.map((a) => a.name).join(', ') || 'none'}`);
+      const bytes = entry ? await store.getAttachment(`${recordKey}.${entry.name}`) : null;
+      if (!entry || !bytes) throw new ProblemError('attachment-not-found', `job ${jobId} has no attachment "${request.params.name}"; the record lists ${listed.map((a) => a.name).join(', ') || 'none'}`);
       return reply
         .type('application/octet-stream')
         .header('x-rhythmetric-shape', entry.shape.join(','))
@@ -199,21 +271,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       serializerCompiler: () => (data) => (typeof data === 'string' ? data : JSON.stringify(data)),
     },
     async (request, reply) => {
-      const tenant = tenantOf(request);
-      let recordKey: string;
-      try {
-        const job = await requireJob(request.params.id, tenant);
-        if (job.state !== 'succeeded') {
-          throw new ProblemError('record-not-ready', `job ${job.id} is ${job.state}${job.problem ? `: ${job.problem.detail}` : ''}; the record exists once it has succeeded`);
-        }
-        recordKey = job.recordKey;
-      } catch (error) {
-        // The queue is down: a record that is already stored is still served from the store.
-        const fallback = error instanceof ProblemError && error.code === 'queue-unavailable' ? await indexedRecordKey(store, request.params.id, tenant) : null;
-        if (!fallback) throw error;
-        request.log.info({ jobId: request.params.id }, 'record served from the store while the queue is unavailable');
-        recordKey = fallback;
-      }
+      const recordKey = await succeededRecordKey(request, 'the record exists once it has succeeded');
       const text = await store.getDocument('records', recordKey);
       if (text === null) throw new ProblemError('internal', `the record of job ${request.params.id} is missing from the store`);
       return reply.type('application/json').send(text as never);

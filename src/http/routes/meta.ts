@@ -30,7 +30,14 @@ export const metaRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) 
 
   app.get(
     '/metrics',
-    { schema: { summary: 'Prometheus metrics (text exposition format)', tags: ['operations'] } },
+    {
+      config: { access: 'metrics' },
+      schema: {
+        summary: 'Prometheus metrics (text exposition format); needs an admin key or the metrics token',
+        tags: ['operations'],
+        response: { 200: { description: 'metrics in the Prometheus text exposition format 0.0.4', content: { 'text/plain': { schema: z.string() } } } },
+      },
+    },
     async (_request, reply) => {
       const registry = deps.metrics!.registry;
       return reply.type(registry.contentType).send(await registry.metrics());

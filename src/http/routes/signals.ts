@@ -1,5 +1,8 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { ingestFile, type IngestDescription } from '../../stores/ingest.js';
+import type { Readable } from 'node:stream';
+import { RESUMABLE_HINT } from '../error-handler.js';
+import { ProblemError } from '../problem.js';
 import { isStream, receiveToFile } from '../receive.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
 import { importSignal } from '../imports.js';
@@ -21,6 +24,41 @@ export function binaryDescription(query: unknown): IngestDescription {
   const parsed = BinaryUploadQuery.safeParse(query);
   if (!parsed.success) throw validationError(parsed.error, 'querystring');
   return { ...parsed.data, format: 'float32' };
+}
+
+/** EDF and EDF+ files start with the version field: "0" and seven spaces (EDF specification, header byte 0). */
+const EDF_VERSION = Buffer.from('0       ', 'latin1');
+
+/** The first chunk of a body stream; the rest is drained, as the request is about to be refused. */
+function firstChunk(stream: Readable): Promise<Buffer> {
+  return new Promise((resolve) => {
+    const done = (chunk: Buffer) => {
+      stream.off('data', done);
+      stream.off('end', none);
+      stream.off('error', none);
+      stream.resume();
+      resolve(chunk);
+    };
+    const none = () => done(Buffer.alloc(0));
+    stream.on('data', done);
+    stream.once('end', none);
+    stream.once('error', none);
+  });
+}
+
+/**
+ * The description of a binary body from its query, checked before the body is read; an EDF file
+ * sent without `format=edf` gets that hint rather than a complaint about float32 parameters.
+ */
+async function describeBinary(query: unknown, body: Readable): Promise<IngestDescription> {
+  try {
+    return binaryDescription(query);
+  } catch (error) {
+    if ((query as { format?: string }).format === undefined && (await firstChunk(body)).subarray(0, EDF_VERSION.length).equals(EDF_VERSION)) {
+      throw new ProblemError('invalid-request', 'the body looks like an EDF/EDF+ file (it starts with the EDF version field); add ?format=edf to the URL to read it as one', '/query/format');
+    }
+    throw error;
+  }
 }
 
 export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
@@ -53,8 +91,8 @@ export const signalRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
       const limits = deps.config.signalLimits;
       let meta;
       if (isStream(request.body)) {
-        const description = binaryDescription(request.query);
-        const raw = await receiveToFile(request.body, await deps.store.tempDir(), deps.config.bodyLimitBytes, request.headers['content-length']);
+        const description = await describeBinary(request.query, request.body);
+        const raw = await receiveToFile(request.body, await deps.store.tempDir(), deps.config.bodyLimitBytes, request.headers['content-length'], RESUMABLE_HINT);
         try {
           meta = await ingestFile(deps.store, raw.path, description, { tenant: tenantOf(request), limits, maxStoreBytes: deps.config.maxStoreBytes });
         } finally {

@@ -5,13 +5,16 @@ import { join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
+import { checkSamplingRate } from '../../signals/validate.js';
 import { ingestFile } from '../../stores/ingest.js';
+import type { Reservation } from '../../stores/store.js';
+import { uploadAreaOf } from '../../stores/upload-area.js';
 import type { AppDeps } from '../app.js';
 import { tenantOf } from '../auth.js';
 import { describeIngest } from '../imports.js';
 import { ProblemError } from '../problem.js';
 import { isStream, receiveToFile } from '../receive.js';
-import { problemResponse, SignalInfoSchema } from '../schemas.js';
+import { EventListSchema, problemResponse, SignalInfoSchema } from '../schemas.js';
 import { zodValidator } from '../validation.js';
 
 const MAX_PARTS = 10_000;
@@ -25,6 +28,7 @@ const UploadStart = z
     unit: z.string().min(1).max(32).optional().describe('float32 only: nV, uV (µV), mV or V, stored as uV; default uV'),
     voltage: z.boolean().optional().describe('float32 only: false when the samples are not a voltage (the unit is kept as given)'),
     nonFinite: z.enum(['reject', 'keep']).optional().describe('float32 only'),
+    events: EventListSchema.optional().describe('float32 only: events, as in a JSON upload; EDF+ files bring theirs as annotations'),
     sha256: z.string().regex(/^[0-9a-f]{64}$/).optional().describe('SHA-256 of the whole file (all parts in order); checked when the upload completes'),
   })
   .meta({ id: 'UploadStart', description: 'Starts a resumable upload of a large file in numbered parts.' });
@@ -58,7 +62,8 @@ interface Stored {
 export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
   app.addContentTypeParser('application/octet-stream', (_request, payload, done) => done(null, payload));
 
-  const root = async () => join(await deps.store.tempDir(), 'uploads');
+  const area = uploadAreaOf(deps.store);
+  const root = () => area.root();
   async function load(id: string, tenant: string): Promise<{ dir: string; stored: Stored }> {
     const dir = join(await root(), id);
     const text = await readFile(join(dir, 'upload.json'), 'utf8').catch(() => null);
@@ -89,7 +94,9 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     },
     async (request, reply) => {
       const start = request.body;
-      describeIngest(start, ''); // refuses a float32 upload without samplingRate or channels now, not at completion
+      // Refuses a float32 upload without samplingRate or channels, or with an absurd rate, now, not at completion.
+      describeIngest(start, '');
+      if (start.samplingRate !== undefined) checkSamplingRate(start.samplingRate, deps.config.signalLimits, '/samplingRate');
       const id = `upl_${randomBytes(16).toString('hex')}`;
       const dir = join(await root(), id);
       await mkdir(dir, { recursive: true });
@@ -115,10 +122,29 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
       const { id, part } = request.params as z.infer<typeof PartParams>;
       const { dir } = await load(id, tenantOf(request));
       if (!isStream(request.body)) throw new ProblemError('unsupported-media-type', 'send the part as application/octet-stream');
-      const received = await receiveToFile(request.body, dir, deps.config.bodyLimitBytes, request.headers['content-length']);
-      await writeFile(join(dir, `${part}.part.sha256`), received.sha256);
-      await rename(received.path, join(dir, `${part}.part`));
-      return { part, bytes: received.bytes, sha256: received.sha256 };
+      const { bodyLimitBytes, maxStoreBytes } = deps.config;
+      const declared = request.headers['content-length'] === undefined ? Number.NaN : Number(request.headers['content-length']);
+      // A declared length is reserved before a byte is read, so a part that cannot fit is refused (507) at once.
+      let reservation: Reservation | null = declared >= 0 && declared <= bodyLimitBytes ? await area.reservePart(declared, maxStoreBytes) : null;
+      try {
+        const received = await receiveToFile(request.body, dir, bodyLimitBytes, request.headers['content-length']);
+        try {
+          if (reservation?.bytes !== received.bytes) {
+            reservation?.release();
+            reservation = await area.reservePart(received.bytes, maxStoreBytes);
+          }
+          await writeFile(join(dir, `${part}.part.sha256`), received.sha256);
+          await rename(received.path, join(dir, `${part}.part`));
+        } catch (error) {
+          await received.remove();
+          throw error;
+        }
+        area.keepPart(id, part, reservation);
+        return { part, bytes: received.bytes, sha256: received.sha256 };
+      } catch (error) {
+        reservation?.release();
+        throw error;
+      }
     },
   );
 
@@ -135,8 +161,8 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     '/v1/uploads/:id',
     { config: { access: 'submit' }, schema: { summary: 'Abandon an upload and its parts', tags: ['signals'], params: UploadParams, response: { 200: z.object({ id: z.string(), deleted: z.literal(true) }) } } },
     async (request) => {
-      const { dir } = await load(request.params.id, tenantOf(request));
-      await rm(dir, { recursive: true, force: true });
+      await load(request.params.id, tenantOf(request));
+      await area.remove(request.params.id);
       return { id: request.params.id, deleted: true as const };
     },
   );
@@ -183,13 +209,18 @@ export const uploadRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
         await rm(joined, { force: true });
         throw new ProblemError('hash-mismatch', `the joined parts have SHA-256 ${actual}, not the ${expected} announced; resend the parts that differ (GET the upload lists each part's hash)`, '/sha256');
       }
+      // The parts stop counting while their signal is stored: it is the same data, which is counted once.
+      area.release(stored.id);
       try {
         const meta = await ingestFile(deps.store, joined, describeIngest(stored.start, ''), { tenant: stored.tenant, limits: deps.config.signalLimits, maxStoreBytes: deps.config.maxStoreBytes });
-        await rm(dir, { recursive: true, force: true });
+        // Study manifests may name the upload instead of the signal it became.
+        await deps.store.putDocument('upload-signals', stored.id, JSON.stringify({ tenant: stored.tenant, signal: meta.id }));
+        await area.remove(stored.id);
         request.log.info({ uploadId: stored.id, signalId: meta.id, bytes: meta.bytes, parts: list.length }, 'upload completed');
         return reply.code(201).header('location', `/v1/signals/${meta.id}`).send(meta);
       } catch (error) {
         await rm(joined, { force: true });
+        await area.holdOnDisk(stored.id);
         throw error;
       }
     },
