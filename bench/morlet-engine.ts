@@ -8,6 +8,7 @@ import type { FeatureRecord } from '../src/engine/record.js';
 import { normalizeRecipe } from '../src/recipes/normalize.js';
 import { resolveRecipe } from '../src/recipes/resolve.js';
 import type { Signal } from '../src/signals/signal.js';
+import { createChannelRunner } from '../src/threads/channel-runner.js';
 
 export interface MorletWorkload {
   epochs: number;
@@ -42,7 +43,7 @@ export function packSignal(data: Float64Array[], w: MorletWorkload): Signal {
 export function timeEngineMorlet(signal: Signal, w: MorletWorkload, threads: number): { seconds: number; threads: number; totals: Float64Array } {
   const pinned = normalizeRecipe({ method: 'morlet', frequencies: { low: w.low, high: w.high, count: w.count }, cycles: w.cycles, output: 'matrix' });
   const start = performance.now();
-  const record = analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local', threads }) as FeatureRecord;
+  const record = analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local', channels: createChannelRunner({ threads }) }) as FeatureRecord;
   const seconds = (performance.now() - start) / 1000;
   const totals = new Float64Array(w.count);
   for (const a of record.attachments ?? []) {

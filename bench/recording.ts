@@ -45,7 +45,7 @@ const FINISHED = new Set(['succeeded', 'failed', 'canceled']);
 
 const LABELS = Array.from({ length: CHANNELS }, (_, c) => `E${c + 1}`);
 const RECIPES = [
-  { name: 'fixed 4 s', recipe: { method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 4 } } },
+  { name: 'fixed 4 s', recipe: { method: 'welch', epoching: { mode: 'fixed', epochSeconds: 4 } } },
   { name: "events 'probe' 0–4 s", recipe: { method: 'welch', epoching: { mode: 'events', labels: ['probe'], beforeSeconds: 0, afterSeconds: 4 } } },
 ] as const;
 

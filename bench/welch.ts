@@ -1,6 +1,7 @@
 /**
  * Welch throughput: 64 channels × 600 s × 500 Hz, Hann, 2 s segments (1000 samples), 50 % overlap,
- * mean detrend; mean average at fftLength 1024 and 1000, and median average at 1024. Single thread. The same seeded recording is
+ * mean detrend; mean average at fftLength 1024 and 1000, and median average at 1024, single thread; then a
+ * whole Welch job through the engine on 1 and 2 threads. The same seeded recording is
  * written to a temporary float64 file and timed with scipy.signal.welch (one call per channel) through
  * /usr/bin/python3 when scipy is there.
  *
@@ -16,6 +17,11 @@ import { promisify } from 'node:util';
 import { createRandom } from '../src/common/random.js';
 import { createWelchPlan } from '../src/dsp/welch.js';
 import { makeWindow } from '../src/dsp/windows.js';
+import { analyze } from '../src/engine/analyze.js';
+import { normalizeRecipe } from '../src/recipes/normalize.js';
+import { resolveRecipe } from '../src/recipes/resolve.js';
+import type { Signal } from '../src/signals/signal.js';
+import { createChannelRunner } from '../src/threads/channel-runner.js';
 
 const CHANNELS = 64;
 const SAMPLING_RATE = 500;
@@ -83,6 +89,7 @@ export async function benchWelch(): Promise<string[]> {
     const rate = (CHANNELS * SAMPLES) / best;
     lines.push(`  ours  fftLength ${fftLength} ${average}: ${best.toFixed(3)} s, ${(rate / 1e6).toFixed(1)} M samples/s, ${((best / CHANNELS) * 1000).toFixed(2)} ms/channel`);
   }
+  lines.push(...benchWelchJob(data));
   const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-bench-'));
   try {
     const file = join(dir, 'recording.f64');
@@ -102,6 +109,33 @@ export async function benchWelch(): Promise<string[]> {
     await rm(dir, { recursive: true, force: true });
   }
   return lines;
+}
+
+/**
+ * One whole Welch job through the engine (fftLength 1024), its channels spread by a channel runner
+ * over 1 and 2 threads (src/threads), best of the repeats each; the records must be the same bytes.
+ */
+function benchWelchJob(data: Float64Array): string[] {
+  const signal: Signal = { samplingRate: SAMPLING_RATE, channels: Array.from({ length: CHANNELS }, (_, c) => `C${c}`), unit: 'uV', epochCount: 1, samplesPerEpoch: SAMPLES, data };
+  const pinned = normalizeRecipe({ method: 'welch', segmentSeconds: SEGMENT / SAMPLING_RATE, overlap: OVERLAP / SEGMENT, fftLength: 1024 });
+  const resolved = resolveRecipe(pinned.recipe, pinned.hash, signal);
+  const results = [1, 2].map((threads) => {
+    const channels = createChannelRunner({ threads });
+    const once = () => analyze(signal, resolved, { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local', channels });
+    let record = once(); // warm-up: JIT, plans and helper threads
+    let best = Infinity;
+    for (let r = 0; r < REPEATS; r++) {
+      const start = performance.now();
+      record = once();
+      best = Math.min(best, (performance.now() - start) / 1000);
+    }
+    return { threads, seconds: best, used: record.provenance.threads ?? 1, hash: record.resultHash };
+  });
+  const [one, two] = results as [(typeof results)[0], (typeof results)[0]];
+  return [
+    ...results.map((r) => `  job   fftLength 1024 mean on ${r.threads} thread(s) (${r.used} computed): ${r.seconds.toFixed(3)} s`),
+    `  job   2 threads / 1 thread = ${(two.seconds / one.seconds).toFixed(2)}; same resultHash: ${one.hash === two.hash}`,
+  ];
 }
 
 if (process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1]) {

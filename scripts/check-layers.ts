@@ -19,12 +19,14 @@ const ALLOWED: Record<string, string[]> = {
   engine: ['methods', 'dsp', 'features', 'signals', 'recipes', 'common'],
   stores: ['signals', 'common'],
   tables: ['engine', 'common'],
-  jobs: ['engine', 'stores', 'recipes', 'methods', 'signals', 'common'],
+  // every thread of the process: the job pool, channel helpers, the thread budget and entry loading
+  threads: ['engine', 'signals', 'common'],
+  jobs: ['threads', 'engine', 'stores', 'recipes', 'methods', 'signals', 'common'],
   plots: ['engine', 'recipes', 'methods', 'common'],
   studies: ['tables', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'common'],
   http: ['studies', 'tables', 'plots', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'common', 'config'],
   client: [],
-  cli: ['client', 'tables', 'plots', 'http', 'studies', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
+  cli: ['client', 'threads', 'tables', 'plots', 'http', 'studies', 'jobs', 'stores', 'recipes', 'methods', 'signals', 'engine', 'features', 'dsp', 'common', 'config'],
   config: ['recipes', 'signals', 'stores', 'common'],
 };
 /** Packages the numerical core may use. */

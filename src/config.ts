@@ -22,8 +22,10 @@ const EnvSchema = z.object({
   QUEUE_NAME: z.string().regex(/^[A-Za-z0-9_-]+$/).default('analyses'),
   STORE: z.enum(['filesystem', 'redis']).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
-  WORKER_THREADS: int(Math.max(1, availableParallelism())),
-  JOB_THREADS: int(Math.max(1, availableParallelism())),
+  THREADS: int(Math.max(1, availableParallelism())),
+  // Deprecated in 0.3.0 for THREADS; still honoured, with a warning in the log, until the next version.
+  WORKER_THREADS: z.coerce.number().int().min(1).optional(),
+  JOB_THREADS: z.coerce.number().int().min(1).optional(),
   JOB_ATTEMPTS: int(3),
   BODY_LIMIT_BYTES: int(256 * 1024 * 1024),
   MAX_CHANNELS: int(512),
@@ -66,9 +68,14 @@ export interface Config {
   queueName: string;
   store: StoreConfig;
   logLevel: z.infer<typeof EnvSchema>['LOG_LEVEL'];
+  /** computing threads of this process, shared by concurrent jobs and their channel helpers */
+  threads: number;
+  /** jobs computed at once (THREADS, or the deprecated WORKER_THREADS) */
   workerThreads: number;
-  /** threads one time–frequency job may spread its channels over, its own included */
+  /** threads one job may spread its channels over, its own included (THREADS, or the deprecated JOB_THREADS) */
   jobThreads: number;
+  /** deprecated settings in use, one line each, for the start-up log */
+  deprecations: string[];
   jobAttempts: number;
   bodyLimitBytes: number;
   signalLimits: SignalLimits;
@@ -148,6 +155,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
   if (e.STORE === 'redis' && !e.REDIS_URL) throw new ConfigError('environment variable STORE=redis needs REDIS_URL');
   const dataDir = resolve(e.DATA_DIR);
   const storeKind = e.STORE ?? (e.REDIS_URL ? 'redis' : 'filesystem');
+  const threading = threadSettings(e, env.THREADS !== undefined && env.THREADS !== '');
   const config: Config = {
     port: e.PORT,
     host: e.HOST,
@@ -157,8 +165,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     queueName: e.QUEUE_NAME,
     store: storeKind === 'redis' ? { kind: 'redis', url: e.REDIS_URL!, prefix: e.REDIS_PREFIX } : { kind: 'filesystem', dataDir },
     logLevel: e.LOG_LEVEL,
-    workerThreads: e.WORKER_THREADS,
-    jobThreads: e.JOB_THREADS,
+    ...threading,
     jobAttempts: e.JOB_ATTEMPTS,
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
     signalLimits: { maxChannels: e.MAX_CHANNELS, maxEpochs: e.MAX_EPOCHS, maxSamples: e.MAX_SAMPLES, maxSamplingRate: e.MAX_SAMPLING_RATE, minSamplingRate: e.MIN_SAMPLING_RATE },
@@ -187,10 +194,23 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     uploadExpirySeconds: e.UPLOAD_EXPIRY_SECONDS,
     recordCacheBytes: e.RECORD_CACHE_BYTES,
     // A run keeps at most this many of its jobs in the queue at once, so other jobs wait behind a
-    // few of a run's, never behind all of them; by default one per compute thread.
-    studyRunWindow: e.STUDY_RUN_WINDOW ?? e.WORKER_THREADS,
+    // few of a run's, never behind all of them; by default one per job thread.
+    studyRunWindow: e.STUDY_RUN_WINDOW ?? threading.workerThreads,
   };
   return deepFreeze(config);
+}
+
+/**
+ * One budget, THREADS, split at run time: a job always has its own thread and takes free ones for
+ * its channels. The old variables still cap jobs at once and threads per job for one version; the
+ * budget is then the larger of the settings, as the two together could use before.
+ */
+function threadSettings(e: { THREADS: number; WORKER_THREADS?: number | undefined; JOB_THREADS?: number | undefined }, explicit: boolean) {
+  const deprecations: string[] = [];
+  if (e.WORKER_THREADS !== undefined) deprecations.push('WORKER_THREADS is deprecated: set THREADS, the one thread budget shared by jobs and their channel helpers');
+  if (e.JOB_THREADS !== undefined) deprecations.push('JOB_THREADS is deprecated: set THREADS, the one thread budget shared by jobs and their channel helpers');
+  const threads = explicit || deprecations.length === 0 ? e.THREADS : Math.max(e.WORKER_THREADS ?? 1, e.JOB_THREADS ?? 1);
+  return { threads, workerThreads: e.WORKER_THREADS ?? threads, jobThreads: e.JOB_THREADS ?? threads, deprecations };
 }
 
 function readKeysFile(path: string): string {

@@ -10,6 +10,7 @@ import { EmbeddedQueue } from '../jobs/embedded-queue.js';
 import type { JobQueue } from '../jobs/queue.js';
 import { sweepExpired } from '../jobs/retention.js';
 import { createStore } from '../stores/create-store.js';
+import { createThreadBudget } from '../threads/budget.js';
 import { uploadAreaOf } from '../stores/upload-area.js';
 
 export function createLogger(config: Pick<Config, 'logLevel'>, destination?: NodeJS.WritableStream): Logger {
@@ -32,6 +33,7 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
   } else {
     logger.info({ keys: config.apiKeys.length, tenants: [...new Set(config.apiKeys.map((k) => k.tenant))].length }, 'API keys loaded');
   }
+  for (const message of config.deprecations) logger.warn({ deprecated: true }, message);
   // Records are immutable, so with STORE=redis the API may keep those it has read: they stay readable while Redis is down.
   const store = config.store.kind === 'redis' && config.recordCacheBytes > 0 ? new RecordCachingStore(createStore(config.store), config.recordCacheBytes) : createStore(config.store);
   let pool: ComputePool | null = null;
@@ -41,7 +43,7 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
     if (!(await bull.connected())) logger.warn({ redis: redactUrl(config.redisUrl) }, 'Redis does not answer yet; submissions get 503 until it does');
     queue = bull;
   } else {
-    pool = createComputePool(config.workerThreads, config.jobThreads);
+    pool = createComputePool(config.workerThreads, config.jobThreads, createThreadBudget(config.threads));
     queue = await EmbeddedQueue.open({
       store,
       storeConfig: config.store,
@@ -87,7 +89,8 @@ export async function startApi(config: Readonly<Config>, logger: Logger = create
 /** A `rhythmetric worker` process: consumes the BullMQ queue, computes on its own thread pool. */
 export function startWorker(config: Readonly<Config>, logger: Logger = createLogger(config)) {
   if (!config.redisUrl) throw new Error('rhythmetric worker needs REDIS_URL (embedded mode computes inside the API process)');
-  const pool = createComputePool(config.workerThreads, config.jobThreads);
+  for (const message of config.deprecations) logger.warn({ deprecated: true }, message);
+  const pool = createComputePool(config.workerThreads, config.jobThreads, createThreadBudget(config.threads));
   // The longest event-loop stall since the last finished job goes into its log line: a stall
   // longer than the lock renewal margin (WORKER_LOCK_MS / 2) would get the job redelivered.
   const loop = monitorEventLoopDelay({ resolution: 10 });

@@ -2423,7 +2423,10 @@ export interface components {
                  * @default null
                  */
                 taperCount: number | null;
-                /** @default 3 */
+                /**
+                 * @description NW; the half-bandwidth is NW/T Hz for a window of T s (2 on 1 s: ±2 Hz)
+                 * @default 2
+                 */
                 timeBandwidth: number;
             } | null;
             tukeyRatio?: number;
@@ -2552,7 +2555,10 @@ export interface components {
                  * @default null
                  */
                 taperCount: number | null;
-                /** @default 3 */
+                /**
+                 * @description NW; the half-bandwidth is NW/T Hz for a window of T s (2 on 1 s: ±2 Hz)
+                 * @default 2
+                 */
                 timeBandwidth: number;
             } | null;
             tukeyRatio?: number;
@@ -2565,11 +2571,11 @@ export interface components {
         /** @description Cut a continuous signal into epochs: fixed-length, around its events, or fixed-length inside labelled blocks (events with a duration), each epoch carrying its block label. Events come from EDF+ annotations or an upload. */
         Epoching: {
             /** @description epoch length */
-            lengthSeconds: number;
+            epochSeconds: number;
             /** @constant */
             mode: "fixed";
             /**
-             * @description time between epoch starts; null = lengthSeconds (no overlap)
+             * @description time between epoch starts; null = epochSeconds (no overlap)
              * @default null
              */
             stepSeconds: number | null;
@@ -2597,14 +2603,14 @@ export interface components {
             /** @constant */
             mode: "events";
         } | {
+            /** @description epoch length */
+            epochSeconds: number;
             /** @description labels of the blocks to tile: events with a duration, e.g. "eyes-closed" */
             labels: string[];
-            /** @description epoch length */
-            lengthSeconds: number;
             /** @constant */
             mode: "blocks";
             /**
-             * @description time between epoch starts within a block; null = lengthSeconds (no overlap)
+             * @description time between epoch starts within a block; null = epochSeconds (no overlap)
              * @default null
              */
             stepSeconds: number | null;
@@ -2612,11 +2618,11 @@ export interface components {
         /** @description Cut a continuous signal into epochs: fixed-length, around its events, or fixed-length inside labelled blocks (events with a duration), each epoch carrying its block label. Events come from EDF+ annotations or an upload. */
         EpochingInput: {
             /** @description epoch length */
-            lengthSeconds: number;
+            epochSeconds: number;
             /** @constant */
             mode: "fixed";
             /**
-             * @description time between epoch starts; null = lengthSeconds (no overlap)
+             * @description time between epoch starts; null = epochSeconds (no overlap)
              * @default null
              */
             stepSeconds: number | null;
@@ -2644,14 +2650,14 @@ export interface components {
             /** @constant */
             mode: "events";
         } | {
+            /** @description epoch length */
+            epochSeconds: number;
             /** @description labels of the blocks to tile: events with a duration, e.g. "eyes-closed" */
             labels: string[];
-            /** @description epoch length */
-            lengthSeconds: number;
             /** @constant */
             mode: "blocks";
             /**
-             * @description time between epoch starts within a block; null = lengthSeconds (no overlap)
+             * @description time between epoch starts within a block; null = epochSeconds (no overlap)
              * @default null
              */
             stepSeconds: number | null;
@@ -2814,7 +2820,7 @@ export interface components {
                  * @description width of the comparison band on each side, Hz
                  * @default 4
                  */
-                neighbourhoodWidth: number;
+                neighborhoodWidth: number;
             };
             /** @description frequency of the highest local maximum above the 1/f background, refined by a parabola through the log spectrum */
             peakFrequency?: {
@@ -2937,7 +2943,7 @@ export interface components {
                  * @description width of the comparison band on each side, Hz
                  * @default 4
                  */
-                neighbourhoodWidth: number;
+                neighborhoodWidth: number;
             };
             /** @description frequency of the highest local maximum above the 1/f background, refined by a parabola through the log spectrum */
             peakFrequency?: {
@@ -3187,10 +3193,10 @@ export interface components {
              */
             output: "matrix" | "summary";
             /**
-             * @description also keep every trial's matrix (attachments grow with the number of epochs)
+             * @description also keep every epoch's matrix (attachments grow with the number of epochs)
              * @default false
              */
-            perTrial: boolean;
+            perEpoch: boolean;
             /**
              * @description also the inter-trial phase consistency |mean e^{iφ}| per time and frequency
              * @default false
@@ -3302,10 +3308,10 @@ export interface components {
              */
             output: "matrix" | "summary";
             /**
-             * @description also keep every trial's matrix (attachments grow with the number of epochs)
+             * @description also keep every epoch's matrix (attachments grow with the number of epochs)
              * @default false
              */
-            perTrial: boolean;
+            perEpoch: boolean;
             /**
              * @description also the inter-trial phase consistency |mean e^{iφ}| per time and frequency
              * @default false
@@ -4034,10 +4040,10 @@ export interface components {
              */
             output: "matrix" | "summary";
             /**
-             * @description also keep every trial's matrix (attachments grow with the number of epochs)
+             * @description also keep every epoch's matrix (attachments grow with the number of epochs)
              * @default false
              */
-            perTrial: boolean;
+            perEpoch: boolean;
             /**
              * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
              * @default none
@@ -4052,8 +4058,13 @@ export interface components {
              */
             schema: "rhythmetric.recipe/1";
             /**
+             * @description length of the sliding window
+             * @default 1
+             */
+            segmentSeconds: number;
+            /**
              * @description time between window centres
-             * @default 0.05
+             * @default 0.1
              */
             stepSeconds: number;
             /**
@@ -4081,7 +4092,10 @@ export interface components {
                  * @default null
                  */
                 taperCount: number | null;
-                /** @default 3 */
+                /**
+                 * @description NW; the half-bandwidth is NW/T Hz for a window of T s (2 on 1 s: ±2 Hz)
+                 * @default 2
+                 */
                 timeBandwidth: number;
             } | null;
             tukeyRatio?: number;
@@ -4090,11 +4104,6 @@ export interface components {
              * @enum {string}
              */
             window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
-            /**
-             * @description length of the sliding window
-             * @default 0.5
-             */
-            windowSeconds: number;
         };
         /** @description Short-time spectrogram: one-sided PSD in a sliding window (or DPSS tapers). */
         SpectrogramRecipeInput: {
@@ -4158,10 +4167,10 @@ export interface components {
              */
             output: "matrix" | "summary";
             /**
-             * @description also keep every trial's matrix (attachments grow with the number of epochs)
+             * @description also keep every epoch's matrix (attachments grow with the number of epochs)
              * @default false
              */
-            perTrial: boolean;
+            perEpoch: boolean;
             /**
              * @description re-reference before analysis: none, the common average of all channels, or a named channel (left out of the output)
              * @default none
@@ -4176,8 +4185,13 @@ export interface components {
              */
             schema: "rhythmetric.recipe/1";
             /**
+             * @description length of the sliding window
+             * @default 1
+             */
+            segmentSeconds: number;
+            /**
              * @description time between window centres
-             * @default 0.05
+             * @default 0.1
              */
             stepSeconds: number;
             /**
@@ -4205,7 +4219,10 @@ export interface components {
                  * @default null
                  */
                 taperCount: number | null;
-                /** @default 3 */
+                /**
+                 * @description NW; the half-bandwidth is NW/T Hz for a window of T s (2 on 1 s: ±2 Hz)
+                 * @default 2
+                 */
                 timeBandwidth: number;
             } | null;
             tukeyRatio?: number;
@@ -4214,11 +4231,6 @@ export interface components {
              * @enum {string}
              */
             window: "rectangular" | "hann" | "hamming" | "blackman" | "blackman-harris" | "flat-top" | "tukey";
-            /**
-             * @description length of the sliding window
-             * @default 0.5
-             */
-            windowSeconds: number;
         };
         Study: {
             createdAt: string;

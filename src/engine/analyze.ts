@@ -10,6 +10,7 @@ import type { Signal } from '../signals/signal.js';
 import { prepareInput } from './prepare.js';
 import type { SignalView } from '../signals/view.js';
 import type { FeatureRecord, RecordInput } from './record.js';
+import type { ChannelRunner } from './channel-runner.js';
 import { computeSpectra, summarize } from './spectra.js';
 import { ENGINE_NAME, ENGINE_VERSION, RECORD_SCHEMA } from './version.js';
 
@@ -25,8 +26,8 @@ export interface AnalyzeContext {
   onProgress?: ProgressListener;
   /** called between channels; throw from it to abandon the work (cancellation) */
   checkpoint?: () => void;
-  /** threads a time–frequency job may spread its channels over, this one included; the result does not depend on it. @defaultValue 1 */
-  threads?: number;
+  /** spreads channels over threads (src/threads); the result does not depend on it. @defaultValue the calling thread alone */
+  channels?: ChannelRunner;
 }
 
 export function recordInput(signal: Signal, signalId: string, sha256: string): RecordInput {
@@ -55,6 +56,7 @@ export function analyze(original: Signal, resolved: ResolvedRecipe, context: Ana
   if (methodOf(resolved.recipe).path === 'spectrum') {
     const spectrum = resolved as ResolvedRecipe<SpectrumRecipe>;
     const spectra = computeSpectra(signal, spectrum, context, prepared);
+    threads = spectra.threads;
     spectra.warnings.unshift(...prepared.warnings);
     result = summarize(signal, spectrum, spectra);
   } else {

@@ -54,7 +54,7 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
   let cut: EpochingResult;
   const e = recipe.epoching;
   if (e.mode === 'fixed') {
-    cut = fixedLengthEpochs(continuous, { lengthSeconds: e.lengthSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
+    cut = fixedLengthEpochs(continuous, { lengthSeconds: e.epochSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
   } else if (e.mode === 'blocks') {
     const wanted = new Set(e.labels);
     const blocks = (signal.events ?? [])
@@ -63,7 +63,7 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
     if (blocks.length === 0) {
       throw new EngineInputError('no-usable-epochs', `the signal has no event with a duration labelled ${e.labels.map((l) => `"${l}"`).join(', ')} to cut epochs in`, '/recipe/epoching/labels');
     }
-    cut = blockEpochs(continuous, blocks, { lengthSeconds: e.lengthSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
+    cut = blockEpochs(continuous, blocks, { lengthSeconds: e.epochSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
   } else {
     const wanted = e.labels ? new Set(e.labels) : null;
     const events = (signal.events ?? []).filter((ev) => !labelled.has(ev.label) && (wanted === null || wanted.has(ev.label))).map((ev) => ({ onset: ev.onset, label: ev.label }));

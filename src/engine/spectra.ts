@@ -1,13 +1,13 @@
 import { confidenceInterval } from '../dsp/dof.js';
-import { NoSegmentsLeftError } from '../dsp/welch.js';
 import { bandPowers, bandRatios } from '../features/bands.js';
 import { qualityFlags } from '../features/quality.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
 import type { SpectrumRecipe } from '../recipes/schema.js';
 import { channelView, type Signal } from '../signals/signal.js';
+import { createLocalRunner, type ChannelRunContext, type ChannelRunner } from './channel-runner.js';
 import { EngineInputError } from './errors.js';
+import { createSpectrumEstimator, peakToPeak, type SpectrumOutcome, type SpectrumSetup } from './spectrum-channels.js';
 import { gapHandling, screenEpochs } from './gaps.js';
-import type { Estimator, SegmentFilter } from '../methods/method.js';
 import { methodOf } from '../methods/registry.js';
 import type { PreparedInput } from './prepare.js';
 import type { ChannelFeatures, ChannelQuality, FeatureResult, SkippedEpoch } from './record.js';
@@ -19,11 +19,10 @@ import { computeFeatures } from './spectral-features.js';
  * time–frequency path lives beside it in time-frequency.ts.
  */
 
-/** Progress and cancellation hooks, called between channels. */
-export interface SpectraContext {
-  onProgress?: (fraction: number) => void;
-  /** throw from it to abandon the work (cancellation) */
-  checkpoint?: () => void;
+/** Progress and cancellation hooks, called between epochs of a channel. */
+export interface SpectraContext extends ChannelRunContext {
+  /** spreads channels over threads; the result does not depend on it. @defaultValue the calling thread alone */
+  channels?: ChannelRunner;
 }
 
 /** Sums over the used epochs of every channel's spectrum, and (when asked) each epoch's own. */
@@ -43,11 +42,14 @@ export interface Spectra {
   /** per event label (events epoching): Σ PSD per channel and the epoch count */
   groups: Map<string, { count: number; psdSums: Float64Array[] }> | null;
   warnings: string[];
+  /** threads that computed at least one channel */
+  threads: number;
 }
 
 /**
- * Computes the spectrum of every channel of every usable epoch, each epoch on its own.
- * Deterministic: the same signal and resolved recipe give the same bits in every mode.
+ * Computes the spectrum of every channel of every usable epoch, each epoch on its own, channels
+ * spread by the context's runner. Deterministic: the same signal and resolved recipe give the same
+ * bits in every mode and on any number of threads.
  */
 export function computeSpectra(
   signal: Signal,
@@ -56,81 +58,54 @@ export function computeSpectra(
   prepared: Pick<PreparedInput, 'badSpans' | 'labels'> = { badSpans: [], labels: null },
 ): Spectra {
   const { recipe } = resolved;
-  const estimator = createEstimator(signal, resolved, segmentFilterFor(signal, resolved, prepared.badSpans));
   const { usedEpochs, skipped, quality } = selectEpochs(signal, resolved);
-  const segments = signal.channels.map(() => ({ used: 0, leftOut: 0 }));
-  const groups = prepared.labels ? new Map<string, { count: number; psdSums: Float64Array[] }>() : null;
-  const channelCount = signal.channels.length;
-  const bins = estimator.frequencies.length;
-  const psdSums = Array.from({ length: channelCount }, () => new Float64Array(bins));
-  const dofSums = Array.from({ length: channelCount }, () => new Float64Array(bins));
-  const perEpoch: Float64Array[][] | null = recipe.perEpoch ? [] : null;
-  const warnings = new Set<string>(estimator.warnings);
-  const total = usedEpochs.length * channelCount;
-  let done = 0;
-  for (const e of usedEpochs) {
-    const row: Float64Array[] = [];
-    let group: { count: number; psdSums: Float64Array[] } | undefined;
-    if (groups) {
-      const label = prepared.labels![e]!;
-      group = groups.get(label);
-      if (!group) groups.set(label, (group = { count: 0, psdSums: signal.channels.map(() => new Float64Array(bins)) }));
-      group.count++;
-    }
-    for (let c = 0; c < channelCount; c++) {
-      context.checkpoint?.();
-      let estimate;
-      try {
-        estimate = estimator.estimate(channelView(signal, e, c));
-      } catch (error) {
-        if (error instanceof NoSegmentsLeftError) {
-          throw new EngineInputError('no-usable-epochs', `channel "${signal.channels[c]}"${signal.epochCount > 1 ? `, epoch ${e}` : ''}: every Welch segment overlaps a bad span or exceeds the peak-to-peak limit`, '/recipe/badSpans');
-        }
-        throw error;
-      }
-      segments[c]!.used += estimate.segments.used;
-      segments[c]!.leftOut += estimate.segments.leftOut;
-      if (group) {
-        const g = group.psdSums[c]!;
-        for (let k = 0; k < bins; k++) g[k]! += estimate.psd[k]!;
-      }
-      const sum = psdSums[c]!;
-      const dof = dofSums[c]!;
-      for (let k = 0; k < bins; k++) {
-        sum[k]! += estimate.psd[k]!;
-        dof[k]! += estimate.degreesOfFreedom[k]!;
-      }
-      for (const w of estimate.warnings) warnings.add(`channel "${signal.channels[c]}", epoch ${e}: ${w}`);
-      if (perEpoch) row.push(estimate.psd);
-      done++;
-      context.onProgress?.(done / total);
-    }
-    perEpoch?.push(row);
+  const labels = prepared.labels ? usedEpochs.map((e) => prepared.labels![e]!) : null;
+  const groupNames = labels ? [...new Set(labels)] : [];
+  const setup: SpectrumSetup = {
+    recipe,
+    derived: resolved.derived,
+    samplingRate: signal.samplingRate,
+    samplesPerEpoch: signal.samplesPerEpoch,
+    channels: signal.channels,
+    used: usedEpochs,
+    badSpans: prepared.badSpans,
+    groupOf: labels ? labels.map((label) => groupNames.indexOf(label)) : null,
+    groupCount: groupNames.length,
+  };
+  const estimator = createSpectrumEstimator(setup);
+  const runner = context.channels ?? createLocalRunner();
+  const run = runner.run({ kind: 'spectrum', setup }, signal, context, estimator);
+  const outcomes = run.outcomes as SpectrumOutcome[];
+  // The first epoch (then channel) with no segment left names the refusal, as when epochs came first.
+  let empty: { i: number; c: number } | null = null;
+  outcomes.forEach((o, c) => {
+    if (o.emptyAt !== null && (empty === null || o.emptyAt < empty.i)) empty = { i: o.emptyAt, c };
+  });
+  if (empty !== null) {
+    const { i, c } = empty as { i: number; c: number };
+    throw new EngineInputError('no-usable-epochs', `channel "${signal.channels[c]}"${signal.epochCount > 1 ? `, epoch ${usedEpochs[i]}` : ''}: every Welch segment overlaps a bad span or exceeds the peak-to-peak limit`, '/recipe/badSpans');
   }
-  return { frequencies: estimator.frequencies, usedEpochs, skipped, psdSums, dofSums, perEpoch, quality, segments, groups, warnings: [...warnings] };
-}
-
-/** The estimator of the recipe's method, set up once for the job. */
-function createEstimator(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>, filter: SegmentFilter | null): Estimator {
-  const method = methodOf(resolved.recipe);
-  if (!method.createEstimator) throw new TypeError(`method "${resolved.recipe.method}" gives no spectrum estimator`);
-  return method.createEstimator(signal.samplingRate, resolved.recipe, resolved.derived, filter);
-}
-
-/**
- * Welch segments of an unepoched signal that overlap a bad span, or whose peak-to-peak amplitude in
- * the channel exceeds the recipe's limit, are left out of that channel's average.
- */
-function segmentFilterFor(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>, badSpans: [number, number][]): SegmentFilter | null {
-  const { recipe } = resolved;
-  const limit = recipe.badSpans.peakToPeak;
-  if (!methodOf(recipe).leavesOutSegments || recipe.epoching !== null || (badSpans.length === 0 && limit === null)) return null;
-  const fs = signal.samplingRate;
-  return (x, start, end) => {
-    const first = start / fs;
-    const last = (end - 1) / fs;
-    for (const [a, b] of badSpans) if (first <= b && last >= a) return false;
-    return limit === null || peakToPeak(x.subarray(start, end)) <= limit;
+  const warnings = new Set<string>(estimator.warnings);
+  // Epoch-major order, as the warnings of one loop over epochs and then channels.
+  const located = outcomes.flatMap((o, c) => o.warnings.map(([i, w]) => ({ i, c, w })));
+  located.sort((a, b) => a.i - b.i || a.c - b.c);
+  for (const { i, c, w } of located) warnings.add(`channel "${signal.channels[c]}", epoch ${usedEpochs[i]}: ${w}`);
+  let groups: Spectra['groups'] = null;
+  if (labels) {
+    groups = new Map(groupNames.map((name, g) => [name, { count: labels.filter((l) => l === name).length, psdSums: outcomes.map((o) => o.groupSums[g]!) }]));
+  }
+  return {
+    frequencies: estimator.frequencies,
+    usedEpochs,
+    skipped,
+    psdSums: outcomes.map((o) => o.psdSum),
+    dofSums: outcomes.map((o) => o.dofSum),
+    perEpoch: recipe.perEpoch ? usedEpochs.map((_, i) => outcomes.map((o) => o.perEpoch![i]!)) : null,
+    quality,
+    segments: outcomes.map((o) => o.segments),
+    groups,
+    warnings: [...warnings],
+    threads: run.threads,
   };
 }
 
@@ -168,16 +143,6 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) 
     return null;
   });
   return { usedEpochs: used, skipped, quality };
-}
-
-function peakToPeak(x: Float64Array): number {
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (const v of x) {
-    if (v < lo) lo = v;
-    if (v > hi) hi = v;
-  }
-  return hi - lo;
 }
 
 /** Turns spectra into the deterministic result: range-limited PSDs, band powers, ratios and features. */

@@ -80,7 +80,7 @@ export function computeFeatures(frequencies: Float64Array, psd: Float64Array, fe
   }
   if (features.lineNoise) {
     const o = features.lineNoise;
-    const r = lineNoiseRatio(frequencies, psd, { lineFrequency: o.frequency, harmonics: o.harmonics, halfWidth: o.halfWidth, neighbourhoodWidth: o.neighbourhoodWidth });
+    const r = lineNoiseRatio(frequencies, psd, { lineFrequency: o.frequency, harmonics: o.harmonics, halfWidth: o.halfWidth, neighborhoodWidth: o.neighborhoodWidth });
     values.lineNoise = {
       frequency: o.frequency,
       ratio: orNull(r.ratio),

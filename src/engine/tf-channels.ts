@@ -98,7 +98,7 @@ export function computeChannel(setup: ChannelSetup, work: ChannelWork, c: number
   // A plain trial average needs no trial kept: each trial's power is added to the sum in trial
   // order as it comes (by the transform itself where it can), the same additions as summing the
   // kept trials.
-  const keepTrials = Boolean(recipe.baseline) || recipe.perTrial;
+  const keepTrials = Boolean(recipe.baseline) || recipe.perEpoch;
   let average: Float64Array = new Float64Array(T * F);
   for (let i = 0; i < setup.used.length; i++) {
     beforeTrial();
@@ -119,7 +119,7 @@ export function computeChannel(setup: ChannelSetup, work: ChannelWork, c: number
       timeCount: T,
       frequencyCount: F,
       window: { startTime: recipe.baseline.start, endTime: recipe.baseline.end, times: shifted },
-      perTrial: recipe.perTrial,
+      perTrial: recipe.perEpoch,
       ...(edgeMask ? { exclude: edgeMask } : {}),
     });
     average = r.average;
@@ -136,7 +136,7 @@ export function computeChannel(setup: ChannelSetup, work: ChannelWork, c: number
   const outcome: ChannelOutcome = { entry, attachments, warnings, baseline };
   if (recipe.output === 'matrix') {
     attachments.push(attachment(`power-${c}`, 'power', name, [T, F], average));
-    if (recipe.perTrial && perTrial) {
+    if (recipe.perEpoch && perTrial) {
       const stacked = new Float64Array(perTrial.length * T * F);
       perTrial.forEach((t, i) => stacked.set(t, i * T * F));
       attachments.push(attachment(`trials-${c}`, 'trialPower', name, [perTrial.length, T, F], stacked));
@@ -169,3 +169,6 @@ function summarizeWindow(matrix: Float64Array, times: Float64Array, frequencies:
   }
   return { name: w.name, low: w.low, high: w.high, start: w.start, end: w.end, value: cells > 0 ? sum / cells : null, cells };
 }
+
+/** Time–frequency power per channel, for a channel runner. */
+export const timeFrequencyKernel = { prepare: createChannelWork, compute: computeChannel };

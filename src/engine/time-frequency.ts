@@ -3,18 +3,16 @@ import type { ResolvedRecipe } from '../recipes/resolve.js';
 import type { ConnectivityRecipe, TimeFrequencyRecipe } from '../recipes/schema.js';
 import { channelView, type Signal } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
-import { computeChannels } from './fan-out.js';
+import { createLocalRunner, type ChannelRunContext, type ChannelRunner } from './channel-runner.js';
 import { gapHandling, screenEpochs } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
 import type { Attachment, TimeFrequencyResult } from './record.js';
 import { taperOptions } from '../methods/settings.js';
-import { attachment, createChannelWork, NULL_ALPHA, type ChannelSetup } from './tf-channels.js';
+import { attachment, createChannelWork, NULL_ALPHA, type ChannelOutcome, type ChannelSetup } from './tf-channels.js';
 
-interface Context {
-  onProgress?: (fraction: number) => void;
-  checkpoint?: () => void;
-  /** threads this job may use for its channels, its own included. @defaultValue 1 */
-  threads?: number;
+interface Context extends ChannelRunContext {
+  /** spreads channels over threads. @defaultValue the calling thread alone */
+  channels?: ChannelRunner;
 }
 
 /**
@@ -51,7 +49,9 @@ export function analyzeTimeFrequency(
   const F = frequencies.length;
   const attachments: Attachment[] = [];
   if (edgeMask && recipe.output === 'matrix') attachments.push(attachment('edge-mask', 'edgeMask', null, [T, F], edgeMask));
-  const { outcomes, threads } = computeChannels(setup, work, signal, { ...context, threads: context.threads ?? 1 });
+  const run = (context.channels ?? createLocalRunner()).run({ kind: 'time-frequency', setup }, signal, context, work);
+  const outcomes = run.outcomes as ChannelOutcome[];
+  const threads = run.threads;
   let baselineInfo: NonNullable<TimeFrequencyResult['timeFrequency']>['baseline'] = null;
   let pcNull: NonNullable<TimeFrequencyResult['timeFrequency']>['phaseConsistencyNull'];
   for (const outcome of outcomes) {

@@ -11,8 +11,8 @@ export interface LineNoiseOptions {
   harmonics?: number;
   /** half-width of the line band |f − h| ≤ halfWidth, Hz. @defaultValue 1 */
   halfWidth?: number;
-  /** the neighbourhood is halfWidth < |f − h| ≤ halfWidth + neighbourhoodWidth, Hz. @defaultValue 4 */
-  neighbourhoodWidth?: number;
+  /** the neighbourhood is halfWidth < |f − h| ≤ halfWidth + neighborhoodWidth, Hz. @defaultValue 4 */
+  neighborhoodWidth?: number;
 }
 
 export interface LineNoiseHarmonic {
@@ -23,7 +23,7 @@ export interface LineNoiseHarmonic {
   /** 10·log10(ratio), dB */
   ratioDb: number | null;
   lineBins: number;
-  neighbourhoodBins: number;
+  neighborhoodBins: number;
 }
 
 export interface LineNoiseResult {
@@ -54,8 +54,8 @@ function meanOver(frequencies: Float64Array, psd: Float64Array, centre: number, 
  *
  * @param frequencies - bin frequencies, Hz
  * @param psd - one-sided PSD, unit²/Hz
- * @param options - lineFrequency (Hz), harmonics, halfWidth (Hz), neighbourhoodWidth (Hz)
- * @defaultValue harmonics = 3, halfWidth = 1 Hz, neighbourhoodWidth = 4 Hz
+ * @param options - lineFrequency (Hz), harmonics, halfWidth (Hz), neighborhoodWidth (Hz)
+ * @defaultValue harmonics = 3, halfWidth = 1 Hz, neighborhoodWidth = 4 Hz
  * @returns one entry per tested harmonic, the fundamental's ratio, the largest ratio and warnings
  * @throws RangeError / TypeError for malformed input or options
  * @see common practice (mains at 50/60 Hz; the EDF+ specification's prefilter example "N:50Hz").
@@ -64,23 +64,23 @@ export function lineNoiseRatio(frequencies: Float64Array, psd: Float64Array, opt
   const { lineFrequency } = options;
   const harmonics = options.harmonics ?? 3;
   const halfWidth = options.halfWidth ?? 1;
-  const neighbourhoodWidth = options.neighbourhoodWidth ?? 4;
+  const neighborhoodWidth = options.neighborhoodWidth ?? 4;
   if (!(lineFrequency > 0) || !Number.isFinite(lineFrequency)) throw new RangeError(`lineFrequency must be a finite number > 0, got ${lineFrequency}`);
   if (!Number.isInteger(harmonics) || harmonics < 1) throw new RangeError(`harmonics must be an integer ≥ 1, got ${harmonics}`);
   if (!(halfWidth > 0)) throw new RangeError(`halfWidth must be > 0, got ${halfWidth}`);
-  if (!(neighbourhoodWidth > 0)) throw new RangeError(`neighbourhoodWidth must be > 0, got ${neighbourhoodWidth}`);
+  if (!(neighborhoodWidth > 0)) throw new RangeError(`neighborhoodWidth must be > 0, got ${neighborhoodWidth}`);
   const last = frequencies[frequencies.length - 1] ?? 0;
   binsInRange(frequencies, psd, [0, Math.max(last, 1)]);
   const warnings: string[] = [];
   const results: LineNoiseHarmonic[] = [];
   for (let h = 1; h <= harmonics; h++) {
     const centre = h * lineFrequency;
-    if (centre + halfWidth + neighbourhoodWidth > last) {
+    if (centre + halfWidth + neighborhoodWidth > last) {
       warnings.push(`harmonic ${h} (${centre} Hz) and its neighbourhood reach past the last bin (${last} Hz): not tested`);
       break;
     }
     const line = meanOver(frequencies, psd, centre, -1, halfWidth);
-    const around = meanOver(frequencies, psd, centre, halfWidth, halfWidth + neighbourhoodWidth);
+    const around = meanOver(frequencies, psd, centre, halfWidth, halfWidth + neighborhoodWidth);
     let ratio: number | null = null;
     if (line.bins === 0 || around.bins === 0) {
       warnings.push(`harmonic ${h} (${centre} Hz): the line band or its neighbourhood holds no bin at this resolution`);
@@ -91,7 +91,7 @@ export function lineNoiseRatio(frequencies: Float64Array, psd: Float64Array, opt
     }
     results.push({
       frequency: centre, ratio, ratioDb: ratio !== null && ratio > 0 ? 10 * Math.log10(ratio) : null,
-      lineBins: line.bins, neighbourhoodBins: around.bins,
+      lineBins: line.bins, neighborhoodBins: around.bins,
     });
   }
   const ratios = results.map((r) => r.ratio).filter((r): r is number => r !== null);

@@ -1,47 +1,44 @@
-import { availableParallelism } from 'node:os';
 import { MessageChannel } from 'node:worker_threads';
-import { Piscina } from 'piscina';
 import type { StoreConfig } from '../stores/store.js';
+import { createThreadBudget, defaultThreadCount, type ThreadBudget } from '../threads/budget.js';
+import { threadEntry } from '../threads/entry.js';
+import { createThreadPool } from '../threads/pool.js';
 import type { PoolTaskInput, PoolTaskOutput } from './pool-task.js';
 import type { JobSpec, RunMode } from './spec.js';
 
 export interface ComputePool {
+  /** jobs computed at once */
   readonly threads: number;
   run(spec: JobSpec, store: StoreConfig, mode: RunMode, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<PoolTaskOutput>;
   close(): Promise<void>;
 }
 
 /**
- * Worker threads that run the spectral work off the event loop. From the TypeScript sources (tsx,
- * vitest) the threads load the `.ts` task through tsx; from `dist/` they load the compiled `.js`.
+ * Job threads (src/threads) that run the spectral work off the event loop, each job spreading its
+ * channels over the budget's free threads.
  *
- * @param threads - jobs computed at once
- * @param jobThreads - threads one time–frequency job may spread its channels over, its own
- *   included (helper threads it starts on demand); 1 keeps every job on its pool thread
+ * @param jobs - jobs computed at once. @defaultValue the budget
+ * @param threadsPerJob - threads one job may spread its channels over, its own included; 1 keeps
+ *   every job on its own thread. @defaultValue the budget
+ * @param budget - the process's thread budget, shared by jobs and their helpers. @defaultValue
+ *   `max(jobs, threadsPerJob)` threads when `jobs` is given, else one per CPU
  */
-export function createComputePool(threads = Math.max(1, availableParallelism()), jobThreads = 1): ComputePool {
-  const fromSource = import.meta.url.endsWith('.ts');
-  const pool = new Piscina({
-    filename: new URL(fromSource ? './pool-task.ts' : './pool-task.js', import.meta.url).href,
-    minThreads: 1,
-    maxThreads: threads,
-    idleTimeout: 60_000,
-    // tsx by its resolved URL: a bare 'tsx' would be looked up from the working directory, which
-    // for the command line is wherever the user's files are.
-    execArgv: fromSource ? ['--import', import.meta.resolve('tsx')] : [],
-  });
+export function createComputePool(jobs?: number, threadsPerJob?: number, budget: ThreadBudget = createThreadBudget(jobs === undefined ? defaultThreadCount() : Math.max(jobs, threadsPerJob ?? 1))): ComputePool {
+  const size = jobs ?? budget.threads;
+  const jobThreads = threadsPerJob ?? budget.threads;
+  const pool = createThreadPool(threadEntry(import.meta.url, 'pool-task'), size);
   return {
-    threads,
+    threads: size,
     async run(spec, store, mode, onProgress, signal) {
       const { port1, port2 } = new MessageChannel();
       port1.on('message', (fraction: number) => onProgress(fraction));
       try {
-        const input: PoolTaskInput = { spec, store, mode, jobThreads, port: port2 };
+        const input: PoolTaskInput = { spec, store, mode, jobThreads, budget, port: port2 };
         return (await pool.run(input, { transferList: [port2], ...(signal ? { signal } : {}) })) as PoolTaskOutput;
       } finally {
         port1.close();
       }
     },
-    close: () => pool.destroy(),
+    close: () => pool.close(),
   };
 }

@@ -1,5 +1,6 @@
 import { DomainError, locatedUnder } from '../common/errors.js';
 import { normalizeRecipe, type PinnedRecipe } from '../recipes/normalize.js';
+import { renameDeprecated } from '../recipes/renames.js';
 import { resolveRecipe, type RecipeLimits } from '../recipes/resolve.js';
 import { checkDerivedEcho } from '../recipes/round-trip.js';
 import type { SignalView } from '../signals/view.js';
@@ -17,7 +18,9 @@ export async function pinRecipe(store: Store, input: unknown): Promise<PinnedRec
 export async function getRecipe(store: Store, id: string, pointer: string | null = null): Promise<PinnedRecipe> {
   const text = /^rcp_[0-9a-f]{32}$/.test(id) ? await store.getDocument('recipes', id) : null;
   if (text === null) throw new DomainError('recipe-not-found', `no pinned recipe with id "${id}"`, { pointer });
-  return JSON.parse(text) as PinnedRecipe;
+  // Recipes pinned before the 0.3.0 renames are stored with the old names; their id and hash stay.
+  const stored = JSON.parse(text) as PinnedRecipe;
+  return { ...stored, recipe: renameDeprecated(stored.recipe).input as PinnedRecipe['recipe'] };
 }
 
 /**

@@ -1,4 +1,6 @@
 import type { MessagePort } from 'node:worker_threads';
+import { takeJobSlot, type ThreadBudget } from '../threads/budget.js';
+import { createChannelRunner } from '../threads/channel-runner.js';
 import { createStore } from '../stores/create-store.js';
 import type { Store, StoreConfig } from '../stores/store.js';
 import { refusalOf } from './failure.js';
@@ -10,8 +12,10 @@ export interface PoolTaskInput {
   spec: JobSpec;
   store: StoreConfig;
   mode: RunMode;
-  /** threads the job may spread time–frequency channels over, its own included */
+  /** threads the job may spread its channels over, its own included */
   jobThreads: number;
+  /** the process's thread budget (shared memory): helpers take only free slots */
+  budget: ThreadBudget;
   port: MessagePort;
 }
 
@@ -30,8 +34,9 @@ function storeFor(config: StoreConfig): Store {
 }
 
 /** Progress is sent at most every 1 % so that many-channel jobs do not flood the port. */
-export default async function poolTask({ spec, store, mode, jobThreads, port }: PoolTaskInput): Promise<PoolTaskOutput> {
+export default async function poolTask({ spec, store, mode, jobThreads, budget, port }: PoolTaskInput): Promise<PoolTaskOutput> {
   let sent = -1;
+  const release = takeJobSlot(budget);
   try {
     const outcome = await runJob(spec, storeFor(store), mode, (fraction) => {
       const step = Math.floor(fraction * 100);
@@ -39,13 +44,14 @@ export default async function poolTask({ spec, store, mode, jobThreads, port }: 
         sent = step;
         port.postMessage(fraction);
       }
-    }, { threads: jobThreads });
+    }, { channels: createChannelRunner({ threads: jobThreads, budget }) });
     return { ok: true, outcome };
   } catch (error) {
     const problem = refusalOf(error);
     if (problem) return { ok: false, problem };
     throw error;
   } finally {
+    release();
     port.close();
   }
 }

@@ -1,7 +1,9 @@
 import { DomainError, locatedUnder } from '../common/errors.js';
 import { canonicalJsonOnce } from '../common/canonical-json.js';
 import { analyze, type ProgressListener } from '../engine/analyze.js';
+import type { ChannelRunner } from '../engine/channel-runner.js';
 import type { FeatureRecord } from '../engine/record.js';
+import { renameDeprecated } from '../recipes/renames.js';
 import { resolveRecipe, type ResolvedRecipe } from '../recipes/resolve.js';
 import type { Signal } from '../signals/signal.js';
 import type { Store } from '../stores/store.js';
@@ -33,7 +35,7 @@ export async function runJob(
   store: Store,
   mode: RunMode,
   onProgress: ProgressListener = () => {},
-  options: { checkpoint?: () => void; threads?: number } = {},
+  options: { checkpoint?: () => void; channels?: ChannelRunner } = {},
 ): Promise<JobOutcome> {
   const existing = await store.getDocument('records', spec.recordKey);
   if (existing !== null) {
@@ -42,7 +44,9 @@ export async function runJob(
   }
   const loaded = await store.getSignal(spec.signalId);
   if (!loaded) throw new DomainError('signal-not-found', `signal ${spec.signalId} is not in the store`, { pointer: '/signal' });
-  const resolved = spec.resolved ?? (await resolveLegacy(spec, loaded.signal));
+  const queued = spec.resolved ?? (await resolveLegacy(spec, loaded.signal));
+  // A job queued before the 0.3.0 renames carries the old setting names.
+  const resolved = { ...queued, recipe: renameDeprecated(queued.recipe).input as ResolvedRecipe['recipe'] };
   const record = analyze(loaded.signal, resolved, {
     view: spec.view ?? null,
     signalId: spec.signalId,
@@ -51,7 +55,7 @@ export async function runJob(
     mode,
     onProgress,
     ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
-    ...(options.threads !== undefined ? { threads: options.threads } : {}),
+    ...(options.channels ? { channels: options.channels } : {}),
   });
   // Attachments first: once the record exists, everything it names can be fetched.
   for (const a of record.attachments ?? []) {

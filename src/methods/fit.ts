@@ -141,9 +141,9 @@ export function analysedChannels(reference: Reference, shape: SignalShape): numb
 
 interface EpochingSettings {
   epoching:
-    | { mode: 'fixed'; lengthSeconds: number; stepSeconds: number | null }
+    | { mode: 'fixed'; epochSeconds: number; stepSeconds: number | null }
     | { mode: 'events'; labels: string[] | null; beforeSeconds: number; afterSeconds: number; baseline: [number, number] | null }
-    | { mode: 'blocks'; labels: string[]; lengthSeconds: number; stepSeconds: number | null }
+    | { mode: 'blocks'; labels: string[]; epochSeconds: number; stepSeconds: number | null }
     | null;
   badSpans: { labels: string[]; peakToPeak: number | null };
 }
@@ -156,8 +156,8 @@ export function epochLength(recipe: EpochingSettings, shape: SignalShape): numbe
     throw unfit(`epoching cuts a continuous signal; this one already has ${shape.epochCount} epochs`, '/epoching');
   }
   const fs = shape.samplingRate;
-  const samples = e.mode === 'events' ? Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs) : Math.round(e.lengthSeconds * fs);
-  if (samples < 2) throw unfit(`epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'events' ? '/epoching/afterSeconds' : '/epoching/lengthSeconds');
+  const samples = e.mode === 'events' ? Math.round(e.beforeSeconds * fs) + Math.round(e.afterSeconds * fs) : Math.round(e.epochSeconds * fs);
+  if (samples < 2) throw unfit(`epochs of ${samples} sample(s) at ${fs} Hz are too short`, e.mode === 'events' ? '/epoching/afterSeconds' : '/epoching/epochSeconds');
   if (samples > shape.samplesPerEpoch) {
     throw unfit(`epochs of ${samples} samples are longer than the signal (${shape.samplesPerEpoch} samples)`, '/epoching');
   }
@@ -175,13 +175,13 @@ export function epochCountOf(recipe: EpochingSettings, shape: SignalShape, epoch
   const e = recipe.epoching;
   if (!e) return shape.epochCount ?? 1;
   if (e.mode === 'fixed') {
-    const step = Math.max(1, Math.round((e.stepSeconds ?? e.lengthSeconds) * shape.samplingRate));
+    const step = Math.max(1, Math.round((e.stepSeconds ?? e.epochSeconds) * shape.samplingRate));
     return Math.floor((shape.samplesPerEpoch - epochSamples) / step) + 1;
   }
   if (!shape.events) return Math.max(1, Math.floor(shape.samplesPerEpoch / epochSamples));
   if (e.mode === 'blocks') {
     const fs = shape.samplingRate;
-    const step = Math.max(1, Math.round((e.stepSeconds ?? e.lengthSeconds) * fs));
+    const step = Math.max(1, Math.round((e.stepSeconds ?? e.epochSeconds) * fs));
     const wanted = new Set(e.labels);
     return shape.events
       .filter((ev) => wanted.has(ev.label) && (ev.duration ?? 0) > 0)

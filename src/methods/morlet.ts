@@ -105,7 +105,7 @@ export const morlet = defineMethod({
     const extra = recipe.phaseConsistency ? 2 : 0;
     const bytes = float64Bytes(loaded + prepared + waveletPeak + spectra + 4 * 2 * n) + matrixBytes(recipe, channels, epochs, times, all.length, extra);
     const work = build + channels * epochs * (fftWork(2 * n) + perTrial);
-    const driver = waveletPeak > spectra + times * all.length ? '/frequencies' : recipe.perTrial ? '/perTrial' : '/decimation';
+    const driver = waveletPeak > spectra + times * all.length ? '/frequencies' : recipe.perEpoch ? '/perEpoch' : '/decimation';
     return { bytes, work, driver };
   },
   createTrialTransform(recipe, _derived, samplingRate, samplesPerEpoch) {

@@ -63,7 +63,7 @@ export const FeaturesSchema = z
         frequency: z.union([z.literal(50), z.literal(60)]).default(50).describe('mains frequency, Hz'),
         harmonics: z.number().int().min(1).max(10).default(3),
         halfWidth: z.number().positive().default(1).describe('half-width of each line band, Hz'),
-        neighbourhoodWidth: z.number().positive().default(4).describe('width of the comparison band on each side, Hz'),
+        neighborhoodWidth: z.number().positive().default(4).describe('width of the comparison band on each side, Hz'),
       })
       .optional()
       .describe('mean PSD in narrow bands at the mains frequency and its harmonics over the mean PSD around them (1 means none)'),
@@ -83,8 +83,8 @@ export const EpochingSchema = z
   .discriminatedUnion('mode', [
     z.strictObject({
       mode: z.literal('fixed'),
-      lengthSeconds: z.number().positive().max(3600).describe('epoch length'),
-      stepSeconds: z.number().positive().max(3600).nullable().default(null).describe('time between epoch starts; null = lengthSeconds (no overlap)'),
+      epochSeconds: z.number().positive().max(3600).describe('epoch length'),
+      stepSeconds: z.number().positive().max(3600).nullable().default(null).describe('time between epoch starts; null = epochSeconds (no overlap)'),
     }),
     z.strictObject({
       mode: z.literal('events'),
@@ -96,8 +96,8 @@ export const EpochingSchema = z
     z.strictObject({
       mode: z.literal('blocks'),
       labels: z.array(z.string().min(1)).min(1).max(256).describe('labels of the blocks to tile: events with a duration, e.g. "eyes-closed"'),
-      lengthSeconds: z.number().positive().max(3600).describe('epoch length'),
-      stepSeconds: z.number().positive().max(3600).nullable().default(null).describe('time between epoch starts within a block; null = lengthSeconds (no overlap)'),
+      epochSeconds: z.number().positive().max(3600).describe('epoch length'),
+      stepSeconds: z.number().positive().max(3600).nullable().default(null).describe('time between epoch starts within a block; null = epochSeconds (no overlap)'),
     }),
   ])
   .meta({
@@ -158,8 +158,10 @@ export const commonSettings = {
     ),
 };
 
+// NW 2 on the 1-s default window or segment gives W = NW/T = ±2 Hz of smoothing: a 6-Hz theta peak
+// stays within 4–8 Hz and a 10-Hz alpha peak within 8–12 Hz, so the two rhythms do not blend.
 export const TapersSchema = z.strictObject({
-  timeBandwidth: z.number().min(0.5).max(50).default(3),
+  timeBandwidth: z.number().min(0.5).max(50).default(2).describe('NW; the half-bandwidth is NW/T Hz for a window of T s (2 on 1 s: ±2 Hz)'),
   taperCount: z.number().int().min(1).max(200).nullable().default(null).describe('null means ⌊2·NW⌋ − 1'),
 });
 
@@ -205,7 +207,7 @@ export const timeFrequencyOutput = {
   baseline: BaselineSchema.nullable().default(null),
   output: z.enum(['matrix', 'summary']).default('matrix').describe('matrix: full time × frequency matrices as binary attachments; summary: only the band-and-window averages'),
   summary: SummarySchema,
-  perTrial: z.boolean().default(false).describe('also keep every trial\'s matrix (attachments grow with the number of epochs)'),
+  perEpoch: z.boolean().default(false).describe('also keep every epoch\'s matrix (attachments grow with the number of epochs)'),
 };
 
 

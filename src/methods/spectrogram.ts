@@ -14,8 +14,10 @@ export const SpectrogramRecipeSchema = z
     window: z.enum(WINDOW_NAMES).default('hann'),
     tukeyRatio: z.number().min(0).max(1).optional(),
     tapers: TapersSchema.nullable().default(null).describe('DPSS tapers for a multitaper spectrogram, instead of window'),
-    windowSeconds: z.number().positive().max(60).default(0.5).describe('length of the sliding window'),
-    stepSeconds: z.number().positive().max(60).default(0.05).describe('time between window centres'),
+    // 1 s holds four cycles of 4 Hz, the lowest theta frequency, and with NW 2 gives ±2 Hz; a step of a
+    // tenth of the window samples its time smoothing ten times over without repeating it more.
+    segmentSeconds: z.number().positive().max(60).default(1).describe('length of the sliding window'),
+    stepSeconds: z.number().positive().max(60).default(0.1).describe('time between window centres'),
     fftLength: commonSettings.fftLength,
     detrend: commonSettings.detrend,
     ...timeFrequencyCommon,
@@ -46,8 +48,8 @@ export const spectrogram = defineMethod({
   },
   fit(recipe, shape, limits) {
     const fit = fitTimeFrequency(recipe, shape, limits, {
-      seconds: recipe.windowSeconds,
-      pointer: '/windowSeconds',
+      seconds: recipe.segmentSeconds,
+      pointer: '/segmentSeconds',
       step: (segmentSamples) => {
         const step = Math.round(recipe.stepSeconds * shape.samplingRate);
         if (step < 1 || step > segmentSamples) throw unfit(`stepSeconds must be between one sample and the window length (${segmentSamples / shape.samplingRate} s)`, '/stepSeconds');
@@ -67,7 +69,7 @@ export const spectrogram = defineMethod({
     const scratch = float64Bytes(times * full + 4 * derived.fftLength + tapers * derived.segmentSamples);
     const bytes = float64Bytes(loaded + prepared) + matrixBytes(recipe, channels, epochs, times, kept, 0) + scratch;
     const work = channels * epochs * times * tapers * (fftWork(derived.fftLength) / 2);
-    return { bytes, work, driver: recipe.perTrial ? '/perTrial' : '/stepSeconds' };
+    return { bytes, work, driver: recipe.perEpoch ? '/perEpoch' : '/stepSeconds' };
   },
   createTrialTransform(recipe, derived, samplingRate, samplesPerEpoch) {
     const plan = createSpectrogramPlan(samplesPerEpoch, {

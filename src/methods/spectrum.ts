@@ -106,7 +106,7 @@ function checkFeatureRanges(recipe: SpectrumSettings, nyquist: number): void {
   for (const [name, range] of ranges) {
     if (range && range[1] > nyquist) throw unfit(`features.${name}.range ends at ${range[1]} Hz, above the Nyquist frequency ${nyquist} Hz`, `/features/${name}/range/1`);
   }
-  if (f.lineNoise && f.lineNoise.frequency + f.lineNoise.halfWidth + f.lineNoise.neighbourhoodWidth > nyquist) {
+  if (f.lineNoise && f.lineNoise.frequency + f.lineNoise.halfWidth + f.lineNoise.neighborhoodWidth > nyquist) {
     throw unfit(`line noise at ${f.lineNoise.frequency} Hz and its neighbourhood do not fit below the Nyquist frequency ${nyquist} Hz`, '/features/lineNoise/frequency');
   }
 }

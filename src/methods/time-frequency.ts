@@ -67,7 +67,7 @@ export function fitTimeFrequency(recipe: TimeFrequencySettings, shape: SignalSha
 }
 
 /** The epochs, channels and trials a time–frequency job sees, for its output and cost. */
-export function extentOf(recipe: TimeFrequencySettings & { perTrial?: boolean }, derived: DerivedSettings, shape: SignalShape) {
+export function extentOf(recipe: TimeFrequencySettings & { perEpoch?: boolean }, derived: DerivedSettings, shape: SignalShape) {
   const channels = analysedChannels(recipe.reference, shape);
   const epochs = epochCountOf(recipe, shape, derived.epochSamples!);
   const loaded = (shape.channels?.length ?? 1) * (shape.epochCount ?? 1) * shape.samplesPerEpoch;
@@ -77,16 +77,16 @@ export function extentOf(recipe: TimeFrequencySettings & { perTrial?: boolean },
 
 /**
  * Matrices larger than the server's `maxOutputValues` are refused before work starts.
- * `trials` counts the per-trial matrices kept (0 without perTrial); `extra` further matrices per channel.
+ * `trials` counts the per-trial matrices kept (0 without perEpoch); `extra` further matrices per channel.
  */
 export function checkOutputValues(recipe: MatrixSettings, shape: SignalShape, limits: RecipeLimits, times: number, frequencies: number, extra: number): void {
   if (recipe.output !== 'matrix') return;
   const channels = shape.channels?.length ?? 1;
-  const trials = recipe.perTrial && !recipe.epoching ? (shape.epochCount ?? 1) : 1;
-  const values = channels * times * frequencies * (1 + (recipe.perTrial ? trials : 0) + extra);
+  const trials = recipe.perEpoch && !recipe.epoching ? (shape.epochCount ?? 1) : 1;
+  const values = channels * times * frequencies * (1 + (recipe.perEpoch ? trials : 0) + extra);
   if (values > limits.maxOutputValues) {
     throw overLimit(
-      `the matrices would hold ${values} values (${channels} channels × ${times} times × ${frequencies} frequencies${recipe.perTrial ? ' with every trial' : ''}), above this server's limit of ${limits.maxOutputValues}; use decimation, fewer frequencies, output "summary", or fewer channels`,
+      `the matrices would hold ${values} values (${channels} channels × ${times} times × ${frequencies} frequencies${recipe.perEpoch ? ' with every trial' : ''}), above this server's limit of ${limits.maxOutputValues}; use decimation, fewer frequencies, output "summary", or fewer channels`,
       '/output',
     );
   }
@@ -94,6 +94,6 @@ export function checkOutputValues(recipe: MatrixSettings, shape: SignalShape, li
 
 /** Bytes of the matrices a time–frequency job keeps while it runs (output values plus each channel's trial sum). */
 export function matrixBytes(recipe: MatrixSettings, channels: number, epochs: number, times: number, frequencies: number, extra: number): number {
-  const perChannel = times * frequencies * (1 + extra + (recipe.perTrial ? epochs : 0));
+  const perChannel = times * frequencies * (1 + extra + (recipe.perEpoch ? epochs : 0));
   return float64Bytes(channels * perChannel);
 }

@@ -7,6 +7,7 @@ import { methodOf } from '../methods/registry.js';
 import { pointerOf, RecipeInputError } from './errors.js';
 import { asRecipeError } from './method-errors.js';
 import { checkRecipeEcho, splitRecipeEcho } from './round-trip.js';
+import { renameDeprecated } from './renames.js';
 import { RecipeSchema, type Recipe } from './schema.js';
 
 export interface PinnedRecipe {
@@ -24,9 +25,9 @@ export function recipeIdFromHash(hash: string): string {
 /**
  * Parses a recipe, fills every default, rejects contradictions by name (each method's own
  * `check`) and returns it frozen with its hash (SHA-256 of the canonical JSON). Two recipes that
- * differ only in defaults they spell out get the same hash. A record's `recipe` is accepted as it
- * prints it: its `id` and `hash` must be those of its settings, and its `derived` values are
- * returned for a check against the signal.
+ * differ only in defaults they spell out, or in the deprecated names they use (renames.ts), get
+ * the same hash. A record's `recipe` is accepted as it prints it: its `id` and `hash` must be
+ * those of its settings, and its `derived` values are returned for a check against the signal.
  */
 export function normalizeRecipe(input: unknown): PinnedRecipe {
   const { settings, echo } = splitRecipeEcho(input);
@@ -37,8 +38,9 @@ export function normalizeRecipe(input: unknown): PinnedRecipe {
 }
 
 function normalizeSettings(input: unknown): PinnedRecipe {
-  const parsed = RecipeSchema.safeParse(input);
-  if (!parsed.success) throw fromZod(parsed.error, input);
+  const renamed = renameDeprecated(input).input;
+  const parsed = RecipeSchema.safeParse(renamed);
+  if (!parsed.success) throw fromZod(parsed.error, renamed);
   const recipe = parsed.data;
   try {
     methodOf(recipe).check(recipe);

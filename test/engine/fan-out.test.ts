@@ -5,6 +5,8 @@ import type { FeatureRecord } from '../../src/engine/record.js';
 import { normalizeRecipe } from '../../src/recipes/normalize.js';
 import { resolveRecipe } from '../../src/recipes/resolve.js';
 import type { Signal } from '../../src/signals/signal.js';
+import { createThreadBudget, takeJobSlot } from '../../src/threads/budget.js';
+import { createChannelRunner } from '../../src/threads/channel-runner.js';
 
 // Invented study: 5 channels × 12 trials of white noise at 250 Hz, with a 10 Hz tone in channel 2,
 // so the channels differ and a channel written to the wrong slot would show.
@@ -30,7 +32,7 @@ function study(): Signal {
 function run(recipe: unknown, threads: number, extra: { checkpoint?: () => void; onProgress?: (f: number) => void } = {}) {
   const signal = study();
   const pinned = normalizeRecipe(recipe);
-  return analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_test', sha256: 'x', recipeId: pinned.id, mode: 'local', threads, ...extra }) as FeatureRecord;
+  return analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_test', sha256: 'x', recipeId: pinned.id, mode: 'local', channels: createChannelRunner({ threads }), ...extra }) as FeatureRecord;
 }
 
 const morlet = {
@@ -38,11 +40,29 @@ const morlet = {
   frequencies: { low: 4, high: 30, count: 6 },
   cycles: 5,
   phaseConsistency: true,
-  perTrial: true,
+  perEpoch: true,
   baseline: { start: 0, end: 0.2, mode: 'zscore' },
   summary: [{ name: 'alpha', low: 8, high: 13, start: 0.3, end: 0.7 }],
 };
-const spectrogram = { method: 'spectrogram', windowSeconds: 0.25, stepSeconds: 0.125, frequencyRange: [0, 40] };
+const spectrogram = { method: 'spectrogram', segmentSeconds: 0.25, stepSeconds: 0.125, frequencyRange: [0, 40] };
+
+const welch = { method: 'welch', segmentSeconds: 0.5, perEpoch: true, features: { peakFrequency: {} } };
+const multitaper = { method: 'multitaper', timeBandwidth: 3 };
+const periodogram = { method: 'periodogram', window: 'hann' };
+
+/**
+ * Threads that computed a job on a budget of 2. A helper starts on first use and may miss a short
+ * job while it loads; once it runs it takes its share. Bounded retries keep a slow machine from
+ * failing this, not a broken helper.
+ */
+async function threadsOnceWarm(recipe: unknown): Promise<number> {
+  let threads = 0;
+  for (let attempt = 0; attempt < 40 && threads < 2; attempt++) {
+    threads = run(recipe, 2).provenance.threads ?? 0;
+    if (threads < 2) await new Promise((resolve) => setTimeout(resolve, 250));
+  }
+  return threads;
+}
 
 function attachmentBytes(record: FeatureRecord): string[] {
   return (record.attachments ?? []).map((a) => `${a.name}:${a.sha256}:${Buffer.from(a.data!.buffer, a.data!.byteOffset, a.data!.byteLength).toString('base64')}`);
@@ -84,14 +104,7 @@ describe('when a time–frequency job spreads its channels over helper threads',
 
   it('should take channels on a helper thread once one is running, and say how many threads computed', async () => {
     expect(run(morlet, 1).provenance.threads).toBe(1);
-    // A helper starts on first use and may miss a short job while it loads; once it runs it takes
-    // its share. Bounded retries keep a slow machine from failing this, not a broken helper.
-    let threads = 0;
-    for (let attempt = 0; attempt < 40 && threads < 2; attempt++) {
-      threads = run(morlet, 2).provenance.threads ?? 0;
-      if (threads < 2) await new Promise((resolve) => setTimeout(resolve, 250));
-    }
-    expect(threads).toBe(2);
+    expect(await threadsOnceWarm(morlet)).toBe(2);
   });
 
   it('should report progress that never goes back and ends at 1', () => {
@@ -109,5 +122,44 @@ describe('when a time–frequency job spreads its channels over helper threads',
     };
     expect(() => run(morlet, 2, { checkpoint: cancel })).toThrow('canceled by test');
     expect(run(morlet, 2).resultHash).toBe(run(morlet, 1).resultHash);
+  });
+});
+
+describe('when a spectrum job spreads its channels over helper threads', () => {
+  // Issue 15 "every core for one job": Welch, multitaper and periodogram records are defined by the
+  // recipe and the samples alone (DESIGN.md), so the thread count must not show in them.
+  it.each([
+    ['Welch with per-epoch spectra and a feature', welch],
+    ['multitaper', multitaper],
+    ['periodogram', periodogram],
+  ])('should give %s the same result hash on 1, 2 and 4 threads', (_name, recipe) => {
+    const one = run(recipe, 1);
+    expect(one.provenance.threads).toBe(1);
+    for (const threads of [2, 4]) {
+      const many = run(recipe, threads);
+      expect(many.resultHash).toBe(one.resultHash);
+      expect(many.result).toEqual(one.result);
+    }
+  });
+
+  it('should take spectrum channels on a helper thread once one is running', async () => {
+    expect(await threadsOnceWarm(welch)).toBe(2);
+  });
+
+  it('should use no helper when the thread budget has no free slot', () => {
+    const budget = createThreadBudget(2);
+    const release = takeJobSlot(budget);
+    const other = takeJobSlot(budget);
+    try {
+      const signal = study();
+      const pinned = normalizeRecipe(welch);
+      const record = analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_test', sha256: 'x', recipeId: pinned.id, mode: 'local', channels: createChannelRunner({ threads: 2, budget }) });
+      expect(record.provenance.threads).toBe(1);
+      expect(budget.free[0]).toBe(0);
+    } finally {
+      other();
+      release();
+    }
+    expect(budget.free[0]).toBe(2);
   });
 });

@@ -103,7 +103,7 @@ describe('when the recipe cuts epochs around events', () => {
     const shifted = continuous(20, ['A', 'B'], (c, t) => 50 + (c === 1 && t > 10 && t < 10.1 ? 400 : Math.sin(2 * Math.PI * 5 * t)));
     const record = run(shifted, {
       method: 'periodogram',
-      epoching: { mode: 'fixed', lengthSeconds: 4 },
+      epoching: { mode: 'fixed', epochSeconds: 4 },
       badSpans: { peakToPeak: 100 },
     });
     expect(record.result.epoching!.kept.map((k) => k.startSeconds)).toEqual([0, 4, 12, 16]);

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { http, OwnRedis, pollJobHttp, smallInlineSignal, startHttpApi, startWorkerProcess, type ServiceProcess } from './helpers.js';
 
 const haveRedisServer = existsSync('/usr/bin/redis-server') && existsSync('/usr/bin/redis-cli');
-const RECIPE = { method: 'spectrogram', windowSeconds: 0.5, stepSeconds: 0.25 };
+const RECIPE = { method: 'spectrogram', segmentSeconds: 0.5, stepSeconds: 0.25 };
 
 async function raw(base: string, path: string) {
   const res = await fetch(`${base}${path}`, { signal: AbortSignal.timeout(10_000) });

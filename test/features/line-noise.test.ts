@@ -22,7 +22,7 @@ describe('lineNoiseRatio', () => {
       p[400] = 1 + 0.45 / 0.25; // 100 Hz, P = 0.45 → 1.2
       const r = lineNoiseRatio(f, p, { lineFrequency: 50, harmonics: 2 });
       expect(r.harmonics[0]!.lineBins).toBe(9);
-      expect(r.harmonics[0]!.neighbourhoodBins).toBe(32);
+      expect(r.harmonics[0]!.neighborhoodBins).toBe(32);
       expect(r.ratio).toBeCloseTo(2, 12);
       expect(r.harmonics[0]!.ratioDb).toBeCloseTo(10 * Math.log10(2), 12);
       expect(r.harmonics[1]!.ratio).toBeCloseTo(1.2, 12);

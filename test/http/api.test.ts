@@ -264,8 +264,25 @@ describe('when a job refers to part of a stored signal', () => {
     expect(badTime.json().pointer).toBe('/signal/start');
     const epochedTwice = await post('/v1/jobs', {
       signal: { samplingRate: fs, channels: ['Cz'], epochs: [[tone(1, 10, 4)], [tone(1, 10, 4)]] },
-      recipe: { method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 2 } },
+      recipe: { method: 'welch', epoching: { mode: 'fixed', epochSeconds: 2 } },
     });
     expect(epochedTwice.json()).toMatchObject({ type: '/problems/recipe-unfit', pointer: '/recipe/epoching' });
+  });
+});
+
+describe('when a recipe uses a setting name deprecated in 0.3.0', () => {
+  it('should pin the same recipe as the new name and say so in a Warning header, for recipes and jobs', async () => {
+    const renamed = await post('/v1/recipes', { method: 'welch', epoching: { mode: 'fixed', epochSeconds: 2 } });
+    expect(renamed.statusCode).toBe(201);
+    expect(renamed.headers.warning).toBeUndefined();
+    const old = await post('/v1/recipes', { method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 2 } });
+    expect(old.statusCode).toBe(201);
+    expect(old.json().id).toBe(renamed.json().id);
+    expect(String(old.headers.warning)).toMatch(/^299 rhythmetric ".*\/epoching\/lengthSeconds.*epochSeconds.*"$/);
+
+    const signal = await post('/v1/signals', { samplingRate: fs, channels: ['Fz'], unit: 'uV', data: [tone(2, 10, 8)] });
+    const job = await post('/v1/jobs', { signal: signal.json().id, recipe: { method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 2 } } });
+    expect(job.statusCode).toBeLessThan(300);
+    expect(String(job.headers.warning)).toContain('/recipe/epoching/lengthSeconds');
   });
 });

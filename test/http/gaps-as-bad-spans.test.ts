@@ -65,7 +65,7 @@ describe('when a continuous recording has a run of non-finite samples', () => {
 
   it('should leave out the epochs that epoching cuts across the gap', async () => {
     const withGap = await post('/v1/signals', { samplingRate: fs, channels: ['Fz', 'Cz', 'Pz', 'Oz'], nonFinite: 'keep', data: recording(null) });
-    const r = await record(withGap.json().id, { method: 'multitaper', nonFinite: 'bad-span', epoching: { mode: 'fixed', lengthSeconds: 4 } });
+    const r = await record(withGap.json().id, { method: 'multitaper', nonFinite: 'bad-span', epoching: { mode: 'fixed', epochSeconds: 4 } });
     // 4-s epochs from 0 s: only the one starting at 20 s holds the gap; 14 of 15 remain.
     expect(r.result.epoching.kept).toHaveLength(14);
     expect(r.result.epoching.dropped.map((d: { startSeconds: number }) => d.startSeconds)).toEqual([20]);

@@ -111,7 +111,7 @@ describe('when connectivity is asked of one epoch', () => {
   });
 
   it('should accept the same signal cut into epochs', async () => {
-    const res = await submit(api, marked, { method: 'connectivity', segmentSeconds: 0.5, epoching: { mode: 'fixed', lengthSeconds: 2 } });
+    const res = await submit(api, marked, { method: 'connectivity', segmentSeconds: 0.5, epoching: { mode: 'fixed', epochSeconds: 2 } });
     expect(res.statusCode, res.body).toBe(202);
   });
 });

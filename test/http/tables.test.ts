@@ -169,7 +169,7 @@ describe('when a binary (float32) upload carries events', () => {
 
   it('should cut epochs inside the uploaded blocks and show their labels in the table', async () => {
     const id = (await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`)).json().id as string;
-    const submitted = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: id, recipe: { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-open', 'eyes-closed'], lengthSeconds: 2 } } } });
+    const submitted = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: id, recipe: { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-open', 'eyes-closed'], epochSeconds: 2 } } } });
     expect(submitted.statusCode, submitted.body).toBe(202);
     const job = await pollJob(api.app, submitted.json().id, 60_000, auth(KEYS.lab));
     expect(job.state, JSON.stringify(job.problem)).toBe('succeeded');
@@ -181,7 +181,7 @@ describe('when a binary (float32) upload carries events', () => {
 
   it('should refuse blocks epoching on a label whose events have no duration before queueing, naming the label', async () => {
     const id = (await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`)).json().id as string;
-    const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: id, recipe: { method: 'welch', epoching: { mode: 'blocks', labels: ['eyes-open', 'blink'], lengthSeconds: 2 } } } });
+    const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: id, recipe: { method: 'welch', epoching: { mode: 'blocks', labels: ['eyes-open', 'blink'], epochSeconds: 2 } } } });
     expect(res.statusCode).toBe(422);
     expect(res.json()).toMatchObject({ type: '/problems/recipe-unfit', pointer: '/recipe/epoching/labels/1' });
   });

@@ -127,7 +127,7 @@ describe('when the recipe asks for Morlet power around events', () => {
 
 describe('when the recipe asks for a spectrogram', () => {
   it('should show the burst at 10 Hz in the windows centred inside 0.3–0.6 s', async () => {
-    const { job, record } = await run({ method: 'spectrogram', windowSeconds: 0.2, stepSeconds: 0.05, frequencyRange: [0, 40], epoching: { mode: 'events', beforeSeconds: before, afterSeconds: after } });
+    const { job, record } = await run({ method: 'spectrogram', segmentSeconds: 0.2, stepSeconds: 0.05, frequencyRange: [0, 40], epoching: { mode: 'events', beforeSeconds: before, afterSeconds: after } });
     const { shape, values } = await matrix(job.id as string, 'power-0');
     const [T, F] = shape as [number, number];
     const k10 = record.result.frequencies.indexOf(10);
@@ -149,7 +149,7 @@ describe('when the recipe asks for connectivity', () => {
       channels: ['C3', 'C4', 'Pz'],
       data: [shared.map((v) => v + 0.1 * random.normal()), shared.map((v) => 0.8 * v + 0.1 * random.normal()), Array.from({ length: n }, () => random.normal())],
     };
-    const { record } = await run({ method: 'connectivity', segmentSeconds: 1, overlap: 0, epoching: { mode: 'fixed', lengthSeconds: 4 } }, signal);
+    const { record } = await run({ method: 'connectivity', segmentSeconds: 1, overlap: 0, epoching: { mode: 'fixed', epochSeconds: 4 } }, signal);
     const c = record.result.connectivity;
     const pair = (a: string, b: string) => c.pairs.find((p: { channels: string[] }) => p.channels[0] === a && p.channels[1] === b);
     const mean = (v: (number | null)[]) => v.filter((x): x is number => x !== null).reduce((s, x) => s + x, 0) / v.length;
@@ -173,7 +173,7 @@ describe('when connectivity meets flat channels', () => {
       data: [Array.from({ length: n }, () => random.normal()), new Array<number>(n).fill(0), new Array<number>(n).fill(12.5)],
     };
     const { job, record } = await run(
-      { method: 'connectivity', segmentSeconds: 1, overlap: 0.5, bands: [{ name: 'alpha', low: 8, high: 13 }], epoching: { mode: 'fixed', lengthSeconds: 4 } },
+      { method: 'connectivity', segmentSeconds: 1, overlap: 0.5, bands: [{ name: 'alpha', low: 8, high: 13 }], epoching: { mode: 'fixed', epochSeconds: 4 } },
       signal,
     );
     expect(job.state).toBe('succeeded');

@@ -91,7 +91,7 @@ describe('when the worker resolves a recipe against the loaded signal', () => {
   it('should refuse connectivity on the continuous recording but accept it cut into epochs', () => {
     const whole = normalizeRecipe({ method: 'connectivity' });
     expect(() => resolveRecipe(whole.recipe, whole.hash, recording)).toThrow(/at least 2 epochs/);
-    const cut = normalizeRecipe({ method: 'connectivity', epoching: { mode: 'fixed', lengthSeconds: 4 } });
+    const cut = normalizeRecipe({ method: 'connectivity', epoching: { mode: 'fixed', epochSeconds: 4 } });
     expect(resolveRecipe(cut.recipe, cut.hash, recording).derived.epochSamples).toBe(1024);
   });
 

@@ -50,6 +50,6 @@ export function connectivityRecord(): FeatureRecord {
   return recordOf(recording(), {
     method: 'connectivity',
     pairs: [['O1', 'O2'], ['F3', 'Oz']],
-    epoching: { mode: 'fixed', lengthSeconds: 2 },
+    epoching: { mode: 'fixed', epochSeconds: 2 },
   });
 }

@@ -144,7 +144,7 @@ describe('when a Welch record with label means, per-epoch spectra and confidence
 
 describe('when epochs are cut inside labelled blocks', () => {
   it('should tile each eyes-closed block with 2-s epochs every 1 s and label every row with its block', () => {
-    const record = recordOf(recording(), { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-closed/early', 'eyes-closed/late'], lengthSeconds: 2, stepSeconds: 1 } });
+    const record = recordOf(recording(), { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-closed/early', 'eyes-closed/late'], epochSeconds: 2, stepSeconds: 1 } });
     // demoRecording(6): eyes-closed blocks at 6, 18 (early) and 30, 42 s (late); a 6-s block holds epochs at +0, +1, +2, +3, +4 s.
     const expected = [6, 18, 30, 42].flatMap((onset) => [0, 1, 2, 3, 4].map((k) => [onset + k, `eyes-closed/${onset < 24 ? 'early' : 'late'}`]));
     const { rows } = csvTable(record, 'bands');
@@ -158,7 +158,7 @@ describe('when epochs are cut inside labelled blocks', () => {
 
 describe('when the record comes from part of a stored signal or from uploaded epochs', () => {
   it('should count epoch starts from the start of the stored signal, not of the view', () => {
-    const record = recordOf(recording(), { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'fixed', lengthSeconds: 2 } }, { start: 12, end: 20 });
+    const record = recordOf(recording(), { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'fixed', epochSeconds: 2 } }, { start: 12, end: 20 });
     const starts = csvTable(record, 'bands').rows.filter((r) => r.scope === 'epoch' && r.band === 'alpha' && r.channel === 'O1').map((r) => Number(r.epochStart));
     expect(starts).toEqual([12, 14, 16, 18]);
   });

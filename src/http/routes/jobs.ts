@@ -11,6 +11,7 @@ import { requireJob as findJob, unavailable } from '../job-access.js';
 import { importSignal } from '../imports.js';
 import { locatedUnder } from '../../common/errors.js';
 import { getRecipe, pinRecipe, planJob } from '../../jobs/plan.js';
+import { warnDeprecated } from '../deprecations.js';
 import { indexedRecordKey, indexJob } from '../../jobs/retention.js';
 import { getSignalMeta, storeSignal } from '../../stores/signals.js';
 import type { SignalMeta } from '../../stores/store.js';
@@ -124,6 +125,7 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
           break;
       }
       const pinned = typeof recipe === 'string' ? await getRecipe(store, recipe, '/recipe') : await locatedUnder('/recipe', () => pinRecipe(store, recipe));
+      if (typeof recipe !== 'string') warnDeprecated(reply, recipe, '/recipe');
       const { jobId, spec } = planJob(config.recipeLimits, meta, pinned, view, labels);
       let submitted;
       try {

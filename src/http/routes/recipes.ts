@@ -4,6 +4,7 @@ import type { AppDeps } from '../app.js';
 import { IdParams, PinnedRecipeSchema, problemResponse } from '../schemas.js';
 import { RecipeSchema } from '../../recipes/schema.js';
 import { getRecipe, pinRecipe } from '../../jobs/plan.js';
+import { warnDeprecated } from '../deprecations.js';
 import { zodValidator } from '../validation.js';
 
 export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
@@ -24,6 +25,7 @@ export const recipeRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app
     },
     async (request, reply) => {
       const { id, hash, recipe } = await pinRecipe(deps.store, request.body);
+      warnDeprecated(reply, request.body, '');
       return reply.code(201).header('location', `/v1/recipes/${id}`).send({ id, hash, recipe });
     },
   );
