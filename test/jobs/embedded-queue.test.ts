@@ -57,7 +57,7 @@ describe('when the embedded queue restarts with a job that was running', () => {
     const queue = await EmbeddedQueue.open({ store, storeConfig: { kind: 'filesystem', dataDir }, pool: idlePool, maxAttempts });
     const { job } = await queue.submit(spec, 'job_restart');
     for (let i = 0; i < 100 && (await queue.get(job.id))?.state !== 'running'; i++) await new Promise((r) => setTimeout(r, 5));
-    // Let the durable "running" write land, as the computation would have begun by then.
+    // Let the "running" write land, as the computation would have begun by then.
     await new Promise((r) => setTimeout(r, 50));
     await end(queue);
     return job.id;
