@@ -1,7 +1,7 @@
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it } from 'vitest';
 import { createLogger } from '../../src/cli/runtime.js';
 import { DomainError, toProblem } from '../../src/common/errors.js';
 import { loadConfig } from '../../src/config.js';
@@ -9,7 +9,7 @@ import { buildApp } from '../../src/http/app.js';
 import type { ComputePool } from '../../src/jobs/compute-pool.js';
 import { EmbeddedQueue } from '../../src/jobs/embedded-queue.js';
 import { FilesystemStore } from '../../src/stores/filesystem-store.js';
-import { startTestApi } from '../helpers/app.js';
+import { useTestApi } from '../helpers/app.js';
 
 const fs = 250;
 /** A sinusoid of amplitude A µV and frequency f Hz, `seconds` long. */
@@ -23,24 +23,17 @@ const smallJob = (amplitude: number) => ({
 });
 
 describe('when a client submits a small job with ?wait', () => {
-  type Api = Awaited<ReturnType<typeof startTestApi>>;
-  let api: Api;
-  beforeAll(async () => {
-    api = await startTestApi();
-  });
-  afterAll(async () => {
-    await api.stop();
-  });
+  const api = useTestApi();
 
   it('should answer 200 with the finished job and its resultHash in one request', async () => {
-    const res = await api.app.inject({ method: 'POST', url: '/v1/jobs?wait=20', payload: smallJob(2) });
+    const res = await api().app.inject({ method: 'POST', url: '/v1/jobs?wait=20', payload: smallJob(2) });
     expect(res.statusCode).toBe(200);
     const job = res.json();
     expect(job).toMatchObject({ state: 'succeeded', progress: 1, problem: null });
     expect(job.resultHash).toMatch(/^[0-9a-f]{64}$/);
     expect(res.headers.location).toBe(`/v1/jobs/${job.id}`);
 
-    const record = (await api.app.inject({ method: 'GET', url: `/v1/jobs/${job.id}/record` })).json();
+    const record = (await api().app.inject({ method: 'GET', url: `/v1/jobs/${job.id}/record` })).json();
     expect(record.resultHash).toBe(job.resultHash);
     // Common practice (docs/references.md §4): a sinusoid of amplitude A has mean-square power A²/2,
     // and with a periodic Hann window an on-bin 10 Hz tone stays inside the alpha band.
@@ -49,38 +42,31 @@ describe('when a client submits a small job with ?wait', () => {
   });
 
   it('should answer an identical finished job 200 at once, with or without a wait', async () => {
-    const first = await api.app.inject({ method: 'POST', url: '/v1/jobs?wait=20', payload: smallJob(3) });
+    const first = await api().app.inject({ method: 'POST', url: '/v1/jobs?wait=20', payload: smallJob(3) });
     expect(first.statusCode).toBe(200);
-    const again = await api.app.inject({ method: 'POST', url: '/v1/jobs?wait=0.5', payload: smallJob(3) });
+    const again = await api().app.inject({ method: 'POST', url: '/v1/jobs?wait=0.5', payload: smallJob(3) });
     expect(again.statusCode).toBe(200);
     expect(again.json()).toMatchObject({ id: first.json().id, state: 'succeeded', resultHash: first.json().resultHash });
   });
 });
 
 describe('when the wait is not a number of seconds within MAX_WAIT_SECONDS', () => {
-  type Api = Awaited<ReturnType<typeof startTestApi>>;
-  let api: Api;
-  beforeAll(async () => {
-    api = await startTestApi({ MAX_WAIT_SECONDS: '5' });
-  });
-  afterAll(async () => {
-    await api.stop();
-  });
+  const api = useTestApi({ MAX_WAIT_SECONDS: '5' });
 
   it.each(['abc', '-1', '6', 'Infinity'])('should answer 400 naming the query parameter for wait=%s and queue nothing', async (wait) => {
-    const res = await api.app.inject({ method: 'POST', url: `/v1/jobs?wait=${wait}`, payload: smallJob(4) });
+    const res = await api().app.inject({ method: 'POST', url: `/v1/jobs?wait=${wait}`, payload: smallJob(4) });
     expect(res.statusCode).toBe(400);
     expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
     const problem = res.json();
     expect(problem.pointer).toBe('/query/wait');
     expect(problem.detail).toMatch(/query parameter \/query\/wait/);
     if (wait === '6') expect(problem.detail).toMatch(/at most 5 seconds.*MAX_WAIT_SECONDS/);
-    const listed = (await api.app.inject({ method: 'GET', url: '/v1/jobs' })).json();
+    const listed = (await api().app.inject({ method: 'GET', url: '/v1/jobs' })).json();
     expect(listed.jobs).toEqual([]);
   });
 
   it('should answer 400 for an unknown query parameter, so a misspelt wait is never ignored', async () => {
-    const res = await api.app.inject({ method: 'POST', url: '/v1/jobs?wiat=5', payload: smallJob(4) });
+    const res = await api().app.inject({ method: 'POST', url: '/v1/jobs?wiat=5', payload: smallJob(4) });
     expect(res.statusCode).toBe(400);
     expect(res.json().detail).toMatch(/wiat/);
   });
