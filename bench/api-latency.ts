@@ -5,9 +5,10 @@
  * - 200 fresh jobs: POST /v1/jobs with an inline 32 ch × 2 s × 256 Hz seeded signal that differs per
  *   request and recipe {method: welch, segmentSeconds: 1}, then GET /v1/jobs/:id every 1 ms until the
  *   job finishes; the figure is submit → succeeded.
+ * - 200 fresh jobs with POST /v1/jobs?wait=10: one request, answered once the job has finished.
  * - 200 repeats of one finished submission, answered 200 from the stored record: POST round trip.
  *
- * Bounded: at most 200 + 200 requests (plus 5 warm-up jobs) and 120 s, whichever comes first.
+ * Bounded: at most 200 + 200 jobs and 200 repeats (plus 5 warm-up jobs) and 120 s, whichever comes first.
  * Prints figures, never asserts. Run: npx tsx bench/api-latency.ts
  */
 import { mkdtemp, rm } from 'node:fs/promises';
@@ -28,6 +29,7 @@ const JOBS = 200;
 const REPEATS = 200;
 const WARM_UP = 5;
 const POLL_MS = 1;
+const WAIT_SECONDS = 10;
 const BOUND_MS = 120_000;
 const RECIPE = { method: 'welch', segmentSeconds: 1 };
 const FINISHED = new Set(['succeeded', 'failed', 'canceled']);
@@ -88,8 +90,8 @@ export async function benchApiLatency(): Promise<string[]> {
     const { port } = api.app.server.address() as AddressInfo;
     const base = `http://127.0.0.1:${port}`;
 
-    const submit = async (body: string) => {
-      const res = await fetch(`${base}/v1/jobs`, {
+    const submit = async (body: string, query = '') => {
+      const res = await fetch(`${base}/v1/jobs${query}`, {
         method: 'POST',
         headers: { 'content-type': 'application/json' },
         body,
@@ -109,6 +111,12 @@ export async function benchApiLatency(): Promise<string[]> {
       }
       return { ms: performance.now() - t0, state };
     };
+    const waitJob = async (body: string): Promise<{ ms: number; state: string }> => {
+      const t0 = performance.now();
+      const { status, job } = await submit(body, `?wait=${WAIT_SECONDS}`);
+      const state = status === 200 || status === 202 ? (job.state ?? 'unknown') : `HTTP ${status}: ${job.detail ?? ''}`;
+      return { ms: performance.now() - t0, state: status === 202 ? `202 after the wait (${state})` : state };
+    };
 
     lines.push(
       `api latency: embedded mode, ${config.workerThreads} worker thread(s), loopback HTTP (fetch), one job in flight; ` +
@@ -116,28 +124,33 @@ export async function benchApiLatency(): Promise<string[]> {
     );
     const first = jobBody(1);
     lines.push(`  body ${(first.length / 1024).toFixed(0)} KiB per job; ${WARM_UP} warm-up jobs not counted`);
-    const latencies: number[] = [];
-    const failures = new Map<string, number>();
-    let done = 0;
-    try {
-      for (let w = 0; w < WARM_UP; w++) await runJob(jobBody(1_000_000 + w));
-      for (let i = 0; i < JOBS; i++) {
-        const body = i === 0 ? first : jobBody(1 + i);
-        const { ms, state } = await runJob(body);
-        done++;
-        if (state === 'succeeded') latencies.push(ms);
-        else failures.set(state, (failures.get(state) ?? 0) + 1);
+    /** Fresh jobs one at a time through `run`; figures on the succeeded ones. */
+    const freshJobs = async (label: string, run: (body: string) => Promise<{ ms: number; state: string }>, seedBase: number): Promise<number[]> => {
+      const latencies: number[] = [];
+      const failures = new Map<string, number>();
+      let done = 0;
+      try {
+        for (let w = 0; w < WARM_UP; w++) await run(jobBody(seedBase + 1_000_000 + w));
+        for (let i = 0; i < JOBS; i++) {
+          const { ms, state } = await run(seedBase === 0 && i === 0 ? first : jobBody(seedBase + 1 + i));
+          done++;
+          if (state === 'succeeded') latencies.push(ms);
+          else failures.set(state, (failures.get(state) ?? 0) + 1);
+        }
+      } catch (error) {
+        if (!isStop(error)) throw error;
+        lines.push(`  ${label}: stopped at the ${BOUND_MS / 1000} s bound after ${done} of ${JOBS} fresh jobs`);
       }
-    } catch (error) {
-      if (!isStop(error)) throw error;
-      lines.push(`  stopped at the ${BOUND_MS / 1000} s bound after ${done} of ${JOBS} fresh jobs`);
-    }
-    if (latencies.length > 0) {
-      const seconds = total(latencies) / 1000;
-      lines.push(`  fresh jobs, submit → succeeded (${latencies.length} succeeded): ${summary(latencies, [50, 90, 99, 100])}`);
-      lines.push(`  fresh jobs: ${(latencies.length / seconds).toFixed(1)} jobs/s one at a time (${seconds.toFixed(2)} s of submit → succeeded; each job is 1 POST + its polls)`);
-    }
-    for (const [state, count] of failures) lines.push(`  fresh jobs not succeeded: ${count} × ${state}`);
+      if (latencies.length > 0) {
+        const seconds = total(latencies) / 1000;
+        lines.push(`  ${label}, submit → succeeded (${latencies.length} succeeded): ${summary(latencies, [50, 90, 99, 100])}`);
+        lines.push(`  ${label}: ${(latencies.length / seconds).toFixed(1)} jobs/s one at a time (${seconds.toFixed(2)} s of submit → succeeded)`);
+      }
+      for (const [state, count] of failures) lines.push(`  ${label}, not succeeded: ${count} × ${state}`);
+      return latencies;
+    };
+    const latencies = await freshJobs('fresh jobs, polling', runJob, 0);
+    await freshJobs(`fresh jobs, ?wait=${WAIT_SECONDS}`, waitJob, 10_000_000);
 
     const repeated: number[] = [];
     const statuses = new Map<number, number>();

@@ -57,6 +57,7 @@ const EnvSchema = z.object({
   UPLOAD_EXPIRY_SECONDS: int(86_400),
   RECORD_CACHE_BYTES: int(64 * 1024 * 1024, 0),
   STUDY_RUN_WINDOW: z.coerce.number().int().min(1).optional(),
+  MAX_WAIT_SECONDS: int(30, 0),
 });
 
 export interface Config {
@@ -112,6 +113,8 @@ export interface Config {
   recordCacheBytes: number;
   /** jobs of one study run in the queue at once (fairness towards other jobs) */
   studyRunWindow: number;
+  /** seconds a `POST /v1/jobs?wait=` may hold its request for the job to finish; 0 = no waiting */
+  maxWaitSeconds: number;
 }
 
 export const ROLES = ['read', 'submit', 'admin'] as const;
@@ -196,6 +199,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     // A run keeps at most this many of its jobs in the queue at once, so other jobs wait behind a
     // few of a run's, never behind all of them; by default one per job thread.
     studyRunWindow: e.STUDY_RUN_WINDOW ?? threading.workerThreads,
+    maxWaitSeconds: e.MAX_WAIT_SECONDS,
   };
   return deepFreeze(config);
 }

@@ -87,7 +87,7 @@ export interface paths {
         put?: never;
         /**
          * Submit an analysis
-         * @description The signal is a stored signal id or an inline upload; the recipe is a pinned recipe id or an inline recipe. The recipe is checked against the signal before anything is queued. An identical job that already succeeded answers 200 with its finished state and is not computed again.
+         * @description The signal is a stored signal id or an inline upload; the recipe is a pinned recipe id or an inline recipe. The recipe is checked against the signal before anything is queued. An identical job that already succeeded answers 200 with its finished state and is not computed again. With `?wait=<seconds>` the request is held until the job finishes, so a client need not poll: 200 with the finished job when it finishes in time, else 202.
          */
         post: operations["submitJob"];
         delete?: never;
@@ -4952,7 +4952,10 @@ export interface operations {
     };
     submitJob: {
         parameters: {
-            query?: never;
+            query?: {
+                /** @description seconds (decimals allowed, at most MAX_WAIT_SECONDS, 30 by default) to hold the request for the job to finish: a job that finishes in time is answered 200 with its final state (resultHash, or the failed job's problem); otherwise 202 as without it */
+                wait?: number;
+            };
             header?: never;
             path?: never;
             cookie?: never;
@@ -4963,7 +4966,7 @@ export interface operations {
             };
         };
         responses: {
-            /** @description an identical job already exists */
+            /** @description finished: an identical job had already succeeded, or the job finished within ?wait */
             200: {
                 headers: {
                     "x-request-id": components["headers"]["RequestId"];
@@ -4973,7 +4976,7 @@ export interface operations {
                     "application/json": components["schemas"]["Job"];
                 };
             };
-            /** @description queued */
+            /** @description queued or running (also when ?wait passed before the job finished) */
             202: {
                 headers: {
                     location: components["headers"]["Location"];
@@ -4984,7 +4987,7 @@ export interface operations {
                     "application/json": components["schemas"]["Job"];
                 };
             };
-            /** @description malformed request */
+            /** @description malformed request or query parameter (e.g. wait beyond MAX_WAIT_SECONDS) */
             400: {
                 headers: {
                     "x-request-id": components["headers"]["RequestId"];

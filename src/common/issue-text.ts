@@ -86,6 +86,8 @@ function range(issue: SchemaIssue, given: unknown, field: string): string {
   }
   let text = `must be ${relation} ${String(bound)}${unitText}; got ${quote(given)}`;
   if (unit === 'fraction' && big && typeof given === 'number' && given > 1 && given <= 100) text += `; did you mean ${given / 100}?`;
+  // A schema's own wording (e.g. which setting sets the bound) is kept; zod's default adds nothing.
+  if (issue.message && !/^(Too big|Too small|Invalid input)/.test(issue.message)) text += ` (${issue.message})`;
   return text;
 }
 

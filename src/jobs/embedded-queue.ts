@@ -113,6 +113,21 @@ export class EmbeddedQueue implements JobQueue {
     const view = newJobView(jobId, spec, new Date().toISOString());
     const entry: Entry = { view, spec, abort: null, shutdowns: 0, crashes: 0, stopped: false };
     this.entries.set(jobId, entry);
+    if (!this.closed && this.running < this.concurrency && this.pending.length === 0) {
+      // A free thread: one flushed write both accepts the job and counts its start.
+      this.begin(entry);
+      try {
+        await this.persist(entry, true);
+      } catch (error) {
+        this.running--;
+        entry.abort = null;
+        if (existing) this.entries.set(jobId, existing);
+        else this.entries.delete(jobId);
+        throw error;
+      }
+      this.launch(entry, true);
+      return { job: { ...view }, created: true };
+    }
     await this.persist(entry);
     this.pending.push(jobId);
     this.pump();
@@ -201,26 +216,40 @@ export class EmbeddedQueue implements JobQueue {
       const id = this.pending.shift()!;
       const entry = this.entries.get(id);
       if (!entry || entry.view.state !== 'queued') continue;
-      this.running++;
-      void this.execute(entry).finally(() => {
-        this.running--;
-        this.pump();
-      });
+      this.begin(entry);
+      this.launch(entry, false);
     }
   }
 
-  private async execute(entry: Entry): Promise<void> {
+  /** Takes a thread slot and marks the attempt started, in memory. */
+  private begin(entry: Entry): void {
+    this.running++;
     const { view } = entry;
     view.state = 'running';
     view.startedAt = new Date().toISOString();
     view.attempts++;
     entry.stopped = false;
     entry.abort = new AbortController();
-    // Durable before the computation begins: if the computation takes the process down, the
-    // restart counts this start.
-    await this.persist(entry);
+  }
+
+  private launch(entry: Entry, startWritten: boolean): void {
+    void this.execute(entry, startWritten).finally(() => {
+      this.running--;
+      this.pump();
+    });
+  }
+
+  private async execute(entry: Entry, startWritten: boolean): Promise<void> {
+    const { view } = entry;
+    const abort = entry.abort!;
+    // Written before the computation begins, so that a restart counts this start if the
+    // computation takes the process down. Not flushed: a process that dies leaves its written
+    // files to the kernel, and only a power loss could drop the mark (the job then runs once more).
+    if (!startWritten) await this.persist(entry, false);
     try {
-      const output = await this.options.pool.run(entry.spec, this.options.storeConfig, 'embedded', (f) => (view.progress = f), entry.abort.signal);
+      // Closed or canceled while the start was being written.
+      abort.signal.throwIfAborted();
+      const output = await this.options.pool.run(entry.spec, this.options.storeConfig, 'embedded', (f) => (view.progress = f), abort.signal);
       if (output.ok) {
         view.resultHash = output.outcome.resultHash;
         view.progress = 1;
@@ -230,7 +259,7 @@ export class EmbeddedQueue implements JobQueue {
         await this.finish(entry, 'failed');
       }
     } catch (error) {
-      if (entry.abort.signal.aborted) {
+      if (abort.signal.aborted) {
         if (this.closed) return; // shutting down: the job stays running on disk and resumes on restart
         await this.finish(entry, 'canceled');
         return;
@@ -259,12 +288,12 @@ export class EmbeddedQueue implements JobQueue {
   }
 
   /**
-   * Acceptance (queued) and attempt counts are flushed to disk; the finished state need not be: if a
-   * power loss drops it, the job runs again on restart and finds its durable record at once.
+   * Acceptance (queued) and shutdown marks are flushed to disk; the start of an attempt and the
+   * finished state need not be: if a power loss drops the finished state, the job runs again on
+   * restart and finds its durable record at once. A flush costs a small job several milliseconds.
    */
-  private persist(entry: Entry): Promise<void> {
+  private persist(entry: Entry, durable = entry.view.state === 'queued' || entry.view.state === 'running'): Promise<void> {
     const { view } = entry;
-    const durable = view.state === 'queued' || view.state === 'running';
     const stored: StoredJob = { view, spec: entry.spec, shutdowns: entry.shutdowns, crashes: entry.crashes, stopped: entry.stopped };
     const write = this.options.store.putDocument('jobs', view.id, JSON.stringify(stored), { durable });
     const tracked = write.then(() => undefined, () => undefined).finally(() => this.writes.delete(tracked));

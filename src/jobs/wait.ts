@@ -13,3 +13,31 @@ export async function waitForJob(queue: Pick<JobQueue, 'get'>, jobId: string, ti
     intervalMs *= 2;
   }
 }
+
+/**
+ * The job once it finishes, or its state when `timeoutMs` passes or `signal` aborts first; null
+ * when the queue does not know it. Woken by the queue's finished notification rather than by
+ * polling, so a small job is answered as soon as its state is set.
+ *
+ * @param timeoutMs - longest wait, in milliseconds
+ */
+export async function settledJob(queue: Pick<JobQueue, 'get' | 'onFinished'>, jobId: string, timeoutMs: number, signal?: AbortSignal): Promise<JobView | null> {
+  let wake = (_job: JobView | null) => {};
+  const woken = new Promise<JobView | null>((resolve) => (wake = resolve));
+  // Listen before reading the state, so that a job finishing in between is not missed.
+  const unsubscribe = queue.onFinished((job) => {
+    if (job.id === jobId) wake(job);
+  });
+  const timer = setTimeout(() => wake(null), timeoutMs);
+  const onAbort = () => wake(null);
+  signal?.addEventListener('abort', onAbort, { once: true });
+  try {
+    const current = await queue.get(jobId);
+    if (!current || isFinished(current.state) || timeoutMs <= 0 || signal?.aborted) return current;
+    return (await woken) ?? (await queue.get(jobId));
+  } finally {
+    clearTimeout(timer);
+    signal?.removeEventListener('abort', onAbort);
+    unsubscribe();
+  }
+}

@@ -2,6 +2,7 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Writable } from 'node:stream';
+import { afterAll, beforeAll } from 'vitest';
 import { loadConfig } from '../../src/config.js';
 import { createLogger, startApi } from '../../src/cli/runtime.js';
 
@@ -33,6 +34,18 @@ export async function startTestApi(env: Record<string, string> = {}) {
       await rm(dataDir, { recursive: true, force: true });
     },
   };
+}
+
+/** An API started before the tests of the enclosing `describe` and stopped after them; call `api()` inside a test. */
+export function useTestApi(env: Record<string, string> = {}): () => Awaited<ReturnType<typeof startTestApi>> {
+  let api: Awaited<ReturnType<typeof startTestApi>> | null = null;
+  beforeAll(async () => {
+    api = await startTestApi(env);
+  });
+  afterAll(async () => {
+    await api?.stop();
+  });
+  return () => api!;
 }
 
 /** Polls a job through the API until it finishes. */

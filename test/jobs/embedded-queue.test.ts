@@ -35,7 +35,9 @@ describe('when the embedded queue closes while a job-state write is under way', 
       return put(kind, key, text, options);
     };
     const queue = await EmbeddedQueue.open({ store, storeConfig: { kind: 'filesystem', dataDir }, pool: idlePool });
-    const { job } = await queue.submit(spec, 'job_close');
+    // A job that finds a free thread is accepted with its start written, so submit waits too.
+    const submitting = queue.submit(spec, 'job_close');
+    const job = { id: 'job_close' };
     for (let i = 0; i < 100 && (await queue.get(job.id))?.state !== 'running'; i++) await new Promise((r) => setTimeout(r, 5));
     expect((await queue.get(job.id))?.state).toBe('running');
 
@@ -45,6 +47,7 @@ describe('when the embedded queue closes while a job-state write is under way', 
     expect(closed).toBe(false);
     release();
     await closing;
+    await submitting;
 
     const stored = JSON.parse((await store.getDocument('jobs', job.id))!) as { view: { state: string; attempts: number } };
     expect(stored.view).toMatchObject({ state: 'running', attempts: 1 });
@@ -57,7 +60,7 @@ describe('when the embedded queue restarts with a job that was running', () => {
     const queue = await EmbeddedQueue.open({ store, storeConfig: { kind: 'filesystem', dataDir }, pool: idlePool, maxAttempts });
     const { job } = await queue.submit(spec, 'job_restart');
     for (let i = 0; i < 100 && (await queue.get(job.id))?.state !== 'running'; i++) await new Promise((r) => setTimeout(r, 5));
-    // Let the durable "running" write land, as the computation would have begun by then.
+    // Let the "running" write land, as the computation would have begun by then.
     await new Promise((r) => setTimeout(r, 50));
     await end(queue);
     return job.id;

@@ -1,7 +1,8 @@
 import type { FastifyRequest } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { decodeCursor, encodeCursor, type JobListFilter } from '../../jobs/list.js';
-import { JOB_STATES, type JobView } from '../../jobs/spec.js';
+import { isFinished, JOB_STATES, type JobView } from '../../jobs/spec.js';
+import { settledJob } from '../../jobs/wait.js';
 import { METHODS } from '../../recipes/schema.js';
 import { decodeJsonSignal } from '../../signals/decode-json.js';
 import type { SignalView } from '../../signals/view.js';
@@ -57,6 +58,17 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
 
   const requireJob = (id: string, tenant: string): Promise<JobView> => findJob(queue, id, tenant);
 
+  const SubmitQuery = z.strictObject({
+    wait: z.coerce
+      .number()
+      .min(0)
+      .max(config.maxWaitSeconds, `at most ${config.maxWaitSeconds} seconds on this server (MAX_WAIT_SECONDS)`)
+      .optional()
+      .describe(
+        `seconds (decimals allowed, at most MAX_WAIT_SECONDS, ${config.maxWaitSeconds} by default) to hold the request for the job to finish: a job that finishes in time is answered 200 with its final state (resultHash, or the failed job's problem); otherwise 202 as without it`,
+      ),
+  });
+
   /**
    * The record key of the request's job once it has succeeded. While the queue is down, a record
    * that is already stored (or, with STORE=redis, cached by this API) is still served.
@@ -75,6 +87,25 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
     }
   }
 
+  /**
+   * The job once it finishes within `waitMs`, else its latest state. Stops waiting when the client
+   * goes away. The job is queued whatever happens here, so a queue fault answers the state known.
+   */
+  async function finishedWithin(jobId: string, known: JobView, waitMs: number, request: FastifyRequest, response: NodeJS.EventEmitter): Promise<JobView> {
+    if (isFinished(known.state)) return known;
+    const gone = new AbortController();
+    const abandon = () => gone.abort();
+    response.once('close', abandon);
+    try {
+      return (await settledJob(queue, jobId, waitMs, gone.signal)) ?? known;
+    } catch (error) {
+      request.log.warn({ err: error, jobId }, 'waiting for the job failed; answering its last known state');
+      return known;
+    } finally {
+      response.off('close', abandon);
+    }
+  }
+
   app.post(
     '/v1/jobs',
     {
@@ -89,20 +120,21 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       schema: {
         summary: 'Submit an analysis',
         description:
-          'The signal is a stored signal id or an inline upload; the recipe is a pinned recipe id or an inline recipe. The recipe is checked against the signal before anything is queued. An identical job that already succeeded answers 200 with its finished state and is not computed again.',
+          'The signal is a stored signal id or an inline upload; the recipe is a pinned recipe id or an inline recipe. The recipe is checked against the signal before anything is queued. An identical job that already succeeded answers 200 with its finished state and is not computed again. With `?wait=<seconds>` the request is held until the job finishes, so a client need not poll: 200 with the finished job when it finishes in time, else 202.',
         tags: ['jobs'],
+        querystring: SubmitQuery,
         body: JobRequestSchema,
         response: {
-          200: JobViewSchema.describe('an identical job already exists'),
-          202: JobViewSchema.describe('queued'),
-          400: problemResponse('malformed request'),
+          200: JobViewSchema.describe('finished: an identical job had already succeeded, or the job finished within ?wait'),
+          202: JobViewSchema.describe('queued or running (also when ?wait passed before the job finished)'),
+          400: problemResponse('malformed request or query parameter (e.g. wait beyond MAX_WAIT_SECONDS)'),
           404: problemResponse('unknown signal or recipe id'),
           413: problemResponse('body too large'),
           422: problemResponse('the recipe is invalid or does not fit the signal'),
           503: problemResponse('the queue is unavailable; retry after Retry-After seconds'),
         },
       },
-      validatorCompiler: zodValidator({ body: JobRequestEnvelope }, { parsedBody: true }),
+      validatorCompiler: zodValidator({ body: JobRequestEnvelope, querystring: SubmitQuery }, { parsedBody: true }),
     },
     async (request, reply) => {
       const { signal, recipe, labels } = request.body as unknown as JobRequest;
@@ -137,8 +169,10 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       deps.metrics?.jobSubmitted(spec.recipe.method, submitted.created);
       if (submitted.created) await indexJob(store, queue, jobId, spec);
       request.log.info({ jobId, created: submitted.created, signalId: meta.id, recipeId: pinned.id }, 'job submitted');
-      const status = !submitted.created && submitted.job.state === 'succeeded' ? 200 : 202;
-      return reply.code(status).header('location', `/v1/jobs/${jobId}`).send(presentJob(submitted.job));
+      const waitMs = (request.query.wait ?? 0) * 1000;
+      const job = waitMs > 0 ? await finishedWithin(jobId, submitted.job, waitMs, request, reply.raw) : submitted.job;
+      const status = job.state === 'succeeded' || (waitMs > 0 && isFinished(job.state)) ? 200 : 202;
+      return reply.code(status).header('location', `/v1/jobs/${jobId}`).send(presentJob(job));
     },
   );
 
