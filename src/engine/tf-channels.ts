@@ -62,7 +62,7 @@ export function attachment(name: string, kind: string, channel: string | null, s
 function canonicalizeNaN(data: Float64Array): void {
   let words: Uint32Array | null = null;
   for (let i = 0; i < data.length; i++) {
-    if (data[i] === data[i]) continue;
+    if (!Number.isNaN(data[i]!)) continue;
     words ??= new Uint32Array(data.buffer, data.byteOffset, data.length * 2);
     // little-endian layout, as the attachment's dtype float64-le says
     words[2 * i] = 0;
