@@ -171,7 +171,10 @@ export const jobRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) =
       request.log.info({ jobId, created: submitted.created, signalId: meta.id, recipeId: pinned.id }, 'job submitted');
       const waitMs = (request.query.wait ?? 0) * 1000;
       const job = waitMs > 0 ? await finishedWithin(jobId, submitted.job, waitMs, request, reply.raw) : submitted.job;
-      const status = job.state === 'succeeded' || (waitMs > 0 && isFinished(job.state)) ? 200 : 202;
+      // 200 for a job that had already succeeded (an identical earlier submission), or one that
+      // finished within the asked wait; a job created by this request is otherwise accepted (202),
+      // however quickly a worker happens to finish it.
+      const status = (!submitted.created && submitted.job.state === 'succeeded') || (waitMs > 0 && isFinished(job.state)) ? 200 : 202;
       return reply.code(status).header('location', `/v1/jobs/${jobId}`).send(presentJob(job));
     },
   );
