@@ -162,125 +162,7 @@ export interface paths {
          * A plot of a succeeded job's record, as SVG
          * @description Kinds: `psd` (power spectral density per channel against frequency), `bands` (band power per channel as bars, absolute or relative), `time-frequency` (time–frequency power as a heat map with a colour bar, edge cells hatched), `connectivity` (coherence, imaginary coherency and phase locking per pair against frequency). The same record and options give the same bytes; the ETag is the SHA-256 of the SVG and If-None-Match answers 304. Options a kind does not use are ignored.
          */
-        get: {
-            parameters: {
-                query?: {
-                    /** @description comma-separated channel names, drawn in this order; default every channel */
-                    channels?: string;
-                    /** @description psd: draw per-epoch spectra faintly behind the mean, when the record has them (perEpoch) */
-                    epochs?: "true" | "false";
-                    /** @description "low,high" Hz, both included; default the record's frequencies above 0 Hz */
-                    frequencyRange?: string;
-                    /** @description px */
-                    height?: number;
-                    /** @description psd: power in dB re 1 unit²/Hz on a linear axis, or unit²/Hz on a log10 axis */
-                    scale?: "db" | "log10";
-                    /** @description bands: absolute power (unit²) or the fraction of the total over the recipe's frequency range */
-                    value?: "absolute" | "relative";
-                    /** @description px */
-                    width?: number;
-                };
-                header?: never;
-                path: {
-                    id: string;
-                    /** @description one of psd, bands, time-frequency, connectivity */
-                    kind: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description the plot */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "image/svg+xml": string;
-                    };
-                };
-                /** @description the plot has not changed (If-None-Match); no body */
-                304: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content?: never;
-                };
-                /** @description a malformed option or a channel the record does not have */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown job or plot kind */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the job has not succeeded */
-                409: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the kind does not fit the record's method */
-                422: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["getJobPlot"];
         put?: never;
         post?: never;
         delete?: never;
@@ -454,61 +336,7 @@ export interface paths {
          * State and progress of several jobs as one stream of server-sent events (text/event-stream)
          * @description One `state` event per change of any listed job; the stream ends when all have finished. Unknown ids are left out (listed in the first `unknown` event). At most 200 ids.
          */
-        get: {
-            parameters: {
-                query: {
-                    /** @description comma-separated job ids */
-                    ids: string;
-                };
-                header?: never;
-                path?: never;
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description no ids, or too many */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["streamJobsEvents"];
         put?: never;
         post?: never;
         delete?: never;
@@ -528,121 +356,7 @@ export interface paths {
          * Several jobs' PSDs of one channel overlaid, as SVG
          * @description For example two conditions of one subject: `?jobs=job_a,job_b&channel=Oz&labels=eyes%20closed,eyes%20open`. Every job must have succeeded with a spectral method. The same records and options give the same bytes; ETag and If-None-Match as for job plots.
          */
-        get: {
-            parameters: {
-                query: {
-                    /** @description the channel compared */
-                    channel: string;
-                    /** @description "low,high" Hz, both included; default the record's frequencies above 0 Hz */
-                    frequencyRange?: string;
-                    /** @description px */
-                    height?: number;
-                    /** @description comma-separated ids of two to six succeeded spectral jobs (welch, multitaper, periodogram) */
-                    jobs: string;
-                    /** @description comma-separated legend labels, one per job; default the job ids */
-                    labels?: string;
-                    /** @description psd: power in dB re 1 unit²/Hz on a linear axis, or unit²/Hz on a log10 axis */
-                    scale?: "db" | "log10";
-                    /** @description px */
-                    width?: number;
-                };
-                header?: never;
-                path?: never;
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description the plot */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "image/svg+xml": string;
-                    };
-                };
-                /** @description the plot has not changed (If-None-Match); no body */
-                304: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content?: never;
-                };
-                /** @description a malformed option or a channel a record does not have */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description an unknown job */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description a job has not succeeded */
-                409: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description a job is not spectral, or the spectra are in different units */
-                422: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["getComparePlot"];
         put?: never;
         post?: never;
         delete?: never;
@@ -751,168 +465,10 @@ export interface paths {
             cookie?: never;
         };
         /** The caller's studies, oldest first, a page at a time */
-        get: {
-            parameters: {
-                query?: {
-                    /** @description cursor: the `next` of the previous page */
-                    after?: string;
-                    limit?: number;
-                };
-                header?: never;
-                path?: never;
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description Default Response */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": {
-                            /** @description cursor of the next page; null on the last */
-                            next: string | null;
-                            studies: components["schemas"]["Study"][];
-                        };
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["listStudies"];
         put?: never;
         /** Create a study */
-        post: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path?: never;
-                cookie?: never;
-            };
-            requestBody: {
-                content: {
-                    "application/json": {
-                        description?: string;
-                        name: string;
-                    };
-                };
-            };
-            responses: {
-                /** @description Default Response */
-                201: {
-                    headers: {
-                        location: components["headers"]["Location"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": components["schemas"]["Study"];
-                    };
-                };
-                /** @description malformed request */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description body too large; large recordings go through the resumable upload (POST /v1/uploads) */
-                413: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unsupported content type; `accepted` lists the ones this route reads */
-                415: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        post: operations["createStudy"];
         delete?: never;
         options?: never;
         head?: never;
@@ -927,161 +483,11 @@ export interface paths {
             cookie?: never;
         };
         /** A study */
-        get: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path: {
-                    id: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description Default Response */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": components["schemas"]["Study"];
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["getStudy"];
         put?: never;
         post?: never;
         /** Delete a study, its entries and its runs (unfinished runs are canceled first); signals, jobs and records stay */
-        delete: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path: {
-                    id: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description Default Response */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": {
-                            /** @enum {boolean} */
-                            deleted: true;
-                            id: string;
-                        };
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        delete: operations["deleteStudy"];
         options?: never;
         head?: never;
         patch?: never;
@@ -1095,204 +501,10 @@ export interface paths {
             cookie?: never;
         };
         /** A study's entries in the order they were added, a page at a time */
-        get: {
-            parameters: {
-                query?: {
-                    /** @description cursor: the `next` of the previous page */
-                    after?: string;
-                    limit?: number;
-                };
-                header?: never;
-                path: {
-                    id: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description Default Response */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": {
-                            entries: components["schemas"]["StudyEntry"][];
-                            next: string | null;
-                        };
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["listStudyEntries"];
         put?: never;
         /** Add entries: a JSON list or a CSV manifest, all or nothing */
-        post: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path: {
-                    id: string;
-                };
-                cookie?: never;
-            };
-            /** @description JSON entries; or a CSV manifest (`Content-Type: text/csv`, RFC 4180, header row) with a `signal` or `upload` column, optional `start`, `end` (seconds) and `channels` (names separated by `;`), and one column per metadata key (a `subject` column is required; a header `age:number` makes a numeric column, other cells are text). The whole list is refused on the first fault, naming row and column; nothing is added then. */
-            requestBody: {
-                content: {
-                    "application/json": {
-                        entries: components["schemas"]["NewStudyEntryInput"][];
-                    };
-                };
-            };
-            responses: {
-                /** @description Default Response */
-                201: {
-                    headers: {
-                        location: components["headers"]["Location"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": {
-                            added: number;
-                            entries: components["schemas"]["StudyEntry"][];
-                        };
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description body too large; large recordings go through the resumable upload (POST /v1/uploads) */
-                413: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description neither JSON nor text/csv */
-                415: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description a row is refused (row, column and pointer say where); nothing was added */
-                422: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        post: operations["addStudyEntries"];
         delete?: never;
         options?: never;
         head?: never;
@@ -1310,85 +522,7 @@ export interface paths {
         put?: never;
         post?: never;
         /** Remove an entry (runs already started keep it) */
-        delete: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path: {
-                    entryId: string;
-                    id: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description Default Response */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": {
-                            /** @enum {boolean} */
-                            deleted: true;
-                            id: string;
-                        };
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study or entry */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        delete: operations["removeStudyEntry"];
         options?: never;
         head?: never;
         patch?: never;
@@ -1402,207 +536,13 @@ export interface paths {
             cookie?: never;
         };
         /** A study's runs, oldest first */
-        get: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path: {
-                    id: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description Default Response */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": {
-                            runs: components["schemas"]["StudyRun"][];
-                        };
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["listStudyRuns"];
         put?: never;
         /**
          * Run one recipe over the study (or the entries the filter selects), or retry the failed entries of a run
          * @description One ordinary job per entry, on the same queue as single jobs; an entry whose record exists already is not computed again. At most STUDY_RUN_WINDOW (here 2) of a run's jobs are queued at once; the next are queued as those finish, so other jobs never wait behind a whole run. An entry the recipe does not fit fails at once with its problem.
          */
-        post: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path: {
-                    id: string;
-                };
-                cookie?: never;
-            };
-            requestBody: {
-                content: {
-                    "application/json": components["schemas"]["StudyRunRequestInput"];
-                };
-            };
-            responses: {
-                /** @description Default Response */
-                202: {
-                    headers: {
-                        location: components["headers"]["Location"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": components["schemas"]["StudyRun"];
-                    };
-                };
-                /** @description malformed request, or no entry is selected */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study, recipe or run to retry */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description body too large; large recordings go through the resumable upload (POST /v1/uploads) */
-                413: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unsupported content type; `accepted` lists the ones this route reads */
-                415: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the recipe is invalid */
-                422: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the queue is unavailable */
-                503: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        post: operations["startStudyRun"];
         delete?: never;
         options?: never;
         head?: never;
@@ -1617,169 +557,11 @@ export interface paths {
             cookie?: never;
         };
         /** Progress of a run: counts per state, its failed entries with their problems, its state */
-        get: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path: {
-                    id: string;
-                    runId: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description Default Response */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": components["schemas"]["StudyRun"];
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study or run */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["getStudyRun"];
         put?: never;
         post?: never;
         /** Cancel a run: no more of its jobs are queued, and its queued and running jobs are canceled */
-        delete: {
-            parameters: {
-                query?: never;
-                header?: never;
-                path: {
-                    id: string;
-                    runId: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description Default Response */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/json": components["schemas"]["StudyRun"];
-                    };
-                };
-                /** @description malformed request (pointer names the field) */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study or run */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the run already finished */
-                409: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        delete: operations["cancelStudyRun"];
         options?: never;
         head?: never;
         patch?: never;
@@ -1796,122 +578,7 @@ export interface paths {
          * A study run's mean PSD of one channel per condition (or another metadata key), with its spread, as SVG
          * @description Groups the run's succeeded entries by the value of the metadata key `by` and draws, per group, the geometric mean PSD of the channel with ± 1 standard deviation of log power across the entries shaded. Entries without the key form the group "(none)". ETag and If-None-Match as for job plots.
          */
-        get: {
-            parameters: {
-                query: {
-                    /** @description the metadata key whose values group the entries */
-                    by?: string;
-                    /** @description the channel drawn */
-                    channel: string;
-                    /** @description "low,high" Hz, both included; default the record's frequencies above 0 Hz */
-                    frequencyRange?: string;
-                    /** @description px */
-                    height?: number;
-                    /** @description psd: power in dB re 1 unit²/Hz on a linear axis, or unit²/Hz on a log10 axis */
-                    scale?: "db" | "log10";
-                    /** @description px */
-                    width?: number;
-                };
-                header?: never;
-                path: {
-                    id: string;
-                    runId: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description the plot */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "image/svg+xml": string;
-                    };
-                };
-                /** @description the plot has not changed (If-None-Match); no body */
-                304: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content?: never;
-                };
-                /** @description a malformed option, an unknown metadata key or a channel the records do not have */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study or run */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no entry of the run has succeeded yet */
-                409: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the run's recipe is not spectral */
-                422: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["getStudyRunPsdPlot"];
         put?: never;
         post?: never;
         delete?: never;
@@ -2050,117 +717,7 @@ export interface paths {
          *     | `imaginaryCoherency` | double | 1 | imaginary part of coherency |
          *     | `phaseLocking` | double | 1 | phase-locking value across epochs; empty with fewer than 2 epochs |
          */
-        get: {
-            parameters: {
-                query?: {
-                    /** @description csv or parquet; default: from the Accept header, else csv */
-                    format?: "csv" | "parquet";
-                    /** @description the grain of a row; default: the first level the record gives (bands for spectra, summary for time–frequency, pair-bands for connectivity) */
-                    level?: "bands" | "ratios" | "features" | "spectra" | "quality" | "summary" | "pair-bands" | "pair-spectra";
-                };
-                header?: never;
-                path: {
-                    id: string;
-                    runId: string;
-                };
-                cookie?: never;
-            };
-            requestBody?: never;
-            responses: {
-                /** @description the table, streamed: RFC 4180 CSV with a header row, or Apache Parquet (typed columns, Snappy) */
-                200: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/vnd.apache.parquet": string;
-                        "text/csv": string;
-                    };
-                };
-                /** @description unknown level or format */
-                400: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no valid API key (Authorization: Bearer <key>) */
-                401: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the key's role does not cover this route */
-                403: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description unknown study or run */
-                404: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description Accept allows neither CSV nor Parquet */
-                406: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description no entry of the run has succeeded yet */
-                409: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description the records of this recipe cannot give the level */
-                422: {
-                    headers: {
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-                /** @description too many requests; Retry-After says when to try again */
-                429: {
-                    headers: {
-                        "retry-after": components["headers"]["RetryAfter"];
-                        "x-request-id": components["headers"]["RequestId"];
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
-            };
-        };
+        get: operations["getStudyRunTable"];
         put?: never;
         post?: never;
         delete?: never;
@@ -5341,7 +3898,7 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
-            /** @description A stream of `event: state` messages (RFC: the WHATWG HTML "server-sent events" format) whose `data` is the job as GET /v1/jobs/{id} answers it, sent on every change of state or progress; it ends after the finished state. Comment lines keep idle proxies from closing it. */
+            /** @description A stream of `event: state` messages (the WHATWG HTML "server-sent events" format) whose `data` is a job as GET /v1/jobs/{id} answers it, sent on every change of state or progress; it ends after the finished state. Comment lines keep idle proxies from closing it. */
             200: {
                 headers: {
                     "x-request-id": components["headers"]["RequestId"];
@@ -5383,6 +3940,133 @@ export interface operations {
             };
             /** @description unknown job */
             404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getJobPlot: {
+        parameters: {
+            query?: {
+                /** @description comma-separated channel names, drawn in this order; default every channel */
+                channels?: string;
+                /** @description psd: draw per-epoch spectra faintly behind the mean, when the record has them (perEpoch) */
+                epochs?: "true" | "false";
+                /** @description "low,high" Hz, both included; default the record's frequencies above 0 Hz */
+                frequencyRange?: string;
+                /** @description px */
+                height?: number;
+                /** @description psd: power in dB re 1 unit²/Hz on a linear axis, or unit²/Hz on a log10 axis */
+                scale?: "db" | "log10";
+                /** @description bands: absolute power (unit²) or the fraction of the total over the recipe's frequency range */
+                value?: "absolute" | "relative";
+                /** @description px */
+                width?: number;
+            };
+            header?: never;
+            path: {
+                id: string;
+                /** @description one of psd, bands, time-frequency, connectivity */
+                kind: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description the plot */
+            200: {
+                headers: {
+                    /** @description private, no-cache */
+                    "cache-control"?: string;
+                    /** @description the SHA-256 of the SVG, quoted; send it back as If-None-Match */
+                    etag?: string;
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "image/svg+xml": string;
+                };
+            };
+            /** @description the plot has not changed (If-None-Match); no body */
+            304: {
+                headers: {
+                    /** @description private, no-cache */
+                    "cache-control"?: string;
+                    /** @description the SHA-256 of the SVG, quoted; send it back as If-None-Match */
+                    etag?: string;
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description a malformed option or a channel the record does not have */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown job or plot kind */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the job has not succeeded */
+            409: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the kind does not fit the record's method */
+            422: {
                 headers: {
                     "x-request-id": components["headers"]["RequestId"];
                     [name: string]: unknown;
@@ -5507,6 +4191,10 @@ export interface operations {
             /** @description the table, streamed: RFC 4180 CSV with a header row, or Apache Parquet (typed columns, Snappy) */
             200: {
                 headers: {
+                    /** @description attachment; filename="<stem>.csv" or ".parquet" */
+                    "content-disposition"?: string;
+                    /** @description accept: the format may follow the Accept header */
+                    vary?: string;
                     "x-request-id": components["headers"]["RequestId"];
                     [name: string]: unknown;
                 };
@@ -5576,6 +4264,194 @@ export interface operations {
                 };
             };
             /** @description the record cannot give this level; `levels` lists those it gives */
+            422: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    streamJobsEvents: {
+        parameters: {
+            query: {
+                /** @description comma-separated job ids */
+                ids: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A stream of `event: state` messages (the WHATWG HTML "server-sent events" format) whose `data` is a job as GET /v1/jobs/{id} answers it, sent on every change of state or progress; first, if any id is unknown, one `event: unknown` message whose `data` is `{"ids": [...]}`; it ends once every listed job has finished. Comment lines keep idle proxies from closing it. */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/event-stream": string;
+                };
+            };
+            /** @description no ids, or too many */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getComparePlot: {
+        parameters: {
+            query: {
+                /** @description the channel compared */
+                channel: string;
+                /** @description "low,high" Hz, both included; default the record's frequencies above 0 Hz */
+                frequencyRange?: string;
+                /** @description px */
+                height?: number;
+                /** @description comma-separated ids of two to six succeeded spectral jobs (welch, multitaper, periodogram) */
+                jobs: string;
+                /** @description comma-separated legend labels, one per job; default the job ids */
+                labels?: string;
+                /** @description psd: power in dB re 1 unit²/Hz on a linear axis, or unit²/Hz on a log10 axis */
+                scale?: "db" | "log10";
+                /** @description px */
+                width?: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description the plot */
+            200: {
+                headers: {
+                    /** @description private, no-cache */
+                    "cache-control"?: string;
+                    /** @description the SHA-256 of the SVG, quoted; send it back as If-None-Match */
+                    etag?: string;
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "image/svg+xml": string;
+                };
+            };
+            /** @description the plot has not changed (If-None-Match); no body */
+            304: {
+                headers: {
+                    /** @description private, no-cache */
+                    "cache-control"?: string;
+                    /** @description the SHA-256 of the SVG, quoted; send it back as If-None-Match */
+                    etag?: string;
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description a malformed option or a channel a record does not have */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description an unknown job */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description a job has not succeeded */
+            409: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description a job is not spectral, or the spectra are in different units */
             422: {
                 headers: {
                     "x-request-id": components["headers"]["RequestId"];
@@ -6144,6 +5020,1188 @@ export interface operations {
             /** @description the remote server failed */
             502: {
                 headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    listStudies: {
+        parameters: {
+            query?: {
+                /** @description cursor: the `next` of the previous page */
+                after?: string;
+                limit?: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Default Response */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @description cursor of the next page; null on the last */
+                        next: string | null;
+                        studies: components["schemas"]["Study"][];
+                    };
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    createStudy: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    description?: string;
+                    name: string;
+                };
+            };
+        };
+        responses: {
+            /** @description Default Response */
+            201: {
+                headers: {
+                    location: components["headers"]["Location"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Study"];
+                };
+            };
+            /** @description malformed request */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description body too large; large recordings go through the resumable upload (POST /v1/uploads) */
+            413: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unsupported content type; `accepted` lists the ones this route reads */
+            415: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getStudy: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Default Response */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Study"];
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    deleteStudy: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Default Response */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @enum {boolean} */
+                        deleted: true;
+                        id: string;
+                    };
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    listStudyEntries: {
+        parameters: {
+            query?: {
+                /** @description cursor: the `next` of the previous page */
+                after?: string;
+                limit?: number;
+            };
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Default Response */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        entries: components["schemas"]["StudyEntry"][];
+                        next: string | null;
+                    };
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    addStudyEntries: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        /** @description JSON entries; or a CSV manifest (`Content-Type: text/csv`, RFC 4180, header row) with a `signal` or `upload` column, optional `start`, `end` (seconds) and `channels` (names separated by `;`), and one column per metadata key (a `subject` column is required; a header `age:number` makes a numeric column, other cells are text). The whole list is refused on the first fault, naming row and column; nothing is added then. */
+        requestBody: {
+            content: {
+                "application/json": {
+                    entries: components["schemas"]["NewStudyEntryInput"][];
+                };
+            };
+        };
+        responses: {
+            /** @description Default Response */
+            201: {
+                headers: {
+                    location: components["headers"]["Location"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        added: number;
+                        entries: components["schemas"]["StudyEntry"][];
+                    };
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description body too large; large recordings go through the resumable upload (POST /v1/uploads) */
+            413: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description neither JSON nor text/csv */
+            415: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description a row is refused (row, column and pointer say where); nothing was added */
+            422: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    removeStudyEntry: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                entryId: string;
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Default Response */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @enum {boolean} */
+                        deleted: true;
+                        id: string;
+                    };
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study or entry */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    listStudyRuns: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Default Response */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        runs: components["schemas"]["StudyRun"][];
+                    };
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    startStudyRun: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["StudyRunRequestInput"];
+            };
+        };
+        responses: {
+            /** @description Default Response */
+            202: {
+                headers: {
+                    location: components["headers"]["Location"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyRun"];
+                };
+            };
+            /** @description malformed request, or no entry is selected */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study, recipe or run to retry */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description body too large; large recordings go through the resumable upload (POST /v1/uploads) */
+            413: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unsupported content type; `accepted` lists the ones this route reads */
+            415: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the recipe is invalid */
+            422: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the queue is unavailable */
+            503: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getStudyRun: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                runId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Default Response */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyRun"];
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study or run */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    cancelStudyRun: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                runId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Default Response */
+            200: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyRun"];
+                };
+            };
+            /** @description malformed request (pointer names the field) */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study or run */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the run already finished */
+            409: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getStudyRunPsdPlot: {
+        parameters: {
+            query: {
+                /** @description the metadata key whose values group the entries */
+                by?: string;
+                /** @description the channel drawn */
+                channel: string;
+                /** @description "low,high" Hz, both included; default the record's frequencies above 0 Hz */
+                frequencyRange?: string;
+                /** @description px */
+                height?: number;
+                /** @description psd: power in dB re 1 unit²/Hz on a linear axis, or unit²/Hz on a log10 axis */
+                scale?: "db" | "log10";
+                /** @description px */
+                width?: number;
+            };
+            header?: never;
+            path: {
+                id: string;
+                runId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description the plot */
+            200: {
+                headers: {
+                    /** @description private, no-cache */
+                    "cache-control"?: string;
+                    /** @description the SHA-256 of the SVG, quoted; send it back as If-None-Match */
+                    etag?: string;
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "image/svg+xml": string;
+                };
+            };
+            /** @description the plot has not changed (If-None-Match); no body */
+            304: {
+                headers: {
+                    /** @description private, no-cache */
+                    "cache-control"?: string;
+                    /** @description the SHA-256 of the SVG, quoted; send it back as If-None-Match */
+                    etag?: string;
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description a malformed option, an unknown metadata key or a channel the records do not have */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study or run */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no entry of the run has succeeded yet */
+            409: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the run's recipe is not spectral */
+            422: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getStudyRunTable: {
+        parameters: {
+            query?: {
+                /** @description csv or parquet; default: from the Accept header, else csv */
+                format?: "csv" | "parquet";
+                /** @description the grain of a row; default: the first level the record gives (bands for spectra, summary for time–frequency, pair-bands for connectivity) */
+                level?: "bands" | "ratios" | "features" | "spectra" | "quality" | "summary" | "pair-bands" | "pair-spectra";
+            };
+            header?: never;
+            path: {
+                id: string;
+                runId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description the table, streamed: RFC 4180 CSV with a header row, or Apache Parquet (typed columns, Snappy) */
+            200: {
+                headers: {
+                    /** @description attachment; filename="<stem>.csv" or ".parquet" */
+                    "content-disposition"?: string;
+                    /** @description accept: the format may follow the Accept header */
+                    vary?: string;
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/vnd.apache.parquet": string;
+                    "text/csv": string;
+                };
+            };
+            /** @description unknown level or format */
+            400: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no valid API key (Authorization: Bearer <key>) */
+            401: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the key's role does not cover this route */
+            403: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description unknown study or run */
+            404: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Accept allows neither CSV nor Parquet */
+            406: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description no entry of the run has succeeded yet */
+            409: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description the records of this recipe cannot give the level */
+            422: {
+                headers: {
+                    "x-request-id": components["headers"]["RequestId"];
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description too many requests; Retry-After says when to try again */
+            429: {
+                headers: {
+                    "retry-after": components["headers"]["RetryAfter"];
                     "x-request-id": components["headers"]["RequestId"];
                     [name: string]: unknown;
                 };

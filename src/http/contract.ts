@@ -21,6 +21,22 @@ const OPERATION_IDS: Record<string, string> = {
   'GET /v1/jobs/:id/attachments/:name': 'getJobAttachment',
   'GET /v1/jobs/:id/table': 'getJobTable',
   'GET /v1/jobs/:id/events': 'streamJobEvents',
+  'GET /v1/jobs/events': 'streamJobsEvents',
+  'GET /v1/jobs/:id/plots/:kind': 'getJobPlot',
+  'GET /v1/plots/compare': 'getComparePlot',
+  'POST /v1/studies': 'createStudy',
+  'GET /v1/studies': 'listStudies',
+  'GET /v1/studies/:id': 'getStudy',
+  'DELETE /v1/studies/:id': 'deleteStudy',
+  'POST /v1/studies/:id/entries': 'addStudyEntries',
+  'GET /v1/studies/:id/entries': 'listStudyEntries',
+  'DELETE /v1/studies/:id/entries/:entryId': 'removeStudyEntry',
+  'POST /v1/studies/:id/runs': 'startStudyRun',
+  'GET /v1/studies/:id/runs': 'listStudyRuns',
+  'GET /v1/studies/:id/runs/:runId': 'getStudyRun',
+  'DELETE /v1/studies/:id/runs/:runId': 'cancelStudyRun',
+  'GET /v1/studies/:id/runs/:runId/table': 'getStudyRunTable',
+  'GET /v1/studies/:id/runs/:runId/plots/psd': 'getStudyRunPsdPlot',
   'POST /v1/uploads': 'startUpload',
   'PUT /v1/uploads/:id/parts/:part': 'putUploadPart',
   'GET /v1/uploads/:id': 'getUpload',
@@ -72,6 +88,15 @@ type Document = {
 
 const header = (description: string) => ({ description, schema: { type: 'string' } });
 
+const TABLE_HEADERS = {
+  'content-disposition': header('attachment; filename="<stem>.csv" or ".parquet"'),
+  vary: header('accept: the format may follow the Accept header'),
+};
+const PLOT_HEADERS = {
+  etag: header('the SHA-256 of the SVG, quoted; send it back as If-None-Match'),
+  'cache-control': header('private, no-cache'),
+};
+
 /** Headers of particular answers (the zod transform does not carry response headers). */
 const RESPONSE_HEADERS: Record<string, Record<string, Record<string, unknown>>> = {
   '/v1/jobs/{id}/attachments/{name} get 200': {
@@ -79,6 +104,14 @@ const RESPONSE_HEADERS: Record<string, Record<string, Record<string, unknown>>> 
     'x-rhythmetric-dtype': header('float64 or uint8, little-endian'),
     etag: header('the SHA-256 the record lists for the attachment, quoted'),
   },
+  '/v1/jobs/{id}/table get 200': TABLE_HEADERS,
+  '/v1/studies/{id}/runs/{runId}/table get 200': TABLE_HEADERS,
+  '/v1/jobs/{id}/plots/{kind} get 200': PLOT_HEADERS,
+  '/v1/jobs/{id}/plots/{kind} get 304': PLOT_HEADERS,
+  '/v1/plots/compare get 200': PLOT_HEADERS,
+  '/v1/plots/compare get 304': PLOT_HEADERS,
+  '/v1/studies/{id}/runs/{runId}/plots/psd get 200': PLOT_HEADERS,
+  '/v1/studies/{id}/runs/{runId}/plots/psd get 304': PLOT_HEADERS,
 };
 
 /**

@@ -8,10 +8,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_CHANNELS, DEMO_SAMPLING_RATE, demoBlock } from '../../src/signals/demo-recording.js';
 import { pollJob, startTestApi } from '../helpers/app.js';
 
+
 // The OpenAPI 3.1 document as committed (checked equal to the generated one by contract.test.ts).
 // OpenAPI 3.1 schemas are JSON Schema 2020-12 (OpenAPI 3.1.0 §4.8.24), hence Ajv's 2020 draft.
 const doc = JSON.parse(readFileSync(resolve(import.meta.dirname, '..', '..', 'openapi', 'openapi.json'), 'utf8')) as {
-  paths: Record<string, Record<string, { responses: Record<string, { content?: Record<string, { schema?: unknown }> }> }>>;
+  paths: Record<string, Record<string, { responses: Record<string, { content?: Record<string, { schema?: unknown }>; headers?: Record<string, { $ref?: string }> }> }>>;
   components: Record<string, unknown>;
 };
 const addFormats = addFormatsModule as unknown as (ajv: Ajv2020) => void;
@@ -19,7 +20,10 @@ const ajv = new Ajv2020({ strict: false, allErrors: true });
 addFormats(ajv);
 ajv.addSchema({ $id: 'openapi', components: doc.components });
 
-const templates = Object.keys(doc.paths).map((path) => ({ path, pattern: new RegExp(`^${path.replace(/\{[^}]+\}/g, '[^/]+')}$`) }));
+// A literal segment wins over a parameter, as in the router: /v1/jobs/events is not /v1/jobs/{id}.
+const templates = Object.keys(doc.paths)
+  .map((path) => ({ path, pattern: new RegExp(`^${path.replace(/\{[^}]+\}/g, '[^/]+')}$`), parameters: path.split('{').length }))
+  .sort((a, b) => a.parameters - b.parameters);
 
 function retarget(schema: unknown): unknown {
   return JSON.parse(JSON.stringify(schema).replaceAll('"#/components/', '"openapi#/components/'));
@@ -29,8 +33,9 @@ const seen = new Set<string>();
 
 /**
  * Checks one live answer against the document: its status is documented for the operation, its
- * content type is one the document lists for that status, and a JSON body validates against the
- * schema given there.
+ * content type is one the document lists for that status, a JSON body validates against the
+ * schema given there, and an answer without a JSON body (CSV, Parquet, SVG, an event stream, 304)
+ * carries every header the document lists for it.
  */
 function conforms(method: string, url: string, res: LightMyRequestResponse): void {
   const path = url.split('?')[0]!;
@@ -42,6 +47,10 @@ function conforms(method: string, url: string, res: LightMyRequestResponse): voi
   expect(response, `${method} ${template!.path} answered ${res.statusCode}, which the document does not list: ${res.body.slice(0, 200)}`).toBeDefined();
   seen.add(`${method} ${template!.path} ${res.statusCode}`);
   const type = String(res.headers['content-type'] ?? '').split(';')[0]!.trim();
+  if (!type.endsWith('json')) {
+    const missing = Object.keys(response!.headers ?? {}).filter((name) => res.headers[name.toLowerCase()] === undefined);
+    expect(missing, `${method} ${template!.path} ${res.statusCode} lacks documented headers`).toEqual([]);
+  }
   if (!response!.content) return;
   const media = response!.content[type];
   expect(media, `${method} ${template!.path} ${res.statusCode} sent ${type}; the document lists ${Object.keys(response!.content).join(', ')}`).toBeDefined();
@@ -58,7 +67,8 @@ const as = (key: string) => ({ authorization: `Bearer ${key}` });
 
 let api: Awaited<ReturnType<typeof startTestApi>>;
 beforeAll(async () => {
-  api = await startTestApi({ API_KEYS, RATE_LIMIT_PER_MINUTE: '0', BODY_LIMIT_BYTES: String(4 * 1024 * 1024) });
+  // One job of a study run in the queue at a time, so that a run can be canceled before it finishes.
+  api = await startTestApi({ API_KEYS, RATE_LIMIT_PER_MINUTE: '0', BODY_LIMIT_BYTES: String(4 * 1024 * 1024), STUDY_RUN_WINDOW: '1' });
 });
 afterAll(() => api.stop());
 
@@ -147,6 +157,131 @@ describe('when every route answers, successes and errors alike', () => {
     // Deleting the signal last: its jobs and records go with it.
     await exchange('DELETE', `/v1/signals/${signalId}`, { key: KEYS.admin });
     await exchange('DELETE', `/v1/signals/${signalId}`, { key: KEYS.admin });
+  }, 120_000);
+
+  it('should answer as the document says for plots, studies, their runs and the multi-job event stream', async () => {
+    // Two invented recordings (the project's seeded generator) of one subject, two conditions.
+    const channels = DEMO_CHANNELS.slice(0, 2);
+    const signals: string[] = [];
+    for (const [i, condition] of (['eyes-closed', 'eyes-open'] as const).entries()) {
+      const block = demoBlock(condition, 'early', 4, 11 + i);
+      const data = channels.map((_, c) => Array.from(block[c]!, (v) => Math.round(v * 1000) / 1000));
+      const upload = await exchange('POST', '/v1/signals', { key: KEYS.submit, payload: { samplingRate: DEMO_SAMPLING_RATE, channels, data } });
+      expect(upload.statusCode, upload.body).toBe(201);
+      signals.push(upload.json().id as string);
+    }
+    const [closed, open] = signals as [string, string];
+    const channel = channels[0]!;
+
+    // Job plots and the comparison: SVG, 304 on a matching ETag, and problems.
+    const jobs: string[] = [];
+    for (const signal of signals) {
+      const job = await exchange('POST', '/v1/jobs', { key: KEYS.submit, payload: { signal, recipe: { method: 'welch', segmentSeconds: 1 } } });
+      expect(job.statusCode, job.body).toBe(202);
+      jobs.push(job.json().id as string);
+      await pollJob(api.app, job.json().id as string, 30_000, as(KEYS.read));
+    }
+    const [first, second] = jobs as [string, string];
+    const plot = await exchange('GET', `/v1/jobs/${first}/plots/psd`, { key: KEYS.read });
+    expect(plot.statusCode, plot.body).toBe(200);
+    const unchanged = await exchange('GET', `/v1/jobs/${first}/plots/psd`, { key: KEYS.read, headers: { 'if-none-match': String(plot.headers.etag) } });
+    expect(unchanged.statusCode).toBe(304);
+    await exchange('GET', `/v1/jobs/${first}/plots/no-such-kind`, { key: KEYS.read });
+    await exchange('GET', `/v1/jobs/${first}/plots/psd?width=20`, { key: KEYS.read });
+    await exchange('GET', `/v1/jobs/${first}/plots/psd?channels=T7`, { key: KEYS.read });
+    const compare = await exchange('GET', `/v1/plots/compare?jobs=${first},${second}&channel=${channel}&labels=closed,open`, { key: KEYS.read });
+    expect(compare.statusCode, compare.body).toBe(200);
+    await exchange('GET', `/v1/plots/compare?jobs=${first}&channel=${channel}`, { key: KEYS.read });
+    await exchange('GET', `/v1/plots/compare?jobs=${first},job_00000000000000000000000000000000&channel=${channel}`, { key: KEYS.read });
+
+    // Several jobs in one event stream: all finished, so it ends after their states.
+    const stream = await exchange('GET', `/v1/jobs/events?ids=${first},${second},job_00000000000000000000000000000000`, { key: KEYS.read });
+    expect(stream.statusCode).toBe(200);
+    expect(stream.body).toContain('event: unknown');
+    await exchange('GET', '/v1/jobs/events', { key: KEYS.read });
+
+    // Studies
+    const created = await exchange('POST', '/v1/studies', { key: KEYS.submit, payload: { name: 'wire study', description: 'two conditions' } });
+    expect(created.statusCode, created.body).toBe(201);
+    const study = created.json().id as string;
+    await exchange('POST', '/v1/studies', { key: KEYS.submit, payload: { name: '' } });
+    await exchange('POST', '/v1/studies', { key: KEYS.read, payload: { name: 'no rights' } });
+    await exchange('GET', '/v1/studies?limit=1', { key: KEYS.read });
+    await exchange('GET', '/v1/studies?limit=0', { key: KEYS.read });
+    await exchange('GET', `/v1/studies/${study}`, { key: KEYS.read });
+    await exchange('GET', '/v1/studies/std_00000000000000000000000000000000', { key: KEYS.read });
+
+    // Entries: JSON and an RFC 4180 CSV manifest; a refused row; an unknown study.
+    const added = await exchange('POST', `/v1/studies/${study}/entries`, { key: KEYS.submit, payload: { entries: [{ signal: closed, metadata: { subject: 'p01', condition: 'eyes-closed' } }] } });
+    expect(added.statusCode, added.body).toBe(201);
+    const csv = await exchange('POST', `/v1/studies/${study}/entries`, { key: KEYS.submit, payload: `signal,subject,condition\r\n${open},p01,eyes-open\r\n`, headers: { 'content-type': 'text/csv' } });
+    expect(csv.statusCode, csv.body).toBe(201);
+    await exchange('POST', `/v1/studies/${study}/entries`, { key: KEYS.submit, payload: { entries: [{ signal: closed, metadata: { condition: 'no subject' } }] } });
+    await exchange('POST', `/v1/studies/${study}/entries`, { key: KEYS.submit, payload: 'entries', headers: { 'content-type': 'text/plain' } });
+    await exchange('POST', '/v1/studies/std_00000000000000000000000000000000/entries', { key: KEYS.submit, payload: { entries: [{ signal: closed, metadata: { subject: 'p01' } }] } });
+    const entries = await exchange('GET', `/v1/studies/${study}/entries?limit=1`, { key: KEYS.read });
+    await exchange('GET', `/v1/studies/${study}/entries?after=nothing`, { key: KEYS.read });
+    await exchange('GET', '/v1/studies/std_00000000000000000000000000000000/entries', { key: KEYS.read });
+
+    // Runs, their table and their plot.
+    const started = await exchange('POST', `/v1/studies/${study}/runs`, { key: KEYS.submit, payload: { recipe: { method: 'welch', segmentSeconds: 1 } } });
+    expect(started.statusCode, started.body).toBe(202);
+    const run = started.json().id as string;
+    await exchange('POST', `/v1/studies/${study}/runs`, { key: KEYS.submit, payload: {} });
+    await exchange('POST', `/v1/studies/${study}/runs`, { key: KEYS.submit, payload: { recipe: { method: 'welsh' } } });
+    await exchange('POST', `/v1/studies/${study}/runs`, { key: KEYS.submit, payload: { retryOf: 'run_00000000000000000000000000000000' } });
+    const deadline = Date.now() + 60_000;
+    let state = 'running';
+    while (state === 'running' && Date.now() < deadline) {
+      await new Promise((r) => setTimeout(r, 50));
+      state = (await exchange('GET', `/v1/studies/${study}/runs/${run}`, { key: KEYS.read })).json().state as string;
+    }
+    expect(state).toBe('succeeded');
+    await exchange('GET', `/v1/studies/${study}/runs/run_00000000000000000000000000000000`, { key: KEYS.read });
+    await exchange('GET', `/v1/studies/${study}/runs`, { key: KEYS.read });
+    await exchange('GET', '/v1/studies/std_00000000000000000000000000000000/runs', { key: KEYS.read });
+    const table = await exchange('GET', `/v1/studies/${study}/runs/${run}/table?format=csv`, { key: KEYS.read });
+    expect(table.statusCode, table.body).toBe(200);
+    const parquet = await exchange('GET', `/v1/studies/${study}/runs/${run}/table?level=bands`, { key: KEYS.read, headers: { accept: 'application/vnd.apache.parquet' } });
+    expect(parquet.statusCode, parquet.body).toBe(200);
+    await exchange('GET', `/v1/studies/${study}/runs/${run}/table?format=nothing`, { key: KEYS.read });
+    await exchange('GET', `/v1/studies/${study}/runs/${run}/table`, { key: KEYS.read, headers: { accept: 'image/png' } });
+    const groups = await exchange('GET', `/v1/studies/${study}/runs/${run}/plots/psd?channel=${channel}`, { key: KEYS.read });
+    expect(groups.statusCode, groups.body).toBe(200);
+    await exchange('GET', `/v1/studies/${study}/runs/${run}/plots/psd?channel=${channel}&by=shift`, { key: KEYS.read });
+    await exchange('GET', `/v1/studies/${study}/runs/run_00000000000000000000000000000000/plots/psd?channel=${channel}`, { key: KEYS.read });
+    await exchange('DELETE', `/v1/studies/${study}/runs/${run}`, { key: KEYS.submit });
+    // Eight more entries (parts of the two signals) and a slow recipe with no records yet: its jobs run
+    // one after another, so the run is still open when the cancel arrives a moment later.
+    const parts = [{ channels: [channels[0]!] }, { channels: [channels[1]!] }, { start: 0, end: 2 }, { start: 2, end: 4 }];
+    const views = signals.flatMap((signal) => parts.map((part) => ({ signal, ...part, metadata: { subject: 'p01', condition: 'part' } })));
+    expect((await exchange('POST', `/v1/studies/${study}/entries`, { key: KEYS.submit, payload: { entries: views } })).statusCode).toBe(201);
+    const slow = { method: 'multitaper', timeBandwidth: 8, taperCount: 15, fftLength: 16384 };
+    const pending = await exchange('POST', `/v1/studies/${study}/runs`, { key: KEYS.submit, payload: { recipe: slow, filter: { condition: 'part' } } });
+    expect(pending.json().counts.waiting).toBe(7);
+    const canceled = await exchange('DELETE', `/v1/studies/${study}/runs/${pending.json().id as string}`, { key: KEYS.submit });
+    expect(canceled.statusCode, canceled.body).toBe(200);
+    await exchange('DELETE', `/v1/studies/${study}/runs/run_00000000000000000000000000000000`, { key: KEYS.submit });
+
+    // Removal: an entry, then the study; twice each, the second time 404.
+    const entryId = (entries.json().entries as { id: string }[])[0]!.id;
+    await exchange('DELETE', `/v1/studies/${study}/entries/${entryId}`, { key: KEYS.submit });
+    await exchange('DELETE', `/v1/studies/${study}/entries/${entryId}`, { key: KEYS.submit });
+    await exchange('DELETE', `/v1/studies/${study}`, { key: KEYS.submit });
+    await exchange('DELETE', `/v1/studies/${study}`, { key: KEYS.submit });
+    for (const signal of signals) await exchange('DELETE', `/v1/signals/${signal}`, { key: KEYS.admin });
+
+    // Each of these operations showed both a success and a problem on the wire.
+    const answers = new Map<string, number[]>();
+    for (const [method, path, status] of [...seen].map((s) => s.split(' '))) {
+      if (!/^\/v1\/(studies|plots|jobs\/events|jobs\/\{id\}\/plots)/.test(path!)) continue;
+      answers.set(`${method} ${path}`, [...(answers.get(`${method} ${path}`) ?? []), Number(status)]);
+    }
+    expect(answers.size).toBe(16);
+    for (const [operation, statuses] of answers) {
+      expect(statuses.some((s) => s < 400), `${operation}: ${statuses.join(', ')}`).toBe(true);
+      expect(statuses.some((s) => s >= 400 && s < 500), `${operation}: ${statuses.join(', ')}`).toBe(true);
+    }
   }, 120_000);
 
   it('should have exercised every documented operation', () => {

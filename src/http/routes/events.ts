@@ -14,6 +14,14 @@ const JOB_ID = /^job_[0-9a-f]{32}$/;
 /** A page of a dashboard; one stream instead of one per job keeps browsers under their per-host connection limit. */
 const MAX_STREAMED_JOBS = 200;
 
+/** The documented 200 of an event stream; `ending` says what else it sends and when it ends. */
+function eventStream(ending: string) {
+  return {
+    description: `A stream of \`event: state\` messages (the WHATWG HTML "server-sent events" format) whose \`data\` is a job as GET /v1/jobs/{id} answers it, sent on every change of state or progress; ${ending}. Comment lines keep idle proxies from closing it.`,
+    content: { 'text/event-stream': { schema: z.string().describe('lines "id: <n>", "event: state", "data: <Job as JSON>", then a blank line; Job is #/components/schemas/Job') } },
+  };
+}
+
 /**
  * Server-sent events for dashboards that prefer pushing to polling. The stream sends `state` on
  * every change of a job's state or progress (data: the job, as GET /v1/jobs/:id answers) and ends
@@ -33,11 +41,7 @@ export const eventRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
         tags: ['jobs'],
         params: IdParams,
         response: {
-          200: {
-            description:
-              'A stream of `event: state` messages (RFC: the WHATWG HTML "server-sent events" format) whose `data` is the job as GET /v1/jobs/{id} answers it, sent on every change of state or progress; it ends after the finished state. Comment lines keep idle proxies from closing it.',
-            content: { 'text/event-stream': { schema: z.string().describe('lines "id: <n>", "event: state", "data: <Job as JSON>", then a blank line; Job is #/components/schemas/Job') } },
-          },
+          200: eventStream('it ends after the finished state'),
           404: problemResponse('unknown job'),
         },
       },
@@ -65,7 +69,10 @@ export const eventRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app)
             .pipe(z.array(z.string().min(1).max(200)).max(MAX_STREAMED_JOBS))
             .describe('comma-separated job ids'),
         }),
-        response: { 400: problemResponse('no ids, or too many') },
+        response: {
+          200: eventStream('first, if any id is unknown, one `event: unknown` message whose `data` is `{"ids": [...]}`; it ends once every listed job has finished'),
+          400: problemResponse('no ids, or too many'),
+        },
       },
     },
     async (request, reply) => {
