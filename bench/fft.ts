@@ -52,21 +52,46 @@ function bestMicros(body: () => void): number {
 const PREFIX = 1000;
 
 function timeSize(n: number): { forward: number; inverse: number; prefix: number; copy: number; fftJs?: number } {
-  const srcRe = seeded(n, n), srcIm = seeded(n, 3 * n + 1);
-  const re = new Float64Array(n), im = new Float64Array(n);
+  const srcRe = seeded(n, n),
+    srcIm = seeded(n, 3 * n + 1);
+  const re = new Float64Array(n),
+    im = new Float64Array(n);
   const plan = complexFftPlan(n);
-  const copy = bestMicros(() => { re.set(srcRe); im.set(srcIm); });
-  const forward = bestMicros(() => { re.set(srcRe); im.set(srcIm); plan.transform(re, im); }) - copy;
-  const inverse = bestMicros(() => { re.set(srcRe); im.set(srcIm); plan.transform(re, im, true); }) - copy;
+  const copy = bestMicros(() => {
+    re.set(srcRe);
+    im.set(srcIm);
+  });
+  const forward =
+    bestMicros(() => {
+      re.set(srcRe);
+      im.set(srcIm);
+      plan.transform(re, im);
+    }) - copy;
+  const inverse =
+    bestMicros(() => {
+      re.set(srcRe);
+      im.set(srcIm);
+      plan.transform(re, im, true);
+    }) - copy;
   const count = Math.min(PREFIX, n);
-  const prefix = bestMicros(() => { re.set(srcRe); im.set(srcIm); plan.transform(re, im, true, count); }) - copy;
+  const prefix =
+    bestMicros(() => {
+      re.set(srcRe);
+      im.set(srcIm);
+      plan.transform(re, im, true, count);
+    }) - copy;
   if ((n & (n - 1)) !== 0) return { forward, inverse, prefix, copy };
   const f = new FFT(n);
   const input = f.createComplexArray() as number[];
   const output = f.createComplexArray() as number[];
-  for (let i = 0; i < n; i++) { input[2 * i] = srcRe[i]!; input[2 * i + 1] = srcIm[i]!; }
+  for (let i = 0; i < n; i++) {
+    input[2 * i] = srcRe[i]!;
+    input[2 * i + 1] = srcIm[i]!;
+  }
   // out of place, so no refill is needed
-  const fftJs = bestMicros(() => { f.inverseTransform(output, input); });
+  const fftJs = bestMicros(() => {
+    f.inverseTransform(output, input);
+  });
   return { forward, inverse, prefix, copy, fftJs };
 }
 

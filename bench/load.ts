@@ -99,7 +99,11 @@ async function runScenario(scenario: Scenario, template: { head: string; tail: s
       .join(' ');
     const notes = drained
       ? []
-      : children.slice(1).map((w, i) => `  worker ${i + 1}: alive ${w.alive}, ${w.logs('job completed').length} completed; last log ${JSON.stringify(w.lines.at(-1) ?? null)}; stderr ${w.stderr.join('').slice(-300)}`);
+      : children
+          .slice(1)
+          .map(
+            (w, i) => `  worker ${i + 1}: alive ${w.alive}, ${w.logs('job completed').length} completed; last log ${JSON.stringify(w.lines.at(-1) ?? null)}; stderr ${w.stderr.join('').slice(-300)}`,
+          );
     return [
       `${scenario.name}: ${CONNECTIONS} connections, ${LOAD_SECONDS} s, ${((template.head.length + template.tail.length) / 1024).toFixed(0)} KiB bodies`,
       `  POST /v1/jobs: ${result.requests.average.toFixed(1)} req/s, latency p50 ${result.latency.p50} ms, p99 ${result.latency.p99} ms (${result.requests.total} requests; ${statuses}; ${result.errors} errors, ${result.timeouts} timeouts)`,

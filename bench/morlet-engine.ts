@@ -43,7 +43,13 @@ export function packSignal(data: Float64Array[], w: MorletWorkload): Signal {
 export function timeEngineMorlet(signal: Signal, w: MorletWorkload, threads: number): { seconds: number; threads: number; totals: Float64Array } {
   const pinned = normalizeRecipe({ method: 'morlet', frequencies: { low: w.low, high: w.high, count: w.count }, cycles: w.cycles, output: 'matrix' });
   const start = performance.now();
-  const record = analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local', channels: createChannelRunner({ threads }) }) as FeatureRecord;
+  const record = analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), {
+    signalId: 'sig_bench',
+    sha256: 'bench',
+    recipeId: pinned.id,
+    mode: 'local',
+    channels: createChannelRunner({ threads }),
+  }) as FeatureRecord;
   const seconds = (performance.now() - start) / 1000;
   const totals = new Float64Array(w.count);
   for (const a of record.attachments ?? []) {

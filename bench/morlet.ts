@@ -31,7 +31,9 @@ function timeOurs(data: Float64Array[]): { seconds: number; totals: Float64Array
   const start = performance.now();
   // the plan (wavelet spectra, FFT plans, scratch) is built inside the timed region, once
   const plan = createMorletPlan(SAMPLES, {
-    samplingRate: SAMPLING_RATE, frequencies: { low: F_LOW, high: F_HIGH, count: COUNT }, cycles: CYCLES,
+    samplingRate: SAMPLING_RATE,
+    frequencies: { low: F_LOW, high: F_HIGH, count: COUNT },
+    cycles: CYCLES,
   });
   const out = new Float64Array(plan.timeCount * plan.frequencyCount);
   const totals = new Float64Array(COUNT);
@@ -54,12 +56,21 @@ function timeScipy(workers: number): { seconds: number; totals: number[]; versio
 }
 
 const WORKLOAD: MorletWorkload = {
-  epochs: EPOCHS, channels: CHANNELS, samples: SAMPLES, samplingRate: SAMPLING_RATE, low: F_LOW, high: F_HIGH, count: COUNT, cycles: CYCLES,
+  epochs: EPOCHS,
+  channels: CHANNELS,
+  samples: SAMPLES,
+  samplingRate: SAMPLING_RATE,
+  low: F_LOW,
+  high: F_HIGH,
+  count: COUNT,
+  cycles: CYCLES,
 };
 
 function worstRelative(ours: ArrayLike<number>, reference: readonly number[]): number {
   let worst = 0;
-  reference.forEach((v, j) => { worst = Math.max(worst, Math.abs(ours[j]! - v) / Math.abs(v)); });
+  reference.forEach((v, j) => {
+    worst = Math.max(worst, Math.abs(ours[j]! - v) / Math.abs(v));
+  });
   return worst;
 }
 
@@ -87,7 +98,10 @@ export async function benchMorlet(): Promise<string[]> {
   timeEngineMorlet(packSignal(data.slice(0, 32), small), small, 2);
   await new Promise((resolve) => setTimeout(resolve, 2000));
   timeEngineMorlet(packSignal(data.slice(0, 32), small), small, 2);
-  const job1: number[] = [], job2: number[] = [], scipy1: number[] = [], scipy2: number[] = [];
+  const job1: number[] = [],
+    job2: number[] = [],
+    scipy1: number[] = [],
+    scipy2: number[] = [];
   let threads = 0;
   let jobTotals: Float64Array = new Float64Array(0);
   let reference: Exclude<ReturnType<typeof timeScipy>, string> | null = null;
@@ -124,7 +138,9 @@ export async function benchMorlet(): Promise<string[]> {
   lines.push(`  ratio kernel 1 thread / scipy workers=1: ${(seconds / median(scipy1)).toFixed(2)}`);
   lines.push(`  ratio job 2 threads / scipy workers=1:   ${(median(job2) / median(scipy1)).toFixed(2)}  (target ≤ 1)`);
   if (scipy2.length > 0) lines.push(`  ratio job 2 threads / scipy workers=2:   ${(median(job2) / median(scipy2)).toFixed(2)}`);
-  lines.push(`  reference: ${reference.versions} via /usr/bin/python3, vectorised over channels; per-frequency power sums agree to ${worstRelative(totals, reference.totals).toExponential(1)} (kernel), ${worstRelative(jobTotals, reference.totals).toExponential(1)} (job) relative`);
+  lines.push(
+    `  reference: ${reference.versions} via /usr/bin/python3, vectorised over channels; per-frequency power sums agree to ${worstRelative(totals, reference.totals).toExponential(1)} (kernel), ${worstRelative(jobTotals, reference.totals).toExponential(1)} (job) relative`,
+  );
   return lines;
 }
 

@@ -25,7 +25,12 @@ function timeOurs(data: Float64Array[], weighting: TaperWeighting): { seconds: n
   const start = performance.now();
   // The plan (tapers, FFT, scratch) is built inside the timed region, once, as the engine would.
   const plan = createMultitaperPlan(SAMPLES, {
-    samplingRate: SAMPLING_RATE, timeBandwidth: TIME_BANDWIDTH, taperCount: TAPERS, fftLength: FFT_LENGTH, weighting, detrend: 'mean',
+    samplingRate: SAMPLING_RATE,
+    timeBandwidth: TIME_BANDWIDTH,
+    taperCount: TAPERS,
+    fftLength: FFT_LENGTH,
+    weighting,
+    detrend: 'mean',
   });
   let iterations = 0;
   let checksum = 0;
@@ -41,7 +46,8 @@ function timeOurs(data: Float64Array[], weighting: TaperWeighting): { seconds: n
 function timeScipy(): { equal: number; adaptive: number; versions: string } | string {
   const script = fileURLToPath(new URL('./scipy-multitaper.py', import.meta.url));
   const run = spawnSync('/usr/bin/python3', [script, String(EPOCHS), String(CHANNELS), String(SAMPLES), String(TIME_BANDWIDTH), String(TAPERS), String(FFT_LENGTH)], {
-    encoding: 'utf8', timeout: 600_000,
+    encoding: 'utf8',
+    timeout: 600_000,
   });
   if (run.error !== undefined || run.status !== 0) {
     return `scipy reference unavailable (${run.error?.message ?? run.stderr.trim().split('\n').at(-1) ?? `exit ${run.status}`})`;
@@ -55,9 +61,7 @@ export async function benchMultitaper(): Promise<string[]> {
   const data = makeData();
   const signals = EPOCHS * CHANNELS;
   timeOurs(data.slice(0, 64), 'equal'); // warm-up for the JIT
-  const lines = [
-    `multitaper: ${EPOCHS} epochs × ${CHANNELS} channels × ${SAMPLES} samples, NW ${TIME_BANDWIDTH}, K ${TAPERS}, fftLength ${FFT_LENGTH}, single thread`,
-  ];
+  const lines = [`multitaper: ${EPOCHS} epochs × ${CHANNELS} channels × ${SAMPLES} samples, NW ${TIME_BANDWIDTH}, K ${TAPERS}, fftLength ${FFT_LENGTH}, single thread`];
   const ours: Record<string, number> = {};
   for (const weighting of ['equal', 'adaptive'] as const) {
     const { seconds, iterations } = timeOurs(data, weighting);
@@ -102,7 +106,9 @@ async function measureMemory(): Promise<void> {
   analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local' });
   const peak = process.resourceUsage().maxRSS * 1024;
   const input = data.byteLength;
-  console.log(`memory: analyze() peak resident growth ${((peak - baseline) / 2 ** 20).toFixed(1)} MiB for a ${(input / 2 ** 20).toFixed(1)} MiB input (${((peak - baseline) / input).toFixed(2)}× the input, counting the generator's temporary copy; target < 3×)`);
+  console.log(
+    `memory: analyze() peak resident growth ${((peak - baseline) / 2 ** 20).toFixed(1)} MiB for a ${(input / 2 ** 20).toFixed(1)} MiB input (${((peak - baseline) / input).toFixed(2)}× the input, counting the generator's temporary copy; target < 3×)`,
+  );
 }
 
 if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {

@@ -213,7 +213,9 @@ export async function benchRecording(): Promise<string[]> {
     const size = await writeRecording(path, lines);
     const buildMs = performance.now() - t0;
     const samples = RECORDS * CHANNELS * SAMPLING_RATE;
-    lines.push(`  file ${(size / 1e6).toFixed(1)} MB (${mib(size)} MiB, ${samples.toLocaleString('en')} samples), built in ${(buildMs / 1000).toFixed(1)} s; VmHWM of this process so far ${mib(readVm(process.pid, 'VmHWM') ?? 0)} MiB (earlier benchmarks in the same process count too)`);
+    lines.push(
+      `  file ${(size / 1e6).toFixed(1)} MB (${mib(size)} MiB, ${samples.toLocaleString('en')} samples), built in ${(buildMs / 1000).toFixed(1)} s; VmHWM of this process so far ${mib(readVm(process.pid, 'VmHWM') ?? 0)} MiB (earlier benchmarks in the same process count too)`,
+    );
     server = await startChildServer({
       BODY_LIMIT_BYTES: String(2 * size),
       MAX_SAMPLES: String(2 * samples),

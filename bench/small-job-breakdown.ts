@@ -81,7 +81,9 @@ export async function benchSmallJobBreakdown(): Promise<string[]> {
     lines.push(stats('job-state write, durable (flushed)', await timed(ROUNDS, (i) => store.putDocument('jobs', `d${i}`, doc))));
     lines.push(stats('job-state write, not durable', await timed(ROUNDS, (i) => store.putDocument('jobs', `n${i}`, doc, { durable: false }))));
     const plans = metas.map((meta) => planJob(config.recipeLimits, meta, pinned));
-    lines.push(stats('analyze() alone', await timed(ROUNDS, (i) => analyze(signals[i]!, plans[i]!.spec.resolved!, { signalId: metas[i]!.id, sha256: metas[i]!.sha256, recipeId: pinned.id, mode: 'embedded' }))));
+    lines.push(
+      stats('analyze() alone', await timed(ROUNDS, (i) => analyze(signals[i]!, plans[i]!.spec.resolved!, { signalId: metas[i]!.id, sha256: metas[i]!.sha256, recipeId: pinned.id, mode: 'embedded' }))),
+    );
     lines.push(stats('runJob in this thread (read signal, analyze, write record)', await timed(ROUNDS, (i) => runJob(plans[i]!.spec, store, 'embedded'))));
     const pool = createComputePool(1, 1);
     try {

@@ -66,10 +66,16 @@ export async function benchStudy(): Promise<string[]> {
     let started = performance.now();
     const signals: string[] = [];
     for (let r = 0; r < RECORDINGS; r++) {
-      const res = await fetch(`${base}/v1/signals?samplingRate=${SAMPLING_RATE}&channels=${channels}`, { method: 'POST', headers: { 'content-type': 'application/octet-stream' }, body: recording(9000 + r) });
+      const res = await fetch(`${base}/v1/signals?samplingRate=${SAMPLING_RATE}&channels=${channels}`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/octet-stream' },
+        body: recording(9000 + r),
+      });
       signals.push((await json(res)).id as string);
     }
-    lines.push(`${RECORDINGS} recordings × ${CHANNELS} ch × ${MINUTES} min × ${SAMPLING_RATE} Hz uploaded in ${((performance.now() - started) / 1000).toFixed(1)} s (${config.workerThreads} compute threads, run window ${config.studyRunWindow})`);
+    lines.push(
+      `${RECORDINGS} recordings × ${CHANNELS} ch × ${MINUTES} min × ${SAMPLING_RATE} Hz uploaded in ${((performance.now() - started) / 1000).toFixed(1)} s (${config.workerThreads} compute threads, run window ${config.studyRunWindow})`,
+    );
 
     // Warm-up of every compute thread (its start under the loader, FFT plans, JIT) with other
     // recipes, so that neither timing pays for it.
@@ -110,7 +116,9 @@ export async function benchStudy(): Promise<string[]> {
     const text = await table.text();
     const rows = text.split('\r\n').length - 2;
     const seconds = (performance.now() - started) / 1000;
-    lines.push(`run table (bands, CSV): ${rows} rows, ${(text.length / 1e6).toFixed(1)} MB in ${seconds.toFixed(2)} s (${Math.round(rows / seconds)} rows/s, small tables are dominated by reading the records)`);
+    lines.push(
+      `run table (bands, CSV): ${rows} rows, ${(text.length / 1e6).toFixed(1)} MB in ${seconds.toFixed(2)} s (${Math.round(rows / seconds)} rows/s, small tables are dominated by reading the records)`,
+    );
   } finally {
     await api.close();
     await rm(dataDir, { recursive: true, force: true });

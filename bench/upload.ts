@@ -123,7 +123,10 @@ export async function startChildServer(env: Record<string, string>): Promise<Chi
       await stop();
       throw new Error(`the server exited with code ${child.exitCode} before answering /healthz:\n${output}`);
     }
-    const ok = await fetch(`${base}/healthz`, { signal: AbortSignal.timeout(2000) }).then((r) => r.ok, () => false);
+    const ok = await fetch(`${base}/healthz`, { signal: AbortSignal.timeout(2000) }).then(
+      (r) => r.ok,
+      () => false,
+    );
     if (ok) break;
     if (performance.now() > deadline) {
       await stop();
@@ -312,7 +315,9 @@ export async function benchUpload(): Promise<string[]> {
       `  resumable: ${PARTS} PUT parts of ${mib(CHANNELS_PER_PART * CHANNEL_BYTES)} MiB in ${(partsSentMs / 1000).toFixed(1)} s (${rate(TOTAL_BYTES, partsSentMs)} MiB/s), ` +
         `complete (join, SHA-256 check, ingest) ${(completed.ms / 1000).toFixed(1)} s; ${(resumableMs / 1000).toFixed(1)} s in all (${rate(TOTAL_BYTES, resumableMs)} MiB/s); ${memory(server)}`,
     );
-    lines.push(`    stored ${describe(completed.json)}; ${completed.json.id === signal.id ? 'the same id as the one-request upload (same bytes)' : `a DIFFERENT id from the one-request upload (${signal.id})`}`);
+    lines.push(
+      `    stored ${describe(completed.json)}; ${completed.json.id === signal.id ? 'the same id as the one-request upload (same bytes)' : `a DIFFERENT id from the one-request upload (${signal.id})`}`,
+    );
     // VmHWM covers the whole life of the process, start-up included, so the bound takes the larger.
     const hwm = readVm(server.pid, 'VmHWM') ?? 0;
     const worst = Math.max(onePeak, server.peakRss(), hwm);

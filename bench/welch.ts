@@ -50,13 +50,21 @@ function syntheticRecording(): Float64Array {
   return data;
 }
 
-interface ScipyRun { fftLength: number; average: string; seconds: number; psd0: number[] }
+interface ScipyRun {
+  fftLength: number;
+  average: string;
+  seconds: number;
+  psd0: number[];
+}
 
 async function runScipy(file: string): Promise<{ version: string; runs: ScipyRun[] } | { note: string }> {
   const script = fileURLToPath(new URL('./scipy-welch.py', import.meta.url));
   try {
-    const { stdout } = await promisify(execFile)(PYTHON, [script, file, String(CHANNELS), String(SAMPLES), String(SAMPLING_RATE),
-      String(SEGMENT), String(OVERLAP), String(REPEATS), ...RUNS.map((r) => `${r.fftLength}:${r.average}`)], { maxBuffer: 64 * 1024 * 1024 });
+    const { stdout } = await promisify(execFile)(
+      PYTHON,
+      [script, file, String(CHANNELS), String(SAMPLES), String(SAMPLING_RATE), String(SEGMENT), String(OVERLAP), String(REPEATS), ...RUNS.map((r) => `${r.fftLength}:${r.average}`)],
+      { maxBuffer: 64 * 1024 * 1024 },
+    );
     const parsed = JSON.parse(stdout) as { error?: string; scipy?: string; numpy?: string; runs?: ScipyRun[] };
     if (parsed.error !== undefined || parsed.runs === undefined) return { note: `${PYTHON}: ${parsed.error ?? 'no output'}; no scipy ratio` };
     return { version: `scipy ${parsed.scipy}, numpy ${parsed.numpy}`, runs: parsed.runs };
@@ -102,7 +110,9 @@ export async function benchWelch(): Promise<string[]> {
         const mine = ours.get(`${run.fftLength}:${run.average}`)!;
         let worst = 0;
         for (let k = 0; k < run.psd0.length; k++) worst = Math.max(worst, Math.abs(mine.psd0[k]! - run.psd0[k]!) / Math.abs(run.psd0[k]!));
-        lines.push(`  scipy fftLength ${run.fftLength} ${run.average}: ${run.seconds.toFixed(3)} s (${scipy.version}); ours/scipy = ${(mine.seconds / run.seconds).toFixed(2)}; channel 0 max relative difference ${worst.toExponential(1)}`);
+        lines.push(
+          `  scipy fftLength ${run.fftLength} ${run.average}: ${run.seconds.toFixed(3)} s (${scipy.version}); ours/scipy = ${(mine.seconds / run.seconds).toFixed(2)}; channel 0 max relative difference ${worst.toExponential(1)}`,
+        );
       }
     }
   } finally {

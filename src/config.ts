@@ -18,8 +18,14 @@ const EnvSchema = z.object({
     .string()
     .regex(/^rediss?:\/\//, 'must start with redis:// or rediss://')
     .optional(),
-  REDIS_PREFIX: z.string().regex(/^[A-Za-z0-9_-]+$/).default('rhythmetric'),
-  QUEUE_NAME: z.string().regex(/^[A-Za-z0-9_-]+$/).default('analyses'),
+  REDIS_PREFIX: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]+$/)
+    .default('rhythmetric'),
+  QUEUE_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]+$/)
+    .default('analyses'),
   STORE: z.enum(['filesystem', 'redis']).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   THREADS: int(Math.max(1, availableParallelism())),
@@ -42,7 +48,10 @@ const EnvSchema = z.object({
   ALLOW_OPEN_MODE: z.enum(['true', 'false', '1', '0']).default('false'),
   RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(0).optional(),
   AUTH_FAILURES_PER_MINUTE: int(20, 0),
-  METRICS_TOKEN_SHA256: z.string().regex(/^[0-9a-f]{64}$/, 'give the SHA-256 of the token as 64 lowercase hex digits, never the token itself').optional(),
+  METRICS_TOKEN_SHA256: z
+    .string()
+    .regex(/^[0-9a-f]{64}$/, 'give the SHA-256 of the token as 64 lowercase hex digits, never the token itself')
+    .optional(),
   CORS_ORIGINS: z.string().optional(),
   WORKER_LOCK_MS: int(30_000, 1000),
   WORKER_MAX_STALLED: int(2, 0),
@@ -183,12 +192,20 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Readonly<Confi
     rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE ?? (e.API_KEYS || e.API_KEYS_FILE ? 6000 : 0),
     authFailuresPerMinute: e.AUTH_FAILURES_PER_MINUTE,
     metricsTokenSha256: e.METRICS_TOKEN_SHA256 ?? null,
-    corsOrigins: e.CORS_ORIGINS ? e.CORS_ORIGINS.split(',').map((o) => o.trim()).filter(Boolean) : [],
+    corsOrigins: e.CORS_ORIGINS
+      ? e.CORS_ORIGINS.split(',')
+          .map((o) => o.trim())
+          .filter(Boolean)
+      : [],
     workerLockMs: e.WORKER_LOCK_MS,
     workerMaxStalled: e.WORKER_MAX_STALLED,
     requestTimeoutMs: e.REQUEST_TIMEOUT_MS,
     dataRoot: e.DATA_ROOT ? resolve(e.DATA_ROOT) : null,
-    fetchAllowedHosts: e.FETCH_ALLOWED_HOSTS ? e.FETCH_ALLOWED_HOSTS.split(',').map((h) => h.trim()).filter(Boolean) : [],
+    fetchAllowedHosts: e.FETCH_ALLOWED_HOSTS
+      ? e.FETCH_ALLOWED_HOSTS.split(',')
+          .map((h) => h.trim())
+          .filter(Boolean)
+      : [],
     fetchAllowPrivate: e.FETCH_ALLOW_PRIVATE === 'true' || e.FETCH_ALLOW_PRIVATE === '1',
     fetchTimeoutMs: e.FETCH_TIMEOUT_MS,
     fetchMaxRedirects: e.FETCH_MAX_REDIRECTS,

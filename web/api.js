@@ -62,7 +62,14 @@ export async function request(path, init = {}) {
   const type = response.headers.get('content-type') ?? '';
   if (type.includes('json')) {
     const body = /** @type {Partial<Problem>} */ (await response.json().catch(() => ({})));
-    throw new ProblemError({ type: body.type ?? 'about:blank', title: body.title ?? response.statusText, status: response.status, detail: body.detail ?? response.statusText, ...(body.pointer ? { pointer: body.pointer } : {}), ...(body.requestId ? { requestId: body.requestId } : {}) });
+    throw new ProblemError({
+      type: body.type ?? 'about:blank',
+      title: body.title ?? response.statusText,
+      status: response.status,
+      detail: body.detail ?? response.statusText,
+      ...(body.pointer ? { pointer: body.pointer } : {}),
+      ...(body.requestId ? { requestId: body.requestId } : {}),
+    });
   }
   throw new ProblemError({ type: 'about:blank', title: response.statusText, status: response.status, detail: `${path} answered ${response.status} ${response.statusText}` });
 }

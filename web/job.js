@@ -115,7 +115,11 @@ async function renderDetails(details, job, signal) {
   if (job.state !== 'succeeded') {
     // Before the record exists, show what was asked: the pinned recipe and the stored signal.
     const [recipe, input] = await Promise.all([requestJson(`/v1/recipes/${job.recipe}`).catch(() => null), requestJson(`/v1/signals/${job.signal}`).catch(() => null)]);
-    replace(details, section('Recipe', recipe ? jsonBlock(/** @type {{ recipe: unknown }} */ (recipe).recipe) : job.recipe), section('Input', input ? inputFacts(/** @type {Record<string, unknown>} */ (input)) : job.signal));
+    replace(
+      details,
+      section('Recipe', recipe ? jsonBlock(/** @type {{ recipe: unknown }} */ (recipe).recipe) : job.recipe),
+      section('Input', input ? inputFacts(/** @type {Record<string, unknown>} */ (input)) : job.signal),
+    );
     return;
   }
   /** @type {any} */
@@ -132,7 +136,16 @@ async function renderDetails(details, job, signal) {
   replace(
     details,
     section('Plots', plots),
-    section('Warnings', warnings.length === 0 ? h('p', {}, 'None.') : h('ul', { class: 'warnings' }, warnings.map((w) => h('li', {}, w)))),
+    section(
+      'Warnings',
+      warnings.length === 0
+        ? h('p', {}, 'None.')
+        : h(
+            'ul',
+            { class: 'warnings' },
+            warnings.map((w) => h('li', {}, w)),
+          ),
+    ),
     section(
       'Downloads',
       h(
@@ -249,10 +262,21 @@ export function importSvg(text, prefix) {
     if (element.id) element.id = `${prefix}-${element.id}`;
     for (const name of ['aria-labelledby', 'aria-describedby']) {
       const value = element.getAttribute(name);
-      if (value) element.setAttribute(name, value.split(/\s+/).map((ref) => (ids.has(ref) ? `${prefix}-${ref}` : ref)).join(' '));
+      if (value)
+        element.setAttribute(
+          name,
+          value
+            .split(/\s+/)
+            .map((ref) => (ids.has(ref) ? `${prefix}-${ref}` : ref))
+            .join(' '),
+        );
     }
     for (const attribute of [...element.attributes]) {
-      if (attribute.value.includes('#')) element.setAttribute(attribute.name, attribute.value.replace(/#([A-Za-z][\w.-]*)/g, (whole, ref) => (ids.has(ref) ? `#${prefix}-${ref}` : whole)));
+      if (attribute.value.includes('#'))
+        element.setAttribute(
+          attribute.name,
+          attribute.value.replace(/#([A-Za-z][\w.-]*)/g, (whole, ref) => (ids.has(ref) ? `#${prefix}-${ref}` : whole)),
+        );
     }
   }
   return document.importNode(svg, true);

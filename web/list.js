@@ -25,7 +25,12 @@ export function createJobList(root, announce, leaving, initial = {}) {
   /** @type {AbortController | null} */
   let live = null;
 
-  const stateFilter = h('select', { id: 'filter-state', name: 'state' }, h('option', { value: '' }, 'any state'), STATES.map((s) => h('option', { value: s }, s)));
+  const stateFilter = h(
+    'select',
+    { id: 'filter-state', name: 'state' },
+    h('option', { value: '' }, 'any state'),
+    STATES.map((s) => h('option', { value: s }, s)),
+  );
   const methodFilter = h('select', { id: 'filter-method', name: 'method' }, h('option', { value: '' }, 'any method'));
   const studyFilter = h('input', { id: 'filter-study', name: 'study', type: 'text', autocomplete: 'off', spellcheck: 'false', value: initial.study ?? '' });
   const afterFilter = h('input', { id: 'filter-after', name: 'createdAfter', type: 'datetime-local', step: '1' });
@@ -58,7 +63,15 @@ export function createJobList(root, announce, leaving, initial = {}) {
       h(
         'table',
         { class: 'jobs', 'aria-labelledby': 'jobs-heading', 'aria-describedby': 'list-status' },
-        h('thead', {}, h('tr', {}, ['Created', 'Job', 'Method', 'Labels', 'State', 'Progress'].map((t) => h('th', { scope: 'col' }, t)))),
+        h(
+          'thead',
+          {},
+          h(
+            'tr',
+            {},
+            ['Created', 'Job', 'Method', 'Labels', 'State', 'Progress'].map((t) => h('th', { scope: 'col' }, t)),
+          ),
+        ),
         body,
       ),
     ),
@@ -182,7 +195,11 @@ export function createJobList(root, announce, leaving, initial = {}) {
 export function labelList(labels) {
   const entries = Object.entries(labels ?? {});
   if (entries.length === 0) return h('span', { class: 'muted' }, '—');
-  return h('ul', { class: 'labels' }, entries.map(([k, v]) => h('li', {}, `${k}: ${v}`)));
+  return h(
+    'ul',
+    { class: 'labels' },
+    entries.map(([k, v]) => h('li', {}, `${k}: ${v}`)),
+  );
 }
 
 /** State as text and shape, never by colour alone. @param {string} state */

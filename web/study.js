@@ -27,7 +27,24 @@ export async function showStudies(root) {
       'section',
       { class: 'panel', 'aria-labelledby': 'studies-heading' },
       h('h2', { id: 'studies-heading' }, 'Studies'),
-      h('div', { class: 'table-wrap' }, h('table', { class: 'jobs', 'aria-labelledby': 'studies-heading' }, h('thead', {}, h('tr', {}, ['Name', 'Entries', 'Created', 'Updated'].map((t) => h('th', { scope: 'col' }, t)))), body)),
+      h(
+        'div',
+        { class: 'table-wrap' },
+        h(
+          'table',
+          { class: 'jobs', 'aria-labelledby': 'studies-heading' },
+          h(
+            'thead',
+            {},
+            h(
+              'tr',
+              {},
+              ['Name', 'Entries', 'Created', 'Updated'].map((t) => h('th', { scope: 'col' }, t)),
+            ),
+          ),
+          body,
+        ),
+      ),
       status,
     ),
   );
@@ -44,7 +61,9 @@ export async function showStudies(root) {
     } while (after && all.length < 1000);
     replace(
       body,
-      all.map((s) => h('tr', {}, h('td', {}, h('a', { href: `#/studies/${s.id}` }, s.name)), h('td', {}, String(s.entryCount)), h('td', {}, formatTime(s.createdAt)), h('td', {}, formatTime(s.updatedAt)))),
+      all.map((s) =>
+        h('tr', {}, h('td', {}, h('a', { href: `#/studies/${s.id}` }, s.name)), h('td', {}, String(s.entryCount)), h('td', {}, formatTime(s.createdAt)), h('td', {}, formatTime(s.updatedAt))),
+      ),
     );
     status.textContent = all.length === 0 ? 'No studies yet: create one through the API (see the README).' : `${all.length} stud${all.length === 1 ? 'y' : 'ies'}.`;
   } catch (error) {
@@ -80,7 +99,7 @@ export async function showStudy(root, id, signal) {
       ['Description', study.description],
       ['Entries', String(study.entryCount)],
       ['Created', formatTime(study.createdAt)],
-      ['Jobs', h('a', { href: `#/?study=${encodeURIComponent(study.id)}` }, 'this study\'s jobs in the job list')],
+      ['Jobs', h('a', { href: `#/?study=${encodeURIComponent(study.id)}` }, "this study's jobs in the job list")],
     ]),
   );
   const shape = await entryShape(id);
@@ -118,7 +137,9 @@ export async function showStudy(root, id, signal) {
  */
 async function entryShape(id) {
   try {
-    const { entries } = /** @type {{ entries: { signal: string, view: { channels?: string[] } | null, metadata: Record<string, unknown> }[] }} */ (await requestJson(`/v1/studies/${encodeURIComponent(id)}/entries?limit=1`));
+    const { entries } = /** @type {{ entries: { signal: string, view: { channels?: string[] } | null, metadata: Record<string, unknown> }[] }} */ (
+      await requestJson(`/v1/studies/${encodeURIComponent(id)}/entries?limit=1`)
+    );
     const first = entries[0];
     if (!first) return { channels: [], keys: [] };
     const info = /** @type {{ channels: string[] }} */ (await requestJson(`/v1/signals/${first.signal}`));
@@ -144,7 +165,10 @@ function runCard(studyId, run, shape) {
     facts([
       ['State', stateBadge(run.state)],
       ['Progress', h('span', {}, h('progress', { max: '1', value: String(run.progress), 'aria-label': `progress of run ${run.id}` }), ' ', percent(run.progress))],
-      ['Entries', `${c.total} in all: ${c.succeeded} succeeded, ${c.failed} failed, ${c.canceled} canceled, ${c.running} running, ${c.queued} queued, ${c.waiting} waiting (${c.reused} reused existing records)`],
+      [
+        'Entries',
+        `${c.total} in all: ${c.succeeded} succeeded, ${c.failed} failed, ${c.canceled} canceled, ${c.running} running, ${c.queued} queued, ${c.waiting} waiting (${c.reused} reused existing records)`,
+      ],
       ['Filter', run.filter ? JSON.stringify(run.filter) : null],
       ['Recipe', h('code', {}, run.recipe.id)],
       ['Started', formatTime(run.createdAt)],
@@ -158,7 +182,15 @@ function runCard(studyId, run, shape) {
             'table',
             { class: 'jobs' },
             h('caption', {}, 'Failed entries'),
-            h('thead', {}, h('tr', {}, ['Entry', 'Metadata', 'Job', 'Problem'].map((t) => h('th', { scope: 'col' }, t)))),
+            h(
+              'thead',
+              {},
+              h(
+                'tr',
+                {},
+                ['Entry', 'Metadata', 'Job', 'Problem'].map((t) => h('th', { scope: 'col' }, t)),
+              ),
+            ),
             h(
               'tbody',
               {},
@@ -167,7 +199,13 @@ function runCard(studyId, run, shape) {
                   'tr',
                   {},
                   h('td', {}, f.entryId),
-                  h('td', {}, Object.entries(f.metadata).map(([k, v]) => `${k}: ${v}`).join(', ')),
+                  h(
+                    'td',
+                    {},
+                    Object.entries(f.metadata)
+                      .map(([k, v]) => `${k}: ${v}`)
+                      .join(', '),
+                  ),
                   h('td', {}, h('a', { href: `#/jobs/${f.job}`, class: 'job-link' }, f.job)),
                   h('td', {}, f.problem ? `${f.problem.title}: ${f.problem.detail}` : '—'),
                 ),
@@ -176,7 +214,15 @@ function runCard(studyId, run, shape) {
           ),
         )
       : null,
-    h('p', {}, h('button', { type: 'button', class: 'link-button', onclick: () => void download(`${base}/table?level=bands&format=csv`, `${run.id}-bands.csv`).catch(() => undefined) }, 'Run table: bands (CSV)')),
+    h(
+      'p',
+      {},
+      h(
+        'button',
+        { type: 'button', class: 'link-button', onclick: () => void download(`${base}/table?level=bands&format=csv`, `${run.id}-bands.csv`).catch(() => undefined) },
+        'Run table: bands (CSV)',
+      ),
+    ),
     c.succeeded > 0 && SPECTRAL.has(run.recipe.method) && shape.channels.length > 0 ? conditionPlot(base, run.id, shape) : null,
   );
 }
@@ -188,8 +234,16 @@ function runCard(studyId, run, shape) {
  * @param {{ channels: string[], keys: string[] }} shape
  */
 function conditionPlot(base, runId, shape) {
-  const channel = h('select', { id: `plot-channel-${runId}` }, shape.channels.map((c) => h('option', { value: c }, c)));
-  const by = h('select', { id: `plot-by-${runId}` }, shape.keys.map((k) => h('option', { value: k }, k)));
+  const channel = h(
+    'select',
+    { id: `plot-channel-${runId}` },
+    shape.channels.map((c) => h('option', { value: c }, c)),
+  );
+  const by = h(
+    'select',
+    { id: `plot-by-${runId}` },
+    shape.keys.map((k) => h('option', { value: k }, k)),
+  );
   if (shape.keys.includes('condition')) by.value = 'condition';
   const holder = h('div', { class: 'plots' });
   const draw = async () => {

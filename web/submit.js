@@ -50,14 +50,7 @@ export function createSubmitForm(root, hooks) {
   const form = h(
     'form',
     { class: 'submit-form', 'aria-labelledby': 'submit-heading', novalidate: true, onsubmit: (/** @type {Event} */ e) => (e.preventDefault(), void submit()) },
-    h(
-      'fieldset',
-      {},
-      h('legend', {}, 'Recording'),
-      field(file, 'Recording file', 'JSON as POST /v1/signals takes it, raw float32, or EDF/EDF+'),
-      field(format, 'File format'),
-      binaryFields,
-    ),
+    h('fieldset', {}, h('legend', {}, 'Recording'), field(file, 'Recording file', 'JSON as POST /v1/signals takes it, raw float32, or EDF/EDF+'), field(format, 'File format'), binaryFields),
     h(
       'fieldset',
       {},
@@ -82,7 +75,10 @@ export function createSubmitForm(root, hooks) {
   void recipeSchemas()
     .then((found) => {
       schemas = found;
-      replace(method, [...found.keys()].map((m) => h('option', { value: m }, m)));
+      replace(
+        method,
+        [...found.keys()].map((m) => h('option', { value: m }, m)),
+      );
       method.value = found.has('welch') ? 'welch' : (found.keys().next().value ?? '');
       showSettings(method.value);
     })
@@ -94,7 +90,10 @@ export function createSubmitForm(root, hooks) {
     recipeInputs = new Map();
     if (!schema) return replace(settings);
     const list = simpleSettings(schema);
-    replace(settings, list.map((setting) => settingField(setting)));
+    replace(
+      settings,
+      list.map((setting) => settingField(setting)),
+    );
     replace(extraHelp, `optional; for ${structuredSettings(schema).join(', ')}`);
   }
 
@@ -106,7 +105,12 @@ export function createSubmitForm(root, hooks) {
     let control;
     if (setting.kind === 'choice' || setting.kind === 'boolean') {
       const choices = setting.kind === 'boolean' ? ['true', 'false'] : setting.choices;
-      control = h('select', { id, name: setting.name }, h('option', { value: '' }, `default (${shown})`), choices.map((c) => h('option', { value: c }, c)));
+      control = h(
+        'select',
+        { id, name: setting.name },
+        h('option', { value: '' }, `default (${shown})`),
+        choices.map((c) => h('option', { value: c }, c)),
+      );
     } else {
       control = h('input', { id, name: setting.name, type: 'text', inputmode: setting.kind === 'integer' ? 'numeric' : 'decimal', autocomplete: 'off', placeholder: shown });
     }
@@ -170,7 +174,13 @@ export function createSubmitForm(root, hooks) {
   /** @param {unknown} error */
   function showGeneral(error) {
     const problem = error instanceof ProblemError ? error.problem : null;
-    replace(general, h('strong', {}, problem ? problem.title : 'Something went wrong'), ' ', problem ? problem.detail : String(error), problem?.requestId ? h('span', { class: 'muted' }, ` (request ${problem.requestId})`) : null);
+    replace(
+      general,
+      h('strong', {}, problem ? problem.title : 'Something went wrong'),
+      ' ',
+      problem ? problem.detail : String(error),
+      problem?.requestId ? h('span', { class: 'muted' }, ` (request ${problem.requestId})`) : null,
+    );
     general.hidden = false;
   }
 

@@ -31,7 +31,10 @@ export function inputOf(path: string, options: InputOptions): LocalInput {
     path,
     format: formatOf(path, options.inputFormat),
     samplingRate: options.samplingRate,
-    channels: options.channels?.split(',').map((c) => c.trim()).filter((c) => c !== ''),
+    channels: options.channels
+      ?.split(',')
+      .map((c) => c.trim())
+      .filter((c) => c !== ''),
     epochCount: options.epochs,
     unit: options.unit,
   };

@@ -77,7 +77,12 @@ export async function createLocalEngine(options: { threads?: number; env?: NodeJ
     }
     if (input.format === 'float32') {
       if (!input.samplingRate || !input.channels?.length) throw new LocalInputError('float32 files need --sampling-rate and --channels');
-      return ingestFile(store, input.path, { format: 'float32', samplingRate: input.samplingRate, channels: input.channels, epochCount: input.epochCount ?? 1, unit: input.unit }, { tenant: 'public', limits: config.signalLimits, maxStoreBytes: 0 });
+      return ingestFile(
+        store,
+        input.path,
+        { format: 'float32', samplingRate: input.samplingRate, channels: input.channels, epochCount: input.epochCount ?? 1, unit: input.unit },
+        { tenant: 'public', limits: config.signalLimits, maxStoreBytes: 0 },
+      );
     }
     return ingestFile(store, input.path, { format: 'edf', channels: input.channels, samplingRate: input.samplingRate }, { tenant: 'public', limits: config.signalLimits, maxStoreBytes: 0 });
   }
@@ -88,7 +93,11 @@ export async function createLocalEngine(options: { threads?: number; env?: NodeJ
      * Analyzes one file with one recipe (a recipe object, as a file holds it, or a record's recipe).
      * @returns the record as JSON text, `result` in the canonical form its hash was taken over
      */
-    async analyze(input: LocalInput, recipe: unknown, run: { onProgress?: (fraction: number) => void; signal?: AbortSignal; view?: SignalView | null } = {}): Promise<{ text: string; signal: SignalMeta }> {
+    async analyze(
+      input: LocalInput,
+      recipe: unknown,
+      run: { onProgress?: (fraction: number) => void; signal?: AbortSignal; view?: SignalView | null } = {},
+    ): Promise<{ text: string; signal: SignalMeta }> {
       try {
         const meta = await storeInput(input);
         const { spec } = planJob(config.recipeLimits, meta, normalizeRecipe(recipe), run.view ?? null);

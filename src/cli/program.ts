@@ -86,12 +86,15 @@ export function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>
       .requiredOption('--recipe <recipe>', 'a recipe file, inline JSON, a record file (its recipe is used), or a pinned id rcp_… (with --server)')
       .option('--out <path>', 'write the record to this file (several files: a directory, one <name>.record.json each); default: standard output, one record per line')
       .addOption(new Option('--table <level>', 'write one table over every record instead of the records: one row per band, feature, spectrum bin, …').choices([...TABLE_LEVELS]))
-      .addOption(new Option('--format <format>', 'the table\'s format: CSV (RFC 4180) or Parquet (default csv)').choices([...TABLE_FORMATS])),
+      .addOption(new Option('--format <format>', "the table's format: CSV (RFC 4180) or Parquet (default csv)").choices([...TABLE_FORMATS])),
   )
     .addOption(serverOption())
     .addOption(keyOption())
     .addOption(jsonOption())
-    .addHelpText('after', '\nThe record made here carries the same result and resultHash as a server\'s for the same input and recipe.\nExit status: 0 done, 2 an input or the recipe was refused, 130 interrupted.')
+    .addHelpText(
+      'after',
+      "\nThe record made here carries the same result and resultHash as a server's for the same input and recipe.\nExit status: 0 done, 2 an input or the recipe was refused, 130 interrupted.",
+    )
     .action(async (files: string[], options: Record<string, unknown>) => {
       const { runAnalyze } = await import('./analyze.js');
       program.setOptionValue('exitCode', await run((abort) => runAnalyze(files, options as never, createTerminal({ json: options.json === true }), abort)));
@@ -100,12 +103,15 @@ export function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>
   inputOptions(
     program
       .command('verify')
-      .description('recompute a record from its input file with the record\'s own recipe, here, and compare the input hash, the engine version and resultHash')
+      .description("recompute a record from its input file with the record's own recipe, here, and compare the input hash, the engine version and resultHash")
       .argument('<record>', 'a feature record (JSON), e.g. from `rhythmetric record` or GET /v1/jobs/{id}/record')
       .argument('<file>', 'the signal file the record was made from'),
   )
     .addOption(jsonOption())
-    .addHelpText('after', '\nExit status: 0 they match; 1 they differ (the first differing JSON path and both values are printed; a record of another engine version is reported as such); 2 usage or input errors.')
+    .addHelpText(
+      'after',
+      '\nExit status: 0 they match; 1 they differ (the first differing JSON path and both values are printed; a record of another engine version is reported as such); 2 usage or input errors.',
+    )
     .action(async (recordPath: string, file: string, options: Record<string, unknown>) => {
       const { runVerify } = await import('./verify.js');
       program.setOptionValue('exitCode', await run((abort) => runVerify(recordPath, file, options as never, createTerminal({ json: options.json === true }), abort)));
@@ -116,11 +122,14 @@ export function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>
     study
       .command('run')
       .description('analyze every file of a manifest with one recipe, here or on a server with --server; running it again skips what is done')
-      .argument('<manifest>', 'CSV manifest (RFC 4180, header row): a "file" column (relative to the manifest), "subject", optional start, end and channels, and metadata columns ("age:number" for numbers)')
+      .argument(
+        '<manifest>',
+        'CSV manifest (RFC 4180, header row): a "file" column (relative to the manifest), "subject", optional start, end and channels, and metadata columns ("age:number" for numbers)',
+      )
       .requiredOption('--recipe <recipe>', 'a recipe file, inline JSON, a record file (its recipe is used), or a pinned id rcp_… (with --server)')
       .option('--out <dir>', 'directory for the records (here), the run table and the study state (default: <manifest name>-run)')
-      .addOption(new Option('--table <level>', 'also write the run table: every entry\'s rows led by the entry and its metadata').choices([...TABLE_LEVELS]))
-      .addOption(new Option('--format <format>', 'the table\'s format (default csv)').choices([...TABLE_FORMATS])),
+      .addOption(new Option('--table <level>', "also write the run table: every entry's rows led by the entry and its metadata").choices([...TABLE_LEVELS]))
+      .addOption(new Option('--format <format>', "the table's format (default csv)").choices([...TABLE_FORMATS])),
   )
     .addOption(serverOption())
     .addOption(keyOption())
@@ -145,7 +154,7 @@ export function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>
 
   program
     .command('plot')
-    .description('fetch a picture (SVG) of a finished job\'s record from a server')
+    .description("fetch a picture (SVG) of a finished job's record from a server")
     .argument('<job>', 'job id (job_…)')
     .argument('<kind>', 'what to draw, e.g. psd; the server lists the kinds it knows when it refuses one')
     .option('--channels <names>', 'comma-separated channel names to draw')
@@ -161,7 +170,7 @@ export function buildProgram(run: (work: (abort: AbortSignal) => Promise<number>
 
   program
     .command('table')
-    .description('fetch a finished job\'s record as a table from a server')
+    .description("fetch a finished job's record as a table from a server")
     .argument('<job>', 'job id (job_…)')
     .addOption(new Option('--level <level>', 'the grain of a row: a band, a feature set, a spectrum bin, … (default: the first the record gives)').choices([...TABLE_LEVELS]))
     .addOption(new Option('--format <format>', 'CSV (RFC 4180) or Parquet').choices([...TABLE_FORMATS]).default('csv'))

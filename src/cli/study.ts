@@ -193,7 +193,10 @@ async function runRemote(
 ): Promise<number> {
   const statePath = join(out, 'study.json');
   const manifestSha256 = createHash('sha256').update(manifestText).digest('hex');
-  const state = await readFile(statePath, 'utf8').then((t) => JSON.parse(t) as StudyState, () => null);
+  const state = await readFile(statePath, 'utf8').then(
+    (t) => JSON.parse(t) as StudyState,
+    () => null,
+  );
   let studyId: string;
   if (state && state.server === client.baseUrl && state.manifestSha256 === manifestSha256) {
     studyId = state.study;
@@ -247,6 +250,11 @@ async function runRemote(
       throw error;
     }
   }
-  term.note(`study ${studyId}, run ${run.id}: ${run.state}; ${run.counts.succeeded} succeeded (${run.counts.reused} already done), ${run.counts.failed} failed`, { study: studyId, run: run.id, state: run.state, counts: run.counts });
+  term.note(`study ${studyId}, run ${run.id}: ${run.state}; ${run.counts.succeeded} succeeded (${run.counts.reused} already done), ${run.counts.failed} failed`, {
+    study: studyId,
+    run: run.id,
+    state: run.state,
+    counts: run.counts,
+  });
   return run.state === 'succeeded' ? EXIT.ok : EXIT.differ;
 }

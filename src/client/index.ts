@@ -72,10 +72,7 @@ export function createRhythmetricClient(options: ClientOptions) {
     },
 
     /** Uploads float32 (little-endian, [epoch][channel][sample]) or EDF/EDF+ bytes. */
-    async uploadSignalBytes(
-      bytes: Uint8Array,
-      query: { format: 'float32' | 'edf'; samplingRate?: number; channels?: string; epochCount?: number },
-    ): Promise<SignalInfo> {
+    async uploadSignalBytes(bytes: Uint8Array, query: { format: 'float32' | 'edf'; samplingRate?: number; channels?: string; epochCount?: number }): Promise<SignalInfo> {
       return expectData(
         await api.POST('/v1/signals', {
           params: { query: query as never },

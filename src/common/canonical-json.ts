@@ -110,7 +110,9 @@ function write(value: unknown, path: (string | number)[]): string {
   }
   const record = value as Record<string, unknown>;
   // Array.prototype.sort without a comparator orders strings by UTF-16 code units, as §3.2.3 asks.
-  const keys = Object.keys(record).filter((k) => record[k] !== undefined).sort();
+  const keys = Object.keys(record)
+    .filter((k) => record[k] !== undefined)
+    .sort();
   let out = '{';
   for (let i = 0; i < keys.length; i++) {
     const key = keys[i]!;

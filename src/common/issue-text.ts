@@ -69,7 +69,13 @@ const quote = (v: unknown) => JSON.stringify(v);
 
 function choice(allowed: readonly unknown[], given: unknown): string {
   const list = allowed.map(quote).join(', ');
-  const near = typeof given === 'string' ? closest(given, allowed.filter((v): v is string => typeof v === 'string')) : null;
+  const near =
+    typeof given === 'string'
+      ? closest(
+          given,
+          allowed.filter((v): v is string => typeof v === 'string'),
+        )
+      : null;
   const sent = given === undefined ? 'nothing was sent' : `got ${quote(given)}`;
   return `must be one of ${list}; ${sent}${near && near !== given ? `; did you mean ${quote(near)}?` : ''}`;
 }

@@ -13,7 +13,7 @@
  */
 
 export const BASELINE_MODES = ['decibel', 'percent', 'ratio', 'zscore'] as const;
-export type BaselineMode = typeof BASELINE_MODES[number];
+export type BaselineMode = (typeof BASELINE_MODES)[number];
 
 /** Baseline as sample indices of the time axis, half-open: startSample ≤ i < endSample. */
 export interface BaselineSampleWindow {
@@ -80,7 +80,8 @@ export function baselineRows(window: BaselineSampleWindow | BaselineTimeWindow, 
     const { startTime, endTime, times } = window;
     if (times.length !== timeCount) throw new RangeError(`window.times must have timeCount = ${timeCount} entries, got ${times.length}`);
     if (!(startTime <= endTime)) throw new RangeError(`window.startTime must be ≤ endTime, got ${startTime} and ${endTime}`);
-    let start = -1, end = -1;
+    let start = -1,
+      end = -1;
     for (let i = 0; i < times.length; i++) {
       if (i > 0 && !(times[i]! > times[i - 1]!)) throw new RangeError('window.times must be strictly ascending');
       if (times[i]! >= startTime && times[i]! <= endTime) {
@@ -99,10 +100,16 @@ export function baselineRows(window: BaselineSampleWindow | BaselineTimeWindow, 
   return { start: startSample, end: endSample };
 }
 
-interface Statistics { mean: Float64Array; sd: Float64Array; counts: Uint32Array }
+interface Statistics {
+  mean: Float64Array;
+  sd: Float64Array;
+  counts: Uint32Array;
+}
 
 function statistics(p: Float64Array, F: number, start: number, end: number, exclude: Uint8Array | undefined): Statistics {
-  const mean = new Float64Array(F), sd = new Float64Array(F), counts = new Uint32Array(F);
+  const mean = new Float64Array(F),
+    sd = new Float64Array(F),
+    counts = new Uint32Array(F);
   for (let t = start; t < end; t++) {
     for (let f = 0; f < F; f++) {
       if (exclude !== undefined && exclude[t * F + f] === 1) continue;
@@ -125,9 +132,11 @@ function statistics(p: Float64Array, F: number, start: number, end: number, excl
 /** Normalises p in place by the statistics; returns the frequencies whose baseline is unusable. */
 function normalize(p: Float64Array, F: number, mode: BaselineMode, s: Statistics): number[] {
   const bad: number[] = [];
-  const scale = new Float64Array(F), offset = new Float64Array(F);
+  const scale = new Float64Array(F),
+    offset = new Float64Array(F);
   for (let f = 0; f < F; f++) {
-    const b = s.mean[f]!, sd = s.sd[f]!;
+    const b = s.mean[f]!,
+      sd = s.sd[f]!;
     const usable = mode === 'zscore' ? sd > 0 && Number.isFinite(sd) : b > 0 && Number.isFinite(b);
     if (!usable) bad.push(f);
     scale[f] = usable ? (mode === 'zscore' ? 1 / sd : 1 / b) : Number.NaN;
@@ -137,10 +146,18 @@ function normalize(p: Float64Array, F: number, mode: BaselineMode, s: Statistics
     const f = i % F;
     const v = p[i]!;
     switch (mode) {
-      case 'decibel': p[i] = 10 * Math.log10(v * scale[f]!); break;
-      case 'percent': p[i] = 100 * (v - offset[f]!) * scale[f]!; break;
-      case 'ratio': p[i] = v * scale[f]!; break;
-      case 'zscore': p[i] = (v - offset[f]!) * scale[f]!; break;
+      case 'decibel':
+        p[i] = 10 * Math.log10(v * scale[f]!);
+        break;
+      case 'percent':
+        p[i] = 100 * (v - offset[f]!) * scale[f]!;
+        break;
+      case 'ratio':
+        p[i] = v * scale[f]!;
+        break;
+      case 'zscore':
+        p[i] = (v - offset[f]!) * scale[f]!;
+        break;
     }
   }
   return bad;
@@ -195,7 +212,15 @@ export function baselineNormalize(trials: readonly Float64Array[], options: Base
     });
   }
   return {
-    mode, average, trials: normalizedTrials, baselineMean: stats.mean, baselineStandardDeviation: stats.sd,
-    baselineCounts: stats.counts, baselineStart: start, baselineEnd: end, trialCount: trials.length, warnings,
+    mode,
+    average,
+    trials: normalizedTrials,
+    baselineMean: stats.mean,
+    baselineStandardDeviation: stats.sd,
+    baselineCounts: stats.counts,
+    baselineStart: start,
+    baselineEnd: end,
+    trialCount: trials.length,
+    warnings,
   };
 }

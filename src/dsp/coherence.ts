@@ -176,26 +176,41 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
   const bins = frequencies.length;
   const bands = (options.bands ?? []).map((band, b) => {
     if (!(band.low < band.high)) throw new RangeError(`bands[${b}].low must be < high, got ${band.low} and ${band.high}`);
-    let first = bins, end = 0;
-    for (let k = 0; k < bins; k++) if (frequencies[k]! >= band.low && frequencies[k]! < band.high) { first = Math.min(first, k); end = k + 1; }
+    let first = bins,
+      end = 0;
+    for (let k = 0; k < bins; k++)
+      if (frequencies[k]! >= band.low && frequencies[k]! < band.high) {
+        first = Math.min(first, k);
+        end = k + 1;
+      }
     if (end <= first) throw new RangeError(`bands[${b}] (${band.name}: ${band.low}–${band.high} Hz) holds no frequency bin; the resolution is ${samplingRate / fftLength} Hz`);
     return { band, first, end };
   });
 
-  const P = pairs.length, E = epochs.length, K = tapers.length;
+  const P = pairs.length,
+    E = epochs.length,
+    K = tapers.length;
   const fft = complexFftPlan(fftLength);
-  const re = new Float64Array(fftLength), im = new Float64Array(fftLength), scratch = new Float64Array(segmentSamples);
+  const re = new Float64Array(fftLength),
+    im = new Float64Array(fftLength),
+    scratch = new Float64Array(segmentSamples);
   // spectra of every channel for one (segment, taper): channel-major [c·bins + k]
   const spectra = { re: new Float64Array(channels * bins), im: new Float64Array(channels * bins) };
   const auto = new Float64Array(channels * bins);
-  const crossRe = new Float64Array(P * bins), crossIm = new Float64Array(P * bins);
-  const epochRe = new Float64Array(P * bins), epochIm = new Float64Array(P * bins);
-  const lockRe = new Float64Array(P * bins), lockIm = new Float64Array(P * bins), lockCount = new Float64Array(P * bins);
+  const crossRe = new Float64Array(P * bins),
+    crossIm = new Float64Array(P * bins);
+  const epochRe = new Float64Array(P * bins),
+    epochIm = new Float64Array(P * bins);
+  const lockRe = new Float64Array(P * bins),
+    lockIm = new Float64Array(P * bins),
+    lockCount = new Float64Array(P * bins);
   const step = segmentSamples - overlapSamples;
-  const vanishes = new Uint8Array(channels), live = new Uint8Array(channels);
+  const vanishes = new Uint8Array(channels),
+    live = new Uint8Array(channels);
 
   for (const epoch of epochs) {
-    epochRe.fill(0); epochIm.fill(0);
+    epochRe.fill(0);
+    epochIm.fill(0);
     for (let s = 0; s < perEpoch; s++) {
       for (let c = 0; c < channels; c++) {
         vanishes[c] = segmentVanishes(epoch[c]!, s * step, segmentSamples, detrend) ? 1 : 0;
@@ -215,8 +230,10 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
         for (let i = 0; i < channels * bins; i++) auto[i] = auto[i]! + spectra.re[i]! ** 2 + spectra.im[i]! ** 2;
         pairs.forEach(([a, b], p) => {
           for (let k = 0; k < bins; k++) {
-            const ar = spectra.re[a * bins + k]!, ai = spectra.im[a * bins + k]!;
-            const br = spectra.re[b * bins + k]!, bi = spectra.im[b * bins + k]!;
+            const ar = spectra.re[a * bins + k]!,
+              ai = spectra.im[a * bins + k]!;
+            const br = spectra.re[b * bins + k]!,
+              bi = spectra.im[b * bins + k]!;
             // X_a·conj(X_b)
             epochRe[p * bins + k] = epochRe[p * bins + k]! + ar * br + ai * bi;
             epochIm[p * bins + k] = epochIm[p * bins + k]! + ai * br - ar * bi;
@@ -237,9 +254,13 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
     }
   }
 
-  const coherence: Float64Array[] = [], imaginaryCoherency: Float64Array[] = [], locking: Float64Array[] = [];
+  const coherence: Float64Array[] = [],
+    imaginaryCoherency: Float64Array[] = [],
+    locking: Float64Array[] = [];
   pairs.forEach(([a, b], p) => {
-    const c = new Float64Array(bins), ic = new Float64Array(bins), plv = new Float64Array(bins);
+    const c = new Float64Array(bins),
+      ic = new Float64Array(bins),
+      plv = new Float64Array(bins);
     for (let k = 0; k < bins; k++) {
       const i = p * bins + k;
       const denominator = auto[a * bins + k]! * auto[b * bins + k]!;
@@ -247,7 +268,9 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
       ic[k] = crossIm[i]! / Math.sqrt(denominator);
       plv[k] = lockCount[i]! > 0 ? Math.hypot(lockRe[i]!, lockIm[i]!) / lockCount[i]! : Number.NaN;
     }
-    coherence.push(c); imaginaryCoherency.push(ic); locking.push(plv);
+    coherence.push(c);
+    imaginaryCoherency.push(ic);
+    locking.push(plv);
   });
   const phaseLocking = E >= 2 ? locking : undefined;
 
@@ -255,13 +278,24 @@ export function crossSpectralConnectivity(epochs: readonly (readonly Float64Arra
   const effectiveSegments = E * perEpoch * K * overlapFactor;
   return {
     method: options.tapers === undefined ? 'welch' : 'multitaper',
-    frequencies, pairs, coherence, imaginaryCoherency, phaseLocking,
+    frequencies,
+    pairs,
+    coherence,
+    imaginaryCoherency,
+    phaseLocking,
     bands: bands.map(({ band, first, end }) => ({
-      name: band.name, low: band.low, high: band.high, binCount: end - first,
-      coherence: bandMeans(coherence, first, end), imaginaryCoherency: bandMeans(imaginaryCoherency, first, end),
+      name: band.name,
+      low: band.low,
+      high: band.high,
+      binCount: end - first,
+      coherence: bandMeans(coherence, first, end),
+      imaginaryCoherency: bandMeans(imaginaryCoherency, first, end),
       phaseLocking: phaseLocking === undefined ? undefined : bandMeans(phaseLocking, first, end),
     })),
-    epochCount: E, segmentCount: E * perEpoch, taperCount: K, effectiveSegments,
+    epochCount: E,
+    segmentCount: E * perEpoch,
+    taperCount: K,
+    effectiveSegments,
     coherenceBias: 1 / effectiveSegments,
     coherenceThreshold: effectiveSegments > 1 ? 1 - Math.pow(alpha, 1 / (effectiveSegments - 1)) : 1,
     alpha,

@@ -3,7 +3,7 @@
  */
 
 export const DETREND_KINDS = ['none', 'mean', 'linear'] as const;
-export type DetrendKind = typeof DETREND_KINDS[number];
+export type DetrendKind = (typeof DETREND_KINDS)[number];
 
 /**
  * Least-squares line through x[start..start+n) on the centred abscissa t = i − (n−1)/2, where the
@@ -15,7 +15,8 @@ export type DetrendKind = typeof DETREND_KINDS[number];
  */
 export function lineFit(x: Float64Array, start: number, n: number, fit: Float64Array): void {
   const centre = (n - 1) / 2;
-  let sum = 0, moment = 0;
+  let sum = 0,
+    moment = 0;
   for (let i = 0; i < n; i++) {
     const v = x[start + i]!;
     sum += v;
@@ -57,7 +58,8 @@ export function detrendInto(input: Float64Array, kind: DetrendKind, out: Float64
       if (n === 0) return out;
       const fit = new Float64Array(2);
       lineFit(input, 0, n, fit);
-      const mean = fit[0]!, slope = fit[1]!;
+      const mean = fit[0]!,
+        slope = fit[1]!;
       const centre = (n - 1) / 2;
       for (let i = 0; i < n; i++) out[i] = input[i]! - mean - slope * (i - centre);
       return out;

@@ -45,7 +45,8 @@ function bisectEigenvalue(diag: Float64Array, off: Float64Array, index: number, 
   for (let iteration = 0; iteration < 200; iteration++) {
     const mid = 0.5 * (lo + hi);
     if (mid <= lo || mid >= hi) break;
-    if (countBelow(diag, off, mid, pivotFloor) > index) hi = mid; else lo = mid;
+    if (countBelow(diag, off, mid, pivotFloor) > index) hi = mid;
+    else lo = mid;
   }
   return 0.5 * (lo + hi);
 }
@@ -59,7 +60,11 @@ function shiftedSolve(diag: Float64Array, off: Float64Array, shift: number, b: F
   const [dl, d, du, du2] = work as [Float64Array, Float64Array, Float64Array, Float64Array];
   const swapped = new Uint8Array(n);
   for (let i = 0; i < n; i++) d[i] = diag[i]! - shift;
-  for (let i = 0; i < n - 1; i++) { dl[i] = off[i]!; du[i] = off[i]!; du2[i] = 0; }
+  for (let i = 0; i < n - 1; i++) {
+    dl[i] = off[i]!;
+    du[i] = off[i]!;
+    du2[i] = 0;
+  }
   for (let i = 0; i < n - 1; i++) {
     if (Math.abs(d[i]!) >= Math.abs(dl[i]!)) {
       if (d[i] === 0) d[i] = pivotFloor;

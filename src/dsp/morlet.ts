@@ -280,8 +280,12 @@ function resolveCycles(cycles: MorletOptions['cycles'], frequencies: Float64Arra
   const out = new Float64Array(frequencies.length);
   if (typeof spec === 'number') return out.fill(spec);
   if (spec === null || typeof spec !== 'object') throw new TypeError('cycles must be a number or { low, high }');
-  let fMin = Infinity, fMax = -Infinity;
-  for (const f of frequencies) { fMin = Math.min(fMin, f); fMax = Math.max(fMax, f); }
+  let fMin = Infinity,
+    fMax = -Infinity;
+  for (const f of frequencies) {
+    fMin = Math.min(fMin, f);
+    fMax = Math.max(fMax, f);
+  }
   for (let j = 0; j < frequencies.length; j++) {
     const share = fMax > fMin ? (frequencies[j]! - fMin) / (fMax - fMin) : 0;
     out[j] = spec.low + (spec.high - spec.low) * share;
@@ -360,9 +364,11 @@ class MorletPlanImpl implements MorletPlan {
     this.times = new Float64Array(this.timeCount);
     for (let i = 0; i < this.timeCount; i++) this.times[i] = (i * decimation) / samplingRate;
     this.edgeMask = new Uint8Array(this.timeCount * F);
-    let longest = 0, longestFolded = 0;
+    let longest = 0,
+      longestFolded = 0;
     for (let j = 0; j < F; j++) {
-      const f = this.frequencies[j]!, c = this.cycles[j]!;
+      const f = this.frequencies[j]!,
+        c = this.cycles[j]!;
       checkWaveletArguments(f, c, samplingRate);
       const sigma = c / (2 * Math.PI * f);
       this.sigmaTime[j] = sigma;
@@ -381,8 +387,12 @@ class MorletPlanImpl implements MorletPlan {
         this.signalSpectra.set(size, signal);
       }
       this.work.push({
-        size, spectrum: waveletSpectrum(size, kept, samplingRate, f, c), signal, fold,
-        inverse: complexFftPlan(size / fold), step: decimation / fold,
+        size,
+        spectrum: waveletSpectrum(size, kept, samplingRate, f, c),
+        signal,
+        fold,
+        inverse: complexFftPlan(size / fold),
+        step: decimation / fold,
       });
       longest = Math.max(longest, size / fold);
       if (fold > 1) longestFolded = Math.max(longestFolded, size);
@@ -430,7 +440,8 @@ class MorletPlanImpl implements MorletPlan {
   power(x: Float64Array, out?: Float64Array, accumulate = false): Float64Array {
     this.checkSignal(x);
     if (accumulate && out === undefined) throw new TypeError('accumulate needs an out array to add to');
-    const F = this.frequencyCount, T = this.timeCount;
+    const F = this.frequencyCount,
+      T = this.timeCount;
     if (out !== undefined && (!(out instanceof Float64Array) || out.length < T * F)) {
       throw new RangeError(`out must be a Float64Array of at least ${T * F} elements`);
     }
@@ -448,7 +459,8 @@ class MorletPlanImpl implements MorletPlan {
 
   coefficients(x: Float64Array): { re: Float64Array; im: Float64Array } {
     this.checkSignal(x);
-    const F = this.frequencyCount, T = this.timeCount;
+    const F = this.frequencyCount,
+      T = this.timeCount;
     const outRe = new Float64Array(T * F);
     const outIm = new Float64Array(T * F);
     this.transformSignal(x);
@@ -458,7 +470,8 @@ class MorletPlanImpl implements MorletPlan {
 
   powerAndCoefficients(x: Float64Array): { power: Float64Array; re: Float64Array; im: Float64Array } {
     this.checkSignal(x);
-    const F = this.frequencyCount, T = this.timeCount;
+    const F = this.frequencyCount,
+      T = this.timeCount;
     const power = new Float64Array(T * F);
     const outRe = new Float64Array(T * F);
     const outIm = new Float64Array(T * F);
@@ -482,7 +495,10 @@ function multiplyHermitian(size: number, xr: Float64Array, xi: Float64Array, h: 
   // bins k and size − k share X[k] (the second conjugated)
   let k = 1;
   for (let m = size - 1; k < m; k++, m--) {
-    const a = xr[k]!, b = xi[k]!, g = h[k]!, q = h[m]!;
+    const a = xr[k]!,
+      b = xi[k]!,
+      g = h[k]!,
+      q = h[m]!;
     yr[k] = a * g;
     yi[k] = b * g;
     yr[m] = a * q;
@@ -524,10 +540,7 @@ function writePower(re: Float64Array, im: Float64Array, step: number, T: number,
  * writePower for frequencies j and j + 1 at once: two neighbours in each row of `out` per store
  * pass, half the scattered cache lines of two single passes.
  */
-function writePowerPair(
-  re: Float64Array, im: Float64Array, step: number, re1: Float64Array, im1: Float64Array, step1: number,
-  T: number, out: Float64Array, j: number, F: number, keep: 0 | 1,
-): void {
+function writePowerPair(re: Float64Array, im: Float64Array, step: number, re1: Float64Array, im1: Float64Array, step1: number, T: number, out: Float64Array, j: number, F: number, keep: 0 | 1): void {
   if (keep === 0) {
     for (let i = 0, n = 0, n1 = 0, at = j; i < T; i++, n += step, n1 += step1, at += F) {
       out[at] = POWER_FACTOR * (re[n]! * re[n]! + im[n]! * im[n]!);
@@ -585,8 +598,16 @@ export function morletPower(x: Float64Array, options: MorletOptions): MorletResu
   if (!(x instanceof Float64Array)) throw new TypeError('x must be a Float64Array');
   const plan = new MorletPlanImpl(x.length, options);
   return {
-    frequencies: plan.frequencies, cycles: plan.cycles, sigmaTime: plan.sigmaTime, sigmaFrequency: plan.sigmaFrequency,
-    times: plan.times, timeCount: plan.timeCount, frequencyCount: plan.frequencyCount, power: plan.power(x),
-    edgeMask: plan.edgeMask, edgeSigmas: plan.edgeSigmas, powerFactor: POWER_FACTOR,
+    frequencies: plan.frequencies,
+    cycles: plan.cycles,
+    sigmaTime: plan.sigmaTime,
+    sigmaFrequency: plan.sigmaFrequency,
+    times: plan.times,
+    timeCount: plan.timeCount,
+    frequencyCount: plan.frequencyCount,
+    power: plan.power(x),
+    edgeMask: plan.edgeMask,
+    edgeSigmas: plan.edgeSigmas,
+    powerFactor: POWER_FACTOR,
   };
 }

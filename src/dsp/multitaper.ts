@@ -10,7 +10,7 @@ import { requireDetrend, requireFftLength, requireOptions, requireRate, requireS
 import { defaultTaperCount } from './dpss.js';
 
 export const TAPER_WEIGHTINGS = ['equal', 'eigenvalue', 'adaptive'] as const;
-export type TaperWeighting = typeof TAPER_WEIGHTINGS[number];
+export type TaperWeighting = (typeof TAPER_WEIGHTINGS)[number];
 
 /** Concentrations below this leak too much broadband power to be trusted (warning). */
 export const MIN_CONCENTRATION = 0.9;
@@ -83,8 +83,14 @@ function checkOptions(length: number, options: MultitaperOptions): Required<Mult
     throw new RangeError(`adaptiveMaxIterations must be an integer ≥ 1, got ${adaptiveMaxIterations}`);
   }
   return {
-    samplingRate, timeBandwidth, taperCount, weighting, fftLength, detrend,
-    adaptiveTolerance, adaptiveMaxIterations,
+    samplingRate,
+    timeBandwidth,
+    taperCount,
+    weighting,
+    fftLength,
+    detrend,
+    adaptiveTolerance,
+    adaptiveMaxIterations,
   };
 }
 
@@ -182,11 +188,16 @@ class MultitaperPlanImpl implements MultitaperPlan {
       // Z = A + iB with A, B the transforms of real sequences: A_j = (Z_j + conj Z_{n−j})/2, B_j = (Z_j − conj Z_{n−j})/(2i).
       for (let j = 0; j < bins; j++) {
         const mirror = j === 0 ? 0 : n - j;
-        const zr = re[j]!, zi = im[j]!, wr = re[mirror]!, wi = im[mirror]!;
-        const ar = zr + wr, ai = zi - wi;
+        const zr = re[j]!,
+          zi = im[j]!,
+          wr = re[mirror]!,
+          wi = im[mirror]!;
+        const ar = zr + wr,
+          ai = zi - wi;
         eigen[k * bins + j] = 0.25 * (ar * ar + ai * ai);
         if (b !== undefined) {
-          const br = zi + wi, bi = wr - zr;
+          const br = zi + wi,
+            bi = wr - zr;
           eigen[(k + 1) * bins + j] = 0.25 * (br * br + bi * bi);
         }
       }
@@ -238,7 +249,9 @@ class MultitaperPlanImpl implements MultitaperPlan {
       change = 0;
       for (let b = 0; b < bins; b++) {
         const s = psd[b]!;
-        let num = 0, den = 0, den2 = 0;
+        let num = 0,
+          den = 0,
+          den2 = 0;
         for (let k = 0; k < K; k++) {
           const lambda = concentrations[k]!;
           const d = (Math.sqrt(lambda) * s) / (lambda * s + (1 - lambda) * variance);

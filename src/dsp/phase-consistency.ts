@@ -65,7 +65,8 @@ export function phaseConsistencyNull(trialCount: number): PhaseConsistencyNull {
   const largeSampleMean = Math.sqrt(Math.PI / (4 * n));
   let mean: number;
   if (n === 1) mean = 1;
-  else if (n === 2) mean = 2 / Math.PI; // E|1 + e^{iθ}|/2 = E|cos(θ/2)| = 2/π
+  else if (n === 2)
+    mean = 2 / Math.PI; // E|1 + e^{iθ}|/2 = E|cos(θ/2)| = 2/π
   else mean = largeSampleMean * (1 + 1 / (16 * n) + 19 / (1536 * n * n));
   return { trialCount: n, mean, largeSampleMean, rootMeanSquare: 1 / Math.sqrt(n) };
 }
@@ -125,13 +126,18 @@ export function phaseConsistency(re: readonly Float64Array[], im: readonly Float
   if (exclude !== undefined && (!(exclude instanceof Uint8Array) || exclude.length !== size)) {
     throw new RangeError(`exclude must be a Uint8Array of ${size} values`);
   }
-  const sumRe = new Float64Array(size), sumIm = new Float64Array(size);
+  const sumRe = new Float64Array(size),
+    sumIm = new Float64Array(size);
   let zeroCoefficients = 0;
   for (let r = 0; r < n; r++) {
-    const a = re[r]!, b = im[r]!;
+    const a = re[r]!,
+      b = im[r]!;
     for (let i = 0; i < size; i++) {
       const magnitude = Math.hypot(a[i]!, b[i]!);
-      if (magnitude === 0) { zeroCoefficients++; continue; }
+      if (magnitude === 0) {
+        zeroCoefficients++;
+        continue;
+      }
       sumRe[i] = sumRe[i]! + a[i]! / magnitude;
       sumIm[i] = sumIm[i]! + b[i]! / magnitude;
     }
@@ -139,7 +145,11 @@ export function phaseConsistency(re: readonly Float64Array[], im: readonly Float
   const values = new Float64Array(size);
   for (let i = 0; i < size; i++) values[i] = exclude !== undefined && exclude[i] === 1 ? Number.NaN : Math.hypot(sumRe[i]!, sumIm[i]!) / n;
   return {
-    values, trialCount: n, null: phaseConsistencyNull(n), alpha,
-    threshold: n >= 2 ? phaseConsistencyThreshold(n, alpha) : 1, zeroCoefficients,
+    values,
+    trialCount: n,
+    null: phaseConsistencyNull(n),
+    alpha,
+    threshold: n >= 2 ? phaseConsistencyThreshold(n, alpha) : 1,
+    zeroCoefficients,
   };
 }

@@ -9,9 +9,7 @@
 // significant digits over the positive reals).
 const LANCZOS_G = 7;
 const LANCZOS = [
-  0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313,
-  -176.61502916214059, 12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6,
-  1.5056327351493116e-7,
+  0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059, 12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
 ];
 const LN_SQRT_2PI = 0.5 * Math.log(2 * Math.PI);
 
@@ -164,7 +162,8 @@ export function chiSquareQuantile(p: number, degreesOfFreedom: number): number {
     const value = f(y);
     if (value === 0) return 2 * y;
     const below = upper ? value > 0 : value < 0;
-    if (below) lo = y; else hi = y;
+    if (below) lo = y;
+    else hi = y;
     const slope = upper ? -density(y) : density(y);
     let next = y - value / slope;
     if (!(next > lo && next < hi) || !Number.isFinite(next)) {

@@ -101,17 +101,26 @@ export function taperSegmentPair(x: Float64Array, a: number, b: number, window: 
   const w = window;
   const single = b < 0;
   const bb = single ? a : b;
-  let meanA = 0, meanB = 0, slopeA = 0, slopeB = 0;
+  let meanA = 0,
+    meanB = 0,
+    slopeA = 0,
+    slopeB = 0;
   if (detrend === 'mean') {
-    let sumA = 0, sumB = 0;
-    for (let j = 0; j < len; j++) { sumA += x[a + j]!; sumB += x[bb + j]!; }
+    let sumA = 0,
+      sumB = 0;
+    for (let j = 0; j < len; j++) {
+      sumA += x[a + j]!;
+      sumB += x[bb + j]!;
+    }
     meanA = sumA / len;
     meanB = sumB / len;
   } else if (detrend === 'linear') {
     lineFit(x, a, len, fit);
-    meanA = fit[0]!; slopeA = fit[1]!;
+    meanA = fit[0]!;
+    slopeA = fit[1]!;
     lineFit(x, bb, len, fit);
-    meanB = fit[0]!; slopeB = fit[1]!;
+    meanB = fit[0]!;
+    slopeB = fit[1]!;
   }
   if (slopeA === 0 && slopeB === 0) {
     for (let j = 0; j < len; j++) {
@@ -122,7 +131,8 @@ export function taperSegmentPair(x: Float64Array, a: number, b: number, window: 
   } else {
     const centre = (len - 1) / 2;
     for (let j = 0; j < len; j++) {
-      const wj = w[j]!, t = j - centre;
+      const wj = w[j]!,
+        t = j - centre;
       re[j] = (x[a + j]! - meanA - slopeA * t) * wj;
       im[j] = (x[bb + j]! - meanB - slopeB * t) * wj;
     }
@@ -137,13 +147,21 @@ export function taperSegmentPair(x: Float64Array, a: number, b: number, window: 
  * Writes bins 0..bins−1 of A at a[aOffset…] and, when `b` is given, of B at b[bOffset…].
  */
 export function splitRealPair(
-  re: Float64Array, im: Float64Array, n: number, bins: number,
-  a: { re: Float64Array; im: Float64Array }, aOffset: number,
-  b?: { re: Float64Array; im: Float64Array }, bOffset = 0,
+  re: Float64Array,
+  im: Float64Array,
+  n: number,
+  bins: number,
+  a: { re: Float64Array; im: Float64Array },
+  aOffset: number,
+  b?: { re: Float64Array; im: Float64Array },
+  bOffset = 0,
 ): void {
   for (let k = 0; k < bins; k++) {
     const m = k === 0 ? 0 : n - k;
-    const zr = re[k]!, zi = im[k]!, yr = re[m]!, yi = im[m]!;
+    const zr = re[k]!,
+      zi = im[k]!,
+      yr = re[m]!,
+      yi = im[m]!;
     a.re[aOffset + k] = 0.5 * (zr + yr);
     a.im[aOffset + k] = 0.5 * (zi - yi);
     if (b !== undefined) {
@@ -201,4 +219,3 @@ export function requireWindowEnergy(window: Float64Array): number {
   if (!Number.isFinite(energy) || energy <= 0) throw new RangeError(`window must have finite, non-zero energy Σw², got ${energy}`);
   return energy;
 }
-

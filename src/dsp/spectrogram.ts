@@ -10,9 +10,7 @@ import type { DetrendKind } from './detrend.js';
 import { complexFftPlan, type ComplexFftPlan } from './fft.js';
 import type { WindowName } from './windows.js';
 import { requireDetrend, requireFftLength, requireOptions, requireRate, requireSamples } from './checks.js';
-import {
-  binFrequencies, oneSidedDensityScale, resolveTapers, segmentCount, splitRealPair, taperSegment, type ResolvedTapers, type TaperSpec,
-} from './spectral-core.js';
+import { binFrequencies, oneSidedDensityScale, resolveTapers, segmentCount, splitRealPair, taperSegment, type ResolvedTapers, type TaperSpec } from './spectral-core.js';
 
 /** DPSS tapers for a multitaper spectrogram. */
 export type SpectrogramTapers = TaperSpec;
@@ -135,7 +133,8 @@ class SpectrogramPlanImpl implements SpectrogramPlan {
         const row = Math.floor((j + p) / K) * bins;
         const offset = p * bins;
         for (let k = 0; k < bins; k++) {
-          const a = spectra.re[offset + k]!, b = spectra.im[offset + k]!;
+          const a = spectra.re[offset + k]!,
+            b = spectra.im[offset + k]!;
           power[row + k] = power[row + k]! + a * a + b * b;
         }
       }
@@ -145,8 +144,14 @@ class SpectrogramPlanImpl implements SpectrogramPlan {
       for (let k = 0; k < bins; k++) power[row + k] = (power[row + k]! * this.scale[k]!) / K;
     }
     return {
-      times: this.times.slice(), frequencies: this.frequencies.slice(), power, timeCount: this.timeCount,
-      frequencyCount: bins, taperCount: K, concentrations: this.resolved.concentrations.slice(), degreesOfFreedom: 2 * K,
+      times: this.times.slice(),
+      frequencies: this.frequencies.slice(),
+      power,
+      timeCount: this.timeCount,
+      frequencyCount: bins,
+      taperCount: K,
+      concentrations: this.resolved.concentrations.slice(),
+      degreesOfFreedom: 2 * K,
     };
   }
 }

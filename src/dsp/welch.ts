@@ -102,7 +102,8 @@ function validate(options: WelchOptions): void {
 
 /** k-th smallest of a[base..base+n) (k counted from base), reordering that range; Hoare's selection with median-of-three. */
 function select(a: Float64Array, base: number, n: number, k: number): number {
-  let lo = base, hi = base + n - 1;
+  let lo = base,
+    hi = base + n - 1;
   const target = base + k;
   while (hi > lo) {
     const mid = (lo + hi) >> 1;
@@ -111,11 +112,16 @@ function select(a: Float64Array, base: number, n: number, k: number): number {
     if (a[hi]! < a[lo]!) swap(a, hi, lo);
     if (a[hi]! < a[mid]!) swap(a, hi, mid);
     const pivot = a[mid]!;
-    let i = lo, j = hi;
+    let i = lo,
+      j = hi;
     while (i <= j) {
       while (a[i]! < pivot) i++;
       while (a[j]! > pivot) j--;
-      if (i <= j) { swap(a, i, j); i++; j--; }
+      if (i <= j) {
+        swap(a, i, j);
+        i++;
+        j--;
+      }
     }
     if (target <= j) hi = j;
     else if (target >= i) lo = i;
@@ -125,7 +131,9 @@ function select(a: Float64Array, base: number, n: number, k: number): number {
 }
 
 function swap(a: Float64Array, i: number, j: number): void {
-  const t = a[i]!; a[i] = a[j]!; a[j] = t;
+  const t = a[i]!;
+  a[i] = a[j]!;
+  a[j] = t;
 }
 
 /** Median of a[base..base+n) as numpy.median (mean of the two middle values for even n); reorders the range. */
@@ -238,9 +246,15 @@ class WelchPlanImpl implements WelchPlan {
       this.fft.transform(re, im);
       for (let k = 0; k < bins; k++) {
         const m = k === 0 ? 0 : n - k;
-        const zr = re[k]!, zi = im[k]!, yr = re[m]!, yi = im[m]!;
+        const zr = re[k]!,
+          zi = im[k]!,
+          yr = re[m]!,
+          yi = im[m]!;
         // A_k = (Z_k + conj Z_{n−k})/2, B_k = (Z_k − conj Z_{n−k})/(2i)
-        const ar = zr + yr, ai = zi - yi, br = zr - yr, bi = zi + yi;
+        const ar = zr + yr,
+          ai = zi - yi,
+          br = zr - yr,
+          bi = zi + yi;
         const at = k * count + s;
         stored[at] = 0.25 * (ar * ar + ai * ai);
         if (paired) stored[at + 1] = 0.25 * (br * br + bi * bi);

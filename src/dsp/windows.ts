@@ -7,7 +7,7 @@
  */
 
 export const WINDOW_NAMES = ['rectangular', 'hann', 'hamming', 'blackman', 'blackman-harris', 'flat-top', 'tukey'] as const;
-export type WindowName = typeof WINDOW_NAMES[number];
+export type WindowName = (typeof WINDOW_NAMES)[number];
 
 export interface WindowOptions {
   /** Tukey window: fraction of the window inside the cosine tapers, 0 (rectangular) … 1 (Hann). @defaultValue 0.5 */
@@ -130,7 +130,10 @@ export function windowEnergy(window: ArrayLike<number>): number {
 export function windowFigures(window: Float64Array): WindowFigures {
   const n = window.length;
   if (n < 1) throw new RangeError('window must have at least one sample');
-  let sum = 0, energy = 0, halfRe = 0, halfIm = 0;
+  let sum = 0,
+    energy = 0,
+    halfRe = 0,
+    halfIm = 0;
   for (let i = 0; i < n; i++) {
     const w = window[i]!;
     sum += w;

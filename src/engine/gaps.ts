@@ -27,7 +27,11 @@ export function screenGaps(signal: Signal, epoch: number, policy: GapHandling): 
       if (Number.isFinite(x[i]!)) continue;
       const where = `channel "${signal.channels[c]}", sample ${i}`;
       if (policy === 'reject') {
-        throw new EngineInputError('non-finite', `epoch ${epoch} holds a non-finite sample (${where}); set the recipe's "nonFinite": "skip-epoch" to leave such epochs out, or "bad-span" to leave out only what overlaps the gaps`, '/recipe/nonFinite');
+        throw new EngineInputError(
+          'non-finite',
+          `epoch ${epoch} holds a non-finite sample (${where}); set the recipe's "nonFinite": "skip-epoch" to leave such epochs out, or "bad-span" to leave out only what overlaps the gaps`,
+          '/recipe/nonFinite',
+        );
       }
       return { index: epoch, reason: 'non-finite', detail: `first non-finite sample at ${where}` };
     }

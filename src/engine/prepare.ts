@@ -57,9 +57,7 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
     cut = fixedLengthEpochs(continuous, { lengthSeconds: e.epochSeconds, ...(e.stepSeconds !== null ? { stepSeconds: e.stepSeconds } : {}), ...screening });
   } else if (e.mode === 'blocks') {
     const wanted = new Set(e.labels);
-    const blocks = (signal.events ?? [])
-      .filter((ev) => wanted.has(ev.label) && (ev.duration ?? 0) > 0)
-      .map((ev) => ({ onset: ev.onset, duration: ev.duration!, label: ev.label }));
+    const blocks = (signal.events ?? []).filter((ev) => wanted.has(ev.label) && (ev.duration ?? 0) > 0).map((ev) => ({ onset: ev.onset, duration: ev.duration!, label: ev.label }));
     if (blocks.length === 0) {
       throw new EngineInputError('no-usable-epochs', `the signal has no event with a duration labelled ${e.labels.map((l) => `"${l}"`).join(', ')} to cut epochs in`, '/recipe/epoching/labels');
     }
@@ -68,7 +66,11 @@ export function prepareInput(original: Signal, recipe: Recipe, view: SignalView 
     const wanted = e.labels ? new Set(e.labels) : null;
     const events = (signal.events ?? []).filter((ev) => !labelled.has(ev.label) && (wanted === null || wanted.has(ev.label))).map((ev) => ({ onset: ev.onset, label: ev.label }));
     if (events.length === 0) {
-      throw new EngineInputError('no-usable-epochs', `the signal has no event${e.labels ? ` labelled ${e.labels.map((l) => `"${l}"`).join(', ')}` : ''} to cut epochs around`, '/recipe/epoching/labels');
+      throw new EngineInputError(
+        'no-usable-epochs',
+        `the signal has no event${e.labels ? ` labelled ${e.labels.map((l) => `"${l}"`).join(', ')}` : ''} to cut epochs around`,
+        '/recipe/epoching/labels',
+      );
     }
     cut = eventLockedEpochs(continuous, events, {
       beforeSeconds: e.beforeSeconds,

@@ -83,7 +83,11 @@ export function computeSpectra(
   });
   if (empty !== null) {
     const { i, c } = empty as { i: number; c: number };
-    throw new EngineInputError('no-usable-epochs', `channel "${signal.channels[c]}"${signal.epochCount > 1 ? `, epoch ${usedEpochs[i]}` : ''}: every Welch segment overlaps a bad span or exceeds the peak-to-peak limit`, '/recipe/badSpans');
+    throw new EngineInputError(
+      'no-usable-epochs',
+      `channel "${signal.channels[c]}"${signal.epochCount > 1 ? `, epoch ${usedEpochs[i]}` : ''}: every Welch segment overlaps a bad span or exceeds the peak-to-peak limit`,
+      '/recipe/badSpans',
+    );
   }
   const warnings = new Set<string>(estimator.warnings);
   // Epoch-major order, as the warnings of one loop over epochs and then channels.
@@ -202,7 +206,14 @@ export function summarize(signal: Signal, resolved: ResolvedRecipe<SpectrumRecip
     result.groups = [...spectra.groups.entries()].map(([label, g]) => ({
       label,
       epochs: g.count,
-      channels: signal.channels.map((name, c) => describe(`group "${label}", channel "${name}"`, name, g.psdSums[c]!.map((v) => v / g.count), null)),
+      channels: signal.channels.map((name, c) =>
+        describe(
+          `group "${label}", channel "${name}"`,
+          name,
+          g.psdSums[c]!.map((v) => v / g.count),
+          null,
+        ),
+      ),
     }));
   }
   result.warnings = [...new Set(result.warnings)];

@@ -31,7 +31,8 @@ export function analyzeTimeFrequency(
   const base = { estimate: { method: recipe.method, epochsUsed: used.length, epochsSkipped: skipped }, warnings };
   if (recipe.method === 'connectivity') {
     // Resolving refuses a signal with one epoch; epochs left out for gaps or bad spans can still leave one.
-    if (used.length < 2) throw new EngineInputError('no-usable-epochs', `connectivity needs at least 2 epochs (phase locking is measured across epochs); ${used.length} is left after screening`, '/recipe/epoching');
+    if (used.length < 2)
+      throw new EngineInputError('no-usable-epochs', `connectivity needs at least 2 epochs (phase locking is measured across epochs); ${used.length} is left after screening`, '/recipe/epoching');
     return { result: connectivity(signal, resolved as ResolvedRecipe<ConnectivityRecipe>, used, base), attachments: [] };
   }
 
@@ -103,7 +104,9 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
   const pick = (v: Float64Array) => keep.map((k) => finite(v[k]));
   const warnings = [...base.warnings];
   for (const c of r.flatChannels) {
-    warnings.push(`channel ${signal.channels[c]} is flat (${recipe.detrend === 'none' ? 'zero' : 'constant'}) in every analysed segment: its coherence, imaginary coherency and phase locking are undefined (0/0) and reported as null`);
+    warnings.push(
+      `channel ${signal.channels[c]} is flat (${recipe.detrend === 'none' ? 'zero' : 'constant'}) in every analysed segment: its coherence, imaginary coherency and phase locking are undefined (0/0) and reported as null`,
+    );
   }
   return {
     units: { coherence: '1', frequency: 'Hz' },
@@ -125,7 +128,15 @@ function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecip
         coherence: pick(r.coherence[p]!),
         imaginaryCoherency: pick(r.imaginaryCoherency[p]!),
         ...(r.phaseLocking ? { phaseLocking: pick(r.phaseLocking[p]!) } : {}),
-        bands: r.bands.map((band) => ({ name: band.name, low: band.low, high: band.high, bins: band.binCount, coherence: finite(band.coherence[p]), imaginaryCoherency: finite(band.imaginaryCoherency[p]), phaseLocking: finite(band.phaseLocking?.[p]) })),
+        bands: r.bands.map((band) => ({
+          name: band.name,
+          low: band.low,
+          high: band.high,
+          bins: band.binCount,
+          coherence: finite(band.coherence[p]),
+          imaginaryCoherency: finite(band.imaginaryCoherency[p]),
+          phaseLocking: finite(band.phaseLocking?.[p]),
+        })),
       })),
     },
     ...base,

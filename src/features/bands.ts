@@ -31,13 +31,7 @@ export function totalPower(frequencies: Float64Array, psd: Float64Array, range: 
   return sum * resolution;
 }
 
-export function bandPowers(
-  frequencies: Float64Array,
-  psd: Float64Array,
-  bands: readonly BandDefinition[],
-  range: readonly [number, number],
-  resolution: number,
-): BandPower[] {
+export function bandPowers(frequencies: Float64Array, psd: Float64Array, bands: readonly BandDefinition[], range: readonly [number, number], resolution: number): BandPower[] {
   const total = totalPower(frequencies, psd, range, resolution);
   return bands.map((band) => {
     let sum = 0;

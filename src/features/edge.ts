@@ -65,8 +65,10 @@ export function spectralEdge(frequencies: Float64Array, psd: Float64Array, optio
     let j = 0;
     while (j < cumulative.length - 1 && cumulative[j]! < target) j++;
     if (j === 0) return { percentile, frequency: frequencies[start]! };
-    const c0 = cumulative[j - 1]!, c1 = cumulative[j]!;
-    const f0 = frequencies[start + j - 1]!, f1 = frequencies[start + j]!;
+    const c0 = cumulative[j - 1]!,
+      c1 = cumulative[j]!;
+    const f0 = frequencies[start + j - 1]!,
+      f1 = frequencies[start + j]!;
     return { percentile, frequency: f0 + ((target - c0) / (c1 - c0)) * (f1 - f0) };
   });
   return { edges, totalPower: total, warnings: [] };

@@ -38,10 +38,14 @@ export interface LineNoiseResult {
 
 function meanOver(frequencies: Float64Array, psd: Float64Array, centre: number, inner: number, outer: number): { mean: number; bins: number } {
   // binsInRange validated the spectrum once already; scan the window around the centre.
-  let sum = 0, bins = 0;
+  let sum = 0,
+    bins = 0;
   for (let k = 0; k < frequencies.length; k++) {
     const distance = Math.abs(frequencies[k]! - centre);
-    if ((inner < 0 ? distance <= outer : distance > inner && distance <= outer)) { sum += psd[k]!; bins++; }
+    if (inner < 0 ? distance <= outer : distance > inner && distance <= outer) {
+      sum += psd[k]!;
+      bins++;
+    }
   }
   return { mean: bins > 0 ? sum / bins : NaN, bins };
 }
@@ -90,8 +94,11 @@ export function lineNoiseRatio(frequencies: Float64Array, psd: Float64Array, opt
       ratio = line.mean / around.mean;
     }
     results.push({
-      frequency: centre, ratio, ratioDb: ratio !== null && ratio > 0 ? 10 * Math.log10(ratio) : null,
-      lineBins: line.bins, neighborhoodBins: around.bins,
+      frequency: centre,
+      ratio,
+      ratioDb: ratio !== null && ratio > 0 ? 10 * Math.log10(ratio) : null,
+      lineBins: line.bins,
+      neighborhoodBins: around.bins,
     });
   }
   const ratios = results.map((r) => r.ratio).filter((r): r is number => r !== null);

@@ -48,9 +48,11 @@ export function peakFrequency(frequencies: Float64Array, psd: Float64Array, opti
   const minHeightDb = options.minHeightDb ?? 3;
   if (!Number.isFinite(minHeightDb)) throw new RangeError(`minHeightDb must be finite, got ${minHeightDb}`);
   const [low, high] = options.range;
-  const background = options.background ?? fitPowerLaw(frequencies, psd, {
-    range: options.backgroundRange ?? [Math.max(low / 2, frequencies.find((f) => f > 0) ?? low), Math.min(2 * high, frequencies[frequencies.length - 1] ?? high)],
-  });
+  const background =
+    options.background ??
+    fitPowerLaw(frequencies, psd, {
+      range: options.backgroundRange ?? [Math.max(low / 2, frequencies.find((f) => f > 0) ?? low), Math.min(2 * high, frequencies[frequencies.length - 1] ?? high)],
+    });
   const warnings = [...background.warnings];
   const none = (message: string): PeakResult => ({ frequency: null, power: null, heightDb: null, background, warnings: [...warnings, message] });
   if (background.intercept === null) return none(`no power-law background to compare a peak in [${low}, ${high}] Hz against`);
@@ -61,13 +63,18 @@ export function peakFrequency(frequencies: Float64Array, psd: Float64Array, opti
     const p = psd[k]!;
     if (!(p > psd[k - 1]! && p >= psd[k + 1]!) || !(psd[k - 1]! > 0 && psd[k + 1]! > 0)) continue;
     const height = 10 * (Math.log10(p) - powerLawLog10(background, frequencies[k]!)!);
-    if (height > bestHeight) { bestHeight = height; best = k; }
+    if (height > bestHeight) {
+      bestHeight = height;
+      best = k;
+    }
   }
   if (best < 0) return none(`no local maximum in [${low}, ${high}] Hz`);
   if (bestHeight < minHeightDb) {
     return none(`no peak in [${low}, ${high}] Hz stands ${minHeightDb} dB above the power-law background (highest ${bestHeight.toFixed(2)} dB)`);
   }
-  const left = Math.log(psd[best - 1]!), centre = Math.log(psd[best]!), right = Math.log(psd[best + 1]!);
+  const left = Math.log(psd[best - 1]!),
+    centre = Math.log(psd[best]!),
+    right = Math.log(psd[best + 1]!);
   const curvature = left - 2 * centre + right;
   const offset = curvature < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (left - right)) / curvature)) : 0;
   const binWidth = frequencies[best + 1]! - frequencies[best]!;

@@ -43,11 +43,19 @@ function median(values: Float64Array): number {
 }
 
 function weightedLine(x: Float64Array, y: Float64Array, w: Float64Array): { intercept: number; slope: number } | null {
-  let sw = 0, sx = 0, sy = 0;
-  for (let i = 0; i < x.length; i++) { sw += w[i]!; sx += w[i]! * x[i]!; sy += w[i]! * y[i]!; }
+  let sw = 0,
+    sx = 0,
+    sy = 0;
+  for (let i = 0; i < x.length; i++) {
+    sw += w[i]!;
+    sx += w[i]! * x[i]!;
+    sy += w[i]! * y[i]!;
+  }
   if (!(sw > 0)) return null;
-  const mx = sx / sw, my = sy / sw;
-  let sxx = 0, sxy = 0;
+  const mx = sx / sw,
+    my = sy / sw;
+  let sxx = 0,
+    sxy = 0;
   for (let i = 0; i < x.length; i++) {
     const dx = x[i]! - mx;
     sxx += w[i]! * dx * dx;
@@ -59,7 +67,13 @@ function weightedLine(x: Float64Array, y: Float64Array, w: Float64Array): { inte
 }
 
 const failed = (binCount: number, warnings: string[]): PowerLawFit => ({
-  intercept: null, slope: null, rSquared: null, residualRms: null, binCount, inlierFraction: null, warnings,
+  intercept: null,
+  slope: null,
+  rSquared: null,
+  residualRms: null,
+  binCount,
+  inlierFraction: null,
+  warnings,
 });
 
 /**
@@ -88,13 +102,18 @@ export function fitPowerLaw(frequencies: Float64Array, psd: Float64Array, option
   const ys: number[] = [];
   let skipped = 0;
   for (let k = start; k < end; k++) {
-    const f = frequencies[k]!, p = psd[k]!;
-    if (f > 0 && p > 0 && Number.isFinite(p)) { xs.push(Math.log10(f)); ys.push(Math.log10(p)); } else skipped++;
+    const f = frequencies[k]!,
+      p = psd[k]!;
+    if (f > 0 && p > 0 && Number.isFinite(p)) {
+      xs.push(Math.log10(f));
+      ys.push(Math.log10(p));
+    } else skipped++;
   }
   if (skipped > 0) warnings.push(`power-law fit skipped ${skipped} bin(s) with f ≤ 0 or non-positive power`);
   const n = xs.length;
   if (n < 3) return failed(n, [...warnings, `power-law fit needs at least 3 usable bins in [${options.range[0]}, ${options.range[1]}] Hz, got ${n}`]);
-  const x = Float64Array.from(xs), y = Float64Array.from(ys);
+  const x = Float64Array.from(xs),
+    y = Float64Array.from(ys);
   const w = new Float64Array(n).fill(1);
   let line = weightedLine(x, y, w)!;
   const residual = new Float64Array(n);
@@ -125,7 +144,9 @@ export function fitPowerLaw(frequencies: Float64Array, psd: Float64Array, option
   }
   let meanY = 0;
   for (let i = 0; i < n; i++) meanY += y[i]! / n;
-  let ssRes = 0, ssTot = 0, inliers = 0;
+  let ssRes = 0,
+    ssTot = 0,
+    inliers = 0;
   for (let i = 0; i < n; i++) {
     const r = y[i]! - line.intercept - line.slope * x[i]!;
     ssRes += r * r;

@@ -56,10 +56,17 @@ export function qualityFlags(samples: Float64Array, options: QualityOptions = {}
   if (clipRunSamples < 2) throw new RangeError(`clipRunSamples must be ≥ 2, got ${clipRunSamples}`);
   const clipTolerance = positive('clipTolerance', options.clipTolerance ?? 0);
   const maxPeakToPeak = positive('maxPeakToPeak', options.maxPeakToPeak ?? Infinity);
-  let min = Infinity, max = -Infinity, sum = 0, count = 0, nonFinite = 0;
+  let min = Infinity,
+    max = -Infinity,
+    sum = 0,
+    count = 0,
+    nonFinite = 0;
   for (let i = 0; i < samples.length; i++) {
     const v = samples[i]!;
-    if (!Number.isFinite(v)) { nonFinite++; continue; }
+    if (!Number.isFinite(v)) {
+      nonFinite++;
+      continue;
+    }
     if (v < min) min = v;
     if (v > max) max = v;
     sum += v;
@@ -79,10 +86,12 @@ export function qualityFlags(samples: Float64Array, options: QualityOptions = {}
   const flat = standardDeviation <= flatThreshold;
   if (flat) warnings.push(`flat signal: standard deviation ${standardDeviation} ≤ flatThreshold ${flatThreshold}`);
 
-  let clippedSamples = 0, longest = 0;
+  let clippedSamples = 0,
+    longest = 0;
   if (!flat) {
     const margin = clipTolerance * peakToPeak;
-    let run = 0, side = 0;
+    let run = 0,
+      side = 0;
     const close = (): void => {
       if (run >= clipRunSamples) clippedSamples += run;
       longest = Math.max(longest, run);
@@ -91,7 +100,11 @@ export function qualityFlags(samples: Float64Array, options: QualityOptions = {}
       const v = samples[i]!;
       const at = v >= max - margin ? 1 : v <= min + margin ? -1 : 0;
       if (at !== 0 && at === side) run++;
-      else { close(); run = at !== 0 ? 1 : 0; side = at; }
+      else {
+        close();
+        run = at !== 0 ? 1 : 0;
+        side = at;
+      }
     }
     close();
   }

@@ -44,7 +44,7 @@ export const API_DESCRIPTION = [
   '',
   '**Research software, not a medical device.** It is not intended for diagnosis or treatment; any clinical use follows local regulations and licensed practice.',
   '',
-  'Authentication: `Authorization: Bearer <key>`; keys have the role `read` (records, job state), `submit` (uploads, jobs) or `admin` (deletion, every tenant\'s jobs). Without configured keys the service runs in an announced open mode.',
+  "Authentication: `Authorization: Bearer <key>`; keys have the role `read` (records, job state), `submit` (uploads, jobs) or `admin` (deletion, every tenant's jobs). Without configured keys the service runs in an announced open mode.",
   '',
   'Errors are RFC 9457 `application/problem+json` with a stable `type`, a `detail` in words and a JSON `pointer` to the offending input.',
 ].join('\n');
@@ -122,7 +122,11 @@ export async function buildApp(deps: AppDeps): Promise<FastifyInstance> {
       servers: [{ url: '/', description: 'the service that serves this document' }],
       components: {
         securitySchemes: {
-          bearer: { type: 'http', scheme: 'bearer', description: 'An API key with the role read, submit or admin, as "Authorization: Bearer <key>". Without configured keys the service runs in an announced open mode.' },
+          bearer: {
+            type: 'http',
+            scheme: 'bearer',
+            description: 'An API key with the role read, submit or admin, as "Authorization: Bearer <key>". Without configured keys the service runs in an announced open mode.',
+          },
         },
       },
       security: [{ bearer: [] }],

@@ -116,12 +116,9 @@ export function registerAuth(app: FastifyInstance, options: AuthOptions): void {
     }
     if (access === 'public') return;
     if (!principal) {
-      throw new ProblemError(
-        'unauthenticated',
-        authorization ? 'the API key is not valid (unknown, revoked or malformed)' : 'this route needs an API key: send "Authorization: Bearer <key>"',
-        null,
-        { 'www-authenticate': 'Bearer realm="rhythmetric"' },
-      );
+      throw new ProblemError('unauthenticated', authorization ? 'the API key is not valid (unknown, revoked or malformed)' : 'this route needs an API key: send "Authorization: Bearer <key>"', null, {
+        'www-authenticate': 'Bearer realm="rhythmetric"',
+      });
     }
     request.log = request.log.child({ tenant: principal.tenant, key: principal.key });
     if (access === 'metrics') {

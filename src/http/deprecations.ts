@@ -9,5 +9,8 @@ import { renameDeprecated } from '../recipes/renames.js';
 export function warnDeprecated(reply: FastifyReply, recipe: unknown, under: string): void {
   const { deprecations } = renameDeprecated(recipe);
   if (deprecations.length === 0) return;
-  reply.header('warning', deprecations.map((d) => `299 rhythmetric ${JSON.stringify(`${under}${d.pointer}: ${d.message}`.replaceAll('"', "'"))}`));
+  reply.header(
+    'warning',
+    deprecations.map((d) => `299 rhythmetric ${JSON.stringify(`${under}${d.pointer}: ${d.message}`.replaceAll('"', "'"))}`),
+  );
 }

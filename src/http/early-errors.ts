@@ -129,7 +129,11 @@ export function buildClientErrorHandler(table: RouteTable, log: { info(obj: obje
     };
     log.info({ problem: code, requestId, parserCode: error.code }, 'request refused by the HTTP parser');
     if (socket.writable) {
-      socket.write(`HTTP/1.1 ${status} ${STATUS_CODES[status] ?? ''}\r\n${Object.entries(head).map(([k, v]) => `${k}: ${v}`).join('\r\n')}\r\n\r\n${body}`);
+      socket.write(
+        `HTTP/1.1 ${status} ${STATUS_CODES[status] ?? ''}\r\n${Object.entries(head)
+          .map(([k, v]) => `${k}: ${v}`)
+          .join('\r\n')}\r\n\r\n${body}`,
+      );
     }
     socket.destroy(error);
   };

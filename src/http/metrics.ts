@@ -25,7 +25,12 @@ export function createMetrics(app: FastifyInstance, queue: JobQueue, store: Stor
     buckets: [0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 10],
     registers: [registry],
   });
-  const submitted = new Counter({ name: 'rhythmetric_jobs_submitted_total', help: 'Job submissions by method, and whether a new job was created', labelNames: ['method', 'created'], registers: [registry] });
+  const submitted = new Counter({
+    name: 'rhythmetric_jobs_submitted_total',
+    help: 'Job submissions by method, and whether a new job was created',
+    labelNames: ['method', 'created'],
+    registers: [registry],
+  });
   const duration = new Histogram({
     name: 'rhythmetric_job_duration_seconds',
     help: 'Time from start to finish of jobs, by method and final state',

@@ -60,7 +60,11 @@ export class RecordCachingStore implements Store {
   ) {
     this.kind = store.kind;
     // UTF-16 strings: two bytes a character. Half the budget each, so large attachments cannot push every record out.
-    this.records = createByteLru<string>(maxBytes / 2, (text) => 2 * text.length, (key) => this.recordOfJob.delete(jobIdOf(key)));
+    this.records = createByteLru<string>(
+      maxBytes / 2,
+      (text) => 2 * text.length,
+      (key) => this.recordOfJob.delete(jobIdOf(key)),
+    );
     this.attachments = createByteLru<Uint8Array>(maxBytes / 2, (bytes) => bytes.byteLength);
   }
 

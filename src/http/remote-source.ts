@@ -26,18 +26,7 @@ export interface RemoteBody {
   finalUrl: string;
 }
 
-export type AddressClass =
-  | 'public'
-  | 'private'
-  | 'shared'
-  | 'loopback'
-  | 'link-local'
-  | 'unique-local'
-  | 'multicast'
-  | 'unspecified'
-  | 'broadcast'
-  | 'reserved'
-  | 'invalid';
+export type AddressClass = 'public' | 'private' | 'shared' | 'loopback' | 'link-local' | 'unique-local' | 'multicast' | 'unspecified' | 'broadcast' | 'reserved' | 'invalid';
 
 const POINTER = '/url';
 
@@ -62,7 +51,7 @@ function ipv4Number(text: string): number {
 function classifyIPv4Number(value: number): AddressClass {
   for (const [base, bits, kind] of IPV4_BLOCKS) {
     const mask = bits === 0 ? 0 : (0xffffffff << (32 - bits)) >>> 0;
-    if (((value & mask) >>> 0) === base) return kind;
+    if ((value & mask) >>> 0 === base) return kind;
   }
   return 'public';
 }

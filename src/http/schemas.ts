@@ -75,7 +75,10 @@ export const BinaryUploadQuery = z.strictObject({
     .describe('comma-separated channel names'),
   epochCount: z.coerce.number().int().min(1).default(1),
   unit: z.string().min(1).max(32).optional(),
-  voltage: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
+  voltage: z
+    .enum(['true', 'false'])
+    .transform((v) => v === 'true')
+    .optional(),
   nonFinite: z.enum(['reject', 'keep']).optional(),
   format: z.literal('float32').optional().describe('binary layout; float32 little-endian [epoch][channel][sample]'),
   events: EventsQuery.optional(),
@@ -105,7 +108,9 @@ export const UploadQueryDoc = z
     events: z
       .string()
       .optional()
-      .describe('float32: the events as a URL-encoded JSON array [{"onset": s, "duration": s or null, "label": "…"}], as in a JSON upload (EDF+ files bring theirs as annotations); for lists too long for a URL, start a resumable upload with `events` in its body'),
+      .describe(
+        'float32: the events as a URL-encoded JSON array [{"onset": s, "duration": s or null, "label": "…"}], as in a JSON upload (EDF+ files bring theirs as annotations); for lists too long for a URL, start a resumable upload with `events` in its body',
+      ),
   })
   .describe('describes a binary (application/octet-stream) body');
 
@@ -158,7 +163,7 @@ const importFields = {
 
 export const ImportSourceSchema = z
   .union([
-    z.strictObject({ file: z.string().min(1).max(4096).describe('path relative to the server\'s DATA_ROOT'), ...importFields }),
+    z.strictObject({ file: z.string().min(1).max(4096).describe("path relative to the server's DATA_ROOT"), ...importFields }),
     z.strictObject({ url: z.string().min(1).max(4096).describe('http(s) URL on a host of FETCH_ALLOWED_HOSTS'), ...importFields }),
   ])
   .meta({ id: 'ImportSource', description: 'A recording the server reads itself: a file under its data root, or an allow-listed URL. Both are off unless configured.' });

@@ -30,7 +30,13 @@ export function chooseTableFormat(format: TableFormat | undefined, accept: strin
     }
   }
   if (!best) {
-    throw new ProblemError('not-acceptable', `Accept "${accept}" allows no table format; ask for ${Object.values(MEDIA_TYPES).join(' or ')}, or give ?format=${TABLE_FORMATS.join('|')}`, '/headers/accept', {}, { formats: Object.values(MEDIA_TYPES) });
+    throw new ProblemError(
+      'not-acceptable',
+      `Accept "${accept}" allows no table format; ask for ${Object.values(MEDIA_TYPES).join(' or ')}, or give ?format=${TABLE_FORMATS.join('|')}`,
+      '/headers/accept',
+      {},
+      { formats: Object.values(MEDIA_TYPES) },
+    );
   }
   return best.format;
 }

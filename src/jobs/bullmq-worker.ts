@@ -41,7 +41,10 @@ export function startBullWorker(options: BullWorkerOptions): { worker: Worker; c
     const abort = new AbortController();
     const key = cancelKey(options.prefix, options.queueName, job.id!);
     const watch = setInterval(() => {
-      connection.exists(key).then((n) => n > 0 && abort.abort(), () => undefined);
+      connection.exists(key).then(
+        (n) => n > 0 && abort.abort(),
+        () => undefined,
+      );
     }, 250);
     let last = -1;
     try {

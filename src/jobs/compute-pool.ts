@@ -23,7 +23,11 @@ export interface ComputePool {
  * @param budget - the process's thread budget, shared by jobs and their helpers. @defaultValue
  *   `max(jobs, threadsPerJob)` threads when `jobs` is given, else one per CPU
  */
-export function createComputePool(jobs?: number, threadsPerJob?: number, budget: ThreadBudget = createThreadBudget(jobs === undefined ? defaultThreadCount() : Math.max(jobs, threadsPerJob ?? 1))): ComputePool {
+export function createComputePool(
+  jobs?: number,
+  threadsPerJob?: number,
+  budget: ThreadBudget = createThreadBudget(jobs === undefined ? defaultThreadCount() : Math.max(jobs, threadsPerJob ?? 1)),
+): ComputePool {
   const size = jobs ?? budget.threads;
   const jobThreads = threadsPerJob ?? budget.threads;
   const pool = createThreadPool(threadEntry(import.meta.url, 'pool-task'), size);

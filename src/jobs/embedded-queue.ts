@@ -296,7 +296,12 @@ export class EmbeddedQueue implements JobQueue {
     const { view } = entry;
     const stored: StoredJob = { view, spec: entry.spec, shutdowns: entry.shutdowns, crashes: entry.crashes, stopped: entry.stopped };
     const write = this.options.store.putDocument('jobs', view.id, JSON.stringify(stored), { durable });
-    const tracked = write.then(() => undefined, () => undefined).finally(() => this.writes.delete(tracked));
+    const tracked = write
+      .then(
+        () => undefined,
+        () => undefined,
+      )
+      .finally(() => this.writes.delete(tracked));
     this.writes.add(tracked);
     return write;
   }

@@ -27,13 +27,7 @@ export async function getRecipe(store: Store, id: string, pointer: string | null
  * Builds the job for a (signal, recipe) pair after checking, before anything is queued, that the
  * recipe fits the signal; a misfit answers 422 now instead of a failed job later.
  */
-export function planJob(
-  limits: RecipeLimits,
-  meta: SignalMeta,
-  pinned: PinnedRecipe,
-  view: SignalView | null = null,
-  labels: Record<string, string> = {},
-): { jobId: string; spec: JobSpec } {
+export function planJob(limits: RecipeLimits, meta: SignalMeta, pinned: PinnedRecipe, view: SignalView | null = null, labels: Record<string, string> = {}): { jobId: string; spec: JobSpec } {
   const reference = pinned.recipe.reference;
   if (view?.channels && typeof reference === 'object' && view.channels.includes(reference.channel)) {
     throw new DomainError('recipe-unfit', `channel "${reference.channel}" is the recipe's reference and is left out of the output; do not select it`, { pointer: '/signal/channels' });
@@ -42,9 +36,13 @@ export function planJob(
   const resolved = locatedUnder('/recipe', () => resolveRecipe(pinned.recipe, pinned.hash, shape, limits));
   locatedUnder('/recipe', () => checkDerivedEcho(pinned.derivedEcho, resolved.derived));
   if (meta.nonFiniteSamples > 0 && pinned.recipe.nonFinite === 'reject') {
-    throw new DomainError('non-finite', `signal ${meta.id} holds ${meta.nonFiniteSamples} non-finite sample(s); set the recipe's "nonFinite": "skip-epoch" to leave those epochs out, or "bad-span" to leave out only what overlaps the gaps`, {
-      pointer: '/recipe/nonFinite',
-    });
+    throw new DomainError(
+      'non-finite',
+      `signal ${meta.id} holds ${meta.nonFiniteSamples} non-finite sample(s); set the recipe's "nonFinite": "skip-epoch" to leave those epochs out, or "bad-span" to leave out only what overlaps the gaps`,
+      {
+        pointer: '/recipe/nonFinite',
+      },
+    );
   }
   const recordKey = recordKeyOf(meta.tenant, meta.sha256, pinned.hash, view);
   return {

@@ -38,13 +38,19 @@ export default async function poolTask({ spec, store, mode, jobThreads, budget, 
   let sent = -1;
   const release = takeJobSlot(budget);
   try {
-    const outcome = await runJob(spec, storeFor(store), mode, (fraction) => {
-      const step = Math.floor(fraction * 100);
-      if (step > sent) {
-        sent = step;
-        port.postMessage(fraction);
-      }
-    }, { channels: createChannelRunner({ threads: jobThreads, budget }) });
+    const outcome = await runJob(
+      spec,
+      storeFor(store),
+      mode,
+      (fraction) => {
+        const step = Math.floor(fraction * 100);
+        if (step > sent) {
+          sent = step;
+          port.postMessage(fraction);
+        }
+      },
+      { channels: createChannelRunner({ threads: jobThreads, budget }) },
+    );
     return { ok: true, outcome };
   } catch (error) {
     const problem = refusalOf(error);

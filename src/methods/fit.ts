@@ -73,8 +73,7 @@ export interface CostEstimate {
 
 export const unfit = (detail: string, pointer: string) => new DomainError('recipe-unfit', detail, { pointer });
 export const invalid = (detail: string, pointer: string) => new DomainError('invalid-recipe', detail, { pointer });
-export const overLimit = (detail: string, pointer: string, extensions?: Record<string, unknown>) =>
-  new DomainError('limit-exceeded', detail, { pointer, ...(extensions ? { extensions } : {}) });
+export const overLimit = (detail: string, pointer: string, extensions?: Record<string, unknown>) => new DomainError('limit-exceeded', detail, { pointer, ...(extensions ? { extensions } : {}) });
 
 /** Frequency of bin k in Hz, computed as k·fs/n in this order everywhere (band edges compare against it). */
 export function binFrequency(k: number, samplingRate: number, fftLength: number): number {
@@ -200,7 +199,13 @@ export function epochCountOf(recipe: EpochingSettings, shape: SignalShape, epoch
 export function checkLabels(recipe: EpochingSettings, shape: SignalShape): void {
   if (!shape.events) return;
   const known = new Set(shape.events.map((ev) => ev.label));
-  const has = known.size === 0 ? 'the signal has no events' : `the signal has ${[...known].sort().map((l) => `"${l}"`).join(', ')}`;
+  const has =
+    known.size === 0
+      ? 'the signal has no events'
+      : `the signal has ${[...known]
+          .sort()
+          .map((l) => `"${l}"`)
+          .join(', ')}`;
   const e = recipe.epoching;
   if (e?.mode === 'events') {
     if (known.size === 0) throw unfit(`events epoching needs events; ${has}`, '/epoching');

@@ -37,8 +37,12 @@ export const MAX_WAVELET_TO_EPOCH = 4;
 /** The wavelets of a recipe: frequency (Hz), cycles, and the JSON pointer that names the frequency. */
 function wavelets(recipe: MorletRecipe): { frequency: number; cycles: number; pointer: string }[] {
   const list = Array.isArray(recipe.frequencies) ? Float64Array.from(recipe.frequencies) : logFrequencies(recipe.frequencies.low, recipe.frequencies.high, recipe.frequencies.count);
-  let lo = Infinity, hi = -Infinity;
-  for (const f of list) { lo = Math.min(lo, f); hi = Math.max(hi, f); }
+  let lo = Infinity,
+    hi = -Infinity;
+  for (const f of list) {
+    lo = Math.min(lo, f);
+    hi = Math.max(hi, f);
+  }
   const pointerOf = (i: number, f: number) => (Array.isArray(recipe.frequencies) ? `/frequencies/${i}` : f === lo ? '/frequencies/low' : '/frequencies/high');
   // cycles as the plan resolves them: fixed, or linear in frequency from low to high (dsp/morlet.ts)
   const cycles = recipe.cycles;
@@ -91,7 +95,10 @@ export const morlet = defineMethod({
     const n = derived.epochSamples!;
     const { channels, epochs, loaded, prepared } = extentOf(recipe, derived, shape);
     const all = wavelets(recipe);
-    let waveletPeak = 0, spectra = 0, build = 0, perTrial = 0;
+    let waveletPeak = 0,
+      spectra = 0,
+      build = 0,
+      perTrial = 0;
     for (const w of all) {
       const halfWidth = Math.ceil((SUPPORT_SIGMAS * w.cycles * fs) / (2 * Math.PI * w.frequency));
       // the sampled wavelet (complex, ±6σ_t) exists while its spectrum is made, one at a time

@@ -15,9 +15,7 @@ import { connectivity } from './connectivity.js';
 /** Every method, in the order the recipe union and the documentation list them. */
 export const METHOD_MODULES = [welch, multitaper, periodogram, spectrogram, morlet, connectivity] as const;
 
-export const RecipeSchema = z
-  .discriminatedUnion('method', [welch.schema, multitaper.schema, periodogram.schema, spectrogram.schema, morlet.schema, connectivity.schema])
-  .meta({ id: 'Recipe' });
+export const RecipeSchema = z.discriminatedUnion('method', [welch.schema, multitaper.schema, periodogram.schema, spectrogram.schema, morlet.schema, connectivity.schema]).meta({ id: 'Recipe' });
 
 export type RecipeInput = z.input<typeof RecipeSchema>;
 export type Recipe = z.output<typeof RecipeSchema>;

@@ -30,7 +30,7 @@ export const RatioSchema = z
   .meta({ id: 'BandRatio', description: 'A ratio of two absolute band powers.' });
 
 export const Range = z.tuple([z.number().min(0), z.number().positive()]);
-const OptionalRange = Range.nullable().default(null).describe('[low, high] Hz, both included; null means the recipe\'s frequencyRange');
+const OptionalRange = Range.nullable().default(null).describe("[low, high] Hz, both included; null means the recipe's frequencyRange");
 
 /** Spectral features, each computed only when named (an empty object takes every default). */
 export const FeaturesSchema = z
@@ -60,7 +60,10 @@ export const FeaturesSchema = z
       .describe('the aperiodic (1/f) background: a line log10 PSD = intercept + slope·log10 f fitted over the range'),
     lineNoise: z
       .strictObject({
-        frequency: z.union([z.literal(50), z.literal(60)]).default(50).describe('mains frequency, Hz'),
+        frequency: z
+          .union([z.literal(50), z.literal(60)])
+          .default(50)
+          .describe('mains frequency, Hz'),
         harmonics: z.number().int().min(1).max(10).default(3),
         halfWidth: z.number().positive().default(1).describe('half-width of each line band, Hz'),
         neighborhoodWidth: z.number().positive().default(4).describe('width of the comparison band on each side, Hz'),
@@ -88,7 +91,7 @@ export const EpochingSchema = z
     }),
     z.strictObject({
       mode: z.literal('events'),
-      labels: z.array(z.string().min(1)).min(1).max(256).nullable().default(null).describe("event labels to cut around; null = every event of the signal"),
+      labels: z.array(z.string().min(1)).min(1).max(256).nullable().default(null).describe('event labels to cut around; null = every event of the signal'),
       beforeSeconds: z.number().min(0).max(3600).default(0).describe('data kept before each event'),
       afterSeconds: z.number().positive().max(3600).describe('data kept after each event'),
       baseline: z.tuple([z.number(), z.number()]).nullable().default(null).describe('[start, end) s relative to the event; its mean is subtracted per channel'),
@@ -130,13 +133,7 @@ export const commonSettings = {
     .describe('bands for band power; default: IFCN glossary bands with documented edges'),
   ratios: z.array(RatioSchema).max(64).default([]).describe('ratios of absolute band powers'),
   perEpoch: z.boolean().default(false).describe('also report every epoch on its own, not only the mean over epochs'),
-  confidence: z
-    .number()
-    .gt(0)
-    .lt(1)
-    .nullable()
-    .default(null)
-    .describe('confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none'),
+  confidence: z.number().gt(0).lt(1).nullable().default(null).describe('confidence level of per-bin χ² intervals (psdLower/psdUpper), e.g. 0.95; null: none'),
   features: FeaturesSchema.default({}).describe('spectral features to compute, by name'),
   reference: z
     .union([z.enum(['none', 'average']), z.strictObject({ channel: z.string().min(1) })])
@@ -207,9 +204,8 @@ export const timeFrequencyOutput = {
   baseline: BaselineSchema.nullable().default(null),
   output: z.enum(['matrix', 'summary']).default('matrix').describe('matrix: full time × frequency matrices as binary attachments; summary: only the band-and-window averages'),
   summary: SummarySchema,
-  perEpoch: z.boolean().default(false).describe('also keep every epoch\'s matrix (attachments grow with the number of epochs)'),
+  perEpoch: z.boolean().default(false).describe("also keep every epoch's matrix (attachments grow with the number of epochs)"),
 };
-
 
 export type Features = z.output<typeof FeaturesSchema>;
 export type Epoching = z.output<typeof EpochingSchema>;

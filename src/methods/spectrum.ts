@@ -4,8 +4,24 @@
  * parts of the cost every spectrum job pays.
  */
 import {
-  analysedChannels, checkBandNames, checkFftLimit, checkLabels, checkRangeOrder, checkReference, countBins, epochCountOf, epochLength,
-  float64Bytes, frequencyRangeOf, invalid, unfit, type CostEstimate, type DerivedSettings, type Fit, type RecipeLimits, type SignalShape,
+  analysedChannels,
+  checkBandNames,
+  checkFftLimit,
+  checkLabels,
+  checkRangeOrder,
+  checkReference,
+  countBins,
+  epochCountOf,
+  epochLength,
+  float64Bytes,
+  frequencyRangeOf,
+  invalid,
+  unfit,
+  type CostEstimate,
+  type DerivedSettings,
+  type Fit,
+  type RecipeLimits,
+  type SignalShape,
 } from './fit.js';
 import type { commonSettings } from './settings.js';
 import type { z } from 'zod';
@@ -130,4 +146,3 @@ export function spectrumCost(recipe: SpectrumSettings, derived: DerivedSettings,
   const work = epochs * analysed * estimateWork;
   return { bytes, work, driver: kept > loaded + prepared ? '/perEpoch' : driver };
 }
-

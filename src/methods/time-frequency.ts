@@ -4,8 +4,21 @@
  * baselines and summary windows, and the bound on the matrices a job may keep.
  */
 import {
-  analysedChannels, checkFftLimit, checkLabels, checkReference, epochCountOf, epochLength, float64Bytes, frequencyRangeOf, invalid,
-  overLimit, unfit, type DerivedSettings, type Fit, type RecipeLimits, type SignalShape,
+  analysedChannels,
+  checkFftLimit,
+  checkLabels,
+  checkReference,
+  epochCountOf,
+  epochLength,
+  float64Bytes,
+  frequencyRangeOf,
+  invalid,
+  overLimit,
+  unfit,
+  type DerivedSettings,
+  type Fit,
+  type RecipeLimits,
+  type SignalShape,
 } from './fit.js';
 import type { timeFrequencyCommon, timeFrequencyOutput } from './settings.js';
 import type { z } from 'zod';

@@ -23,7 +23,10 @@ export interface BandsPlotOptions extends PictureSize {
  */
 export function bandsPlot(record: FeatureRecord, options: BandsPlotOptions): string {
   const result = record.result as FeatureResult;
-  const names = selectChannels(result.channels.map((c) => c.name), options.channels);
+  const names = selectChannels(
+    result.channels.map((c) => c.name),
+    options.channels,
+  );
   const value = options.value ?? 'absolute';
   const channels = names.map((n) => result.channels.find((c) => c.name === n)!);
   const bandNames = channels[0]?.bands.map((b) => b.name) ?? [];

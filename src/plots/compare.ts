@@ -19,7 +19,11 @@ export interface CompareOptions extends PictureSize {
 const DASHES = [undefined, '7 4', '2 3', '9 3 2 3'];
 
 function channelOf(record: FeatureRecord<FeatureResult>, channel: string, pointer: string) {
-  selectChannels(record.result.channels.map((c) => c.name), [channel], pointer);
+  selectChannels(
+    record.result.channels.map((c) => c.name),
+    [channel],
+    pointer,
+  );
   return record.result.channels.find((c) => c.name === channel)!;
 }
 
@@ -93,5 +97,9 @@ export function groupSpectraPlot(groups: { label: string; records: FeatureRecord
   const description =
     `Geometric mean PSD of channel ${options.channel} per ${options.groupedBy} (${groups.map((g) => `${g.label}: ${g.records.length} records`).join('; ')}), ` +
     `shaded ± 1 standard deviation of log power across records, from ${formatValue(range[0])} to ${formatValue(range[1])} Hz, power ${scale === 'db' ? 'in dB' : 'on a log10 axis'}.`;
-  return drawSpectra(series, { title, description, unit, bands: bandsOf(all[0]!), ribbonLabel: '± 1 SD across records' }, { width: options.width, height: options.height, scale, frequencyRange: range });
+  return drawSpectra(
+    series,
+    { title, description, unit, bands: bandsOf(all[0]!), ribbonLabel: '± 1 SD across records' },
+    { width: options.width, height: options.height, scale, frequencyRange: range },
+  );
 }

@@ -42,7 +42,10 @@ const MEASURES = [
 export function connectivityPlot(record: FeatureRecord, options: ConnectivityPlotOptions): string {
   const result = record.result as TimeFrequencyResult;
   const part = result.connectivity as unknown as ConnectivityPart;
-  const asked = selectChannels(result.channels.map((c) => c.name), options.channels);
+  const asked = selectChannels(
+    result.channels.map((c) => c.name),
+    options.channels,
+  );
   const pairs = part.pairs.filter((p) => !options.channels || options.channels.length === 0 || p.channels.some((c) => asked.includes(c)));
   const frequencies = result.frequencies;
   const range = options.frequencyRange ?? defaultFrequencyRange(frequencies);
@@ -77,7 +80,10 @@ export function connectivityPlot(record: FeatureRecord, options: ConnectivityPlo
         class: 'series',
         'data-measure': m.key,
         'data-series': p.channels.join('-'),
-        d: pathData(bins.map((k) => xs(frequencies[k]!)), bins.map((k) => ys(p[m.key]?.[k] ?? Number.NaN))),
+        d: pathData(
+          bins.map((k) => xs(frequencies[k]!)),
+          bins.map((k) => ys(p[m.key]?.[k] ?? Number.NaN)),
+        ),
         fill: 'none',
         stroke: seriesColour(j),
         'stroke-width': 1.5,
@@ -98,6 +104,13 @@ export function connectivityPlot(record: FeatureRecord, options: ConnectivityPlo
       ),
     );
   });
-  const body = [el('defs', {}, ...defs), ...panels, legend({ ...outer, height: panelHeight }, pairs.map((p, j) => ({ label: p.channels.join('–'), colour: seriesColour(j), shape: 'line' as const })))];
+  const body = [
+    el('defs', {}, ...defs),
+    ...panels,
+    legend(
+      { ...outer, height: panelHeight },
+      pairs.map((p, j) => ({ label: p.channels.join('–'), colour: seriesColour(j), shape: 'line' as const })),
+    ),
+  ];
   return svgDocument(options, title, description, body, idBase);
 }

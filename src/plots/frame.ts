@@ -116,12 +116,7 @@ export function legend(area: Area, entries: LegendEntry[], outside = false): str
           : el('rect', { x: x + 6, y: cy - 5, width: 18, height: 10, fill: e.colour, 'fill-opacity': e.opacity });
     return el('g', { class: 'legend-entry' }, mark, textEl('text', { x: x + 30, y: cy + 4 }, e.label));
   });
-  return el(
-    'g',
-    { class: 'legend' },
-    el('rect', { x, y, width, height: entries.length * rowHeight + 4, fill: '#ffffff', 'fill-opacity': 0.85, stroke: '#bbbbbb', 'stroke-width': 0.5 }),
-    ...rows,
-  );
+  return el('g', { class: 'legend' }, el('rect', { x, y, width, height: entries.length * rowHeight + 4, fill: '#ffffff', 'fill-opacity': 0.85, stroke: '#bbbbbb', 'stroke-width': 0.5 }), ...rows);
 }
 
 /** "uV^2/Hz" → "µV²/Hz": record units in the form people read. */

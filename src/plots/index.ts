@@ -73,10 +73,14 @@ export function checkApplicable(kind: PlotKind & { name: PlotKindName }, record:
   const method = record.recipe.method;
   const fitting = PLOT_KIND_NAMES.filter((k) => (PLOT_KINDS[k].methods as readonly string[]).includes(method));
   if (!(kind.methods as readonly string[]).includes(method)) {
-    throw new DomainError('plot-not-applicable', `a "${kind.name}" plot needs a record of ${kind.methods.join(', ')}; this record is ${method}, which has ${fitting.length > 0 ? fitting.join(', ') : 'no'} plots`, {
-      pointer,
-      extensions: { allowed: fitting },
-    });
+    throw new DomainError(
+      'plot-not-applicable',
+      `a "${kind.name}" plot needs a record of ${kind.methods.join(', ')}; this record is ${method}, which has ${fitting.length > 0 ? fitting.join(', ') : 'no'} plots`,
+      {
+        pointer,
+        extensions: { allowed: fitting },
+      },
+    );
   }
   if (kind.name === 'time-frequency' && !(record.result as TimeFrequencyResult).timeFrequency?.attachments.some((a) => a.kind === 'power')) {
     throw new DomainError('plot-not-applicable', 'this record keeps only band-and-window summaries (output "summary"); a time–frequency plot needs the matrices of output "matrix"', {

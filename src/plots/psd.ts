@@ -151,14 +151,30 @@ export function drawSpectra(series: SpectrumSeries[], figure: SpectraFigure, opt
     const bins = kept[i]!;
     const fx = bins.map((k) => xs(s.frequencies[k]!));
     for (const e of s.epochs ?? []) {
-      layers.push(el('path', { class: 'epoch', 'data-series': s.label, d: pathData(fx, bins.map((k) => yOf(e[k]!))), fill: 'none', stroke: s.colour, 'stroke-width': 0.75, 'stroke-opacity': 0.18 }));
+      layers.push(
+        el('path', {
+          class: 'epoch',
+          'data-series': s.label,
+          d: pathData(
+            fx,
+            bins.map((k) => yOf(e[k]!)),
+          ),
+          fill: 'none',
+          stroke: s.colour,
+          'stroke-width': 0.75,
+          'stroke-opacity': 0.18,
+        }),
+      );
     }
     const band = s.spread ?? (s.lower && s.upper ? { lower: s.lower, upper: s.upper } : null);
     if (band) {
       const upper = bins.map((k) => yOf(band.upper[k]!));
       const lower = bins.map((k) => yOf(band.lower[k]!));
       const ok = bins.map((_, j) => Number.isFinite(upper[j]!) && Number.isFinite(lower[j]!));
-      const forward = pathData(fx.filter((_, j) => ok[j]), upper.filter((_, j) => ok[j]));
+      const forward = pathData(
+        fx.filter((_, j) => ok[j]),
+        upper.filter((_, j) => ok[j]),
+      );
       const back = pathData(fx.filter((_, j) => ok[j]).reverse(), lower.filter((_, j) => ok[j]).reverse()).replace(/^M/, 'L');
       if (forward) layers.push(el('path', { class: s.spread ? 'spread' : 'ribbon', 'data-series': s.label, d: `${forward} ${back} Z`, fill: s.colour, 'fill-opacity': 0.2, stroke: 'none' }));
     }
@@ -169,7 +185,10 @@ export function drawSpectra(series: SpectrumSeries[], figure: SpectraFigure, opt
       el('path', {
         class: 'series',
         'data-series': s.label,
-        d: pathData(bins.map((k) => xs(s.frequencies[k]!)), bins.map((k) => yOf(s.psd[k]!))),
+        d: pathData(
+          bins.map((k) => xs(s.frequencies[k]!)),
+          bins.map((k) => yOf(s.psd[k]!)),
+        ),
         fill: 'none',
         stroke: s.colour,
         'stroke-width': 1.75,
@@ -219,7 +238,10 @@ function isSpectralRecord(record: FeatureRecord): record is FeatureRecord<Featur
 export function psdPlot(record: FeatureRecord, options: PsdPlotOptions): string {
   if (!isSpectralRecord(record)) throw new TypeError('psdPlot needs a spectral record');
   const result = record.result;
-  const names = selectChannels(result.channels.map((c) => c.name), options.channels);
+  const names = selectChannels(
+    result.channels.map((c) => c.name),
+    options.channels,
+  );
   const scale = options.scale ?? 'db';
   const range = options.frequencyRange ?? defaultFrequencyRange(result.frequencies);
   const showEpochs = options.epochs ?? true;
@@ -227,7 +249,13 @@ export function psdPlot(record: FeatureRecord, options: PsdPlotOptions): string 
   const series: SpectrumSeries[] = names.map((name, i) => {
     const channel = result.channels.find((c) => c.name === name)!;
     const peak = channel.features?.peakFrequency;
-    const epochs = showEpochs && result.epochs ? result.epochs.slice(0, MAX_EPOCH_LINES).map((e) => e.channels.find((c) => c.name === name)?.psd).filter((p): p is number[] => Array.isArray(p)) : [];
+    const epochs =
+      showEpochs && result.epochs
+        ? result.epochs
+            .slice(0, MAX_EPOCH_LINES)
+            .map((e) => e.channels.find((c) => c.name === name)?.psd)
+            .filter((p): p is number[] => Array.isArray(p))
+        : [];
     return {
       label: name,
       colour: seriesColour(i),
@@ -243,17 +271,23 @@ export function psdPlot(record: FeatureRecord, options: PsdPlotOptions): string 
   const title = `Power spectral density: ${names.join(', ')}`;
   const extras = [
     series.some((s) => s.lower) && confidence ? `${Math.round(confidence * 100)} % confidence ribbons` : null,
-    series.some((s) => s.epochs) ? `single epochs drawn faintly behind the mean${(result.epochs?.length ?? 0) > MAX_EPOCH_LINES ? ` (the first ${MAX_EPOCH_LINES} of ${result.epochs!.length})` : ''}` : null,
+    series.some((s) => s.epochs)
+      ? `single epochs drawn faintly behind the mean${(result.epochs?.length ?? 0) > MAX_EPOCH_LINES ? ` (the first ${MAX_EPOCH_LINES} of ${result.epochs!.length})` : ''}`
+      : null,
     ...series.filter((s) => s.peak).map((s) => `${s.label} peak at ${formatNumber(s.peak!.frequency, 2)} Hz`),
   ].filter((x): x is string => x !== null);
   const description =
     `${method} PSD of ${names.join(', ')} from ${formatValue(range[0])} to ${formatValue(range[1])} Hz, power ${scale === 'db' ? 'in dB' : 'on a log10 axis'}` +
     `${bands.length > 0 ? `; bands ${bands.map((b) => `${b.name} ${b.low}–${b.high} Hz`).join(', ')} shaded` : ''}` +
     `${extras.length > 0 ? `; ${extras.join('; ')}` : ''}. Signal ${record.input.signal}, result ${record.resultHash.slice(0, 12)}.`;
-  return drawSpectra(series, { title, description, unit: result.units.psd, bands, ...(confidence ? { ribbonLabel: `${Math.round(confidence * 100)} % confidence` } : {}) }, {
-    width: options.width,
-    height: options.height,
-    scale,
-    frequencyRange: range,
-  });
+  return drawSpectra(
+    series,
+    { title, description, unit: result.units.psd, bands, ...(confidence ? { ribbonLabel: `${Math.round(confidence * 100)} % confidence` } : {}) },
+    {
+      width: options.width,
+      height: options.height,
+      scale,
+      frequencyRange: range,
+    },
+  );
 }

@@ -81,11 +81,26 @@ export function linearTicks(d0: number, d1: number, count = 6): Tick[] {
   return ticks;
 }
 
-const SUPERSCRIPT: Record<string, string> = { '-': '\u207b', '0': '\u2070', '1': '\u00b9', '2': '\u00b2', '3': '\u00b3', '4': '\u2074', '5': '\u2075', '6': '\u2076', '7': '\u2077', '8': '\u2078', '9': '\u2079' };
+const SUPERSCRIPT: Record<string, string> = {
+  '-': '\u207b',
+  '0': '\u2070',
+  '1': '\u00b9',
+  '2': '\u00b2',
+  '3': '\u00b3',
+  '4': '\u2074',
+  '5': '\u2075',
+  '6': '\u2076',
+  '7': '\u2077',
+  '8': '\u2078',
+  '9': '\u2079',
+};
 
 function powerLabel(mantissa: number, exponent: number): string {
   if (exponent >= -3 && exponent <= 4) return formatNumber(mantissa * 10 ** exponent, Math.max(0, -exponent));
-  const power = `10${String(exponent).split('').map((c) => SUPERSCRIPT[c]).join('')}`;
+  const power = `10${String(exponent)
+    .split('')
+    .map((c) => SUPERSCRIPT[c])
+    .join('')}`;
   return mantissa === 1 ? power : `${mantissa}\u00d7${power}`;
 }
 

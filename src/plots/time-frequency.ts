@@ -28,7 +28,10 @@ const LEVELS = 128;
 export function timeFrequencyAttachments(record: FeatureRecord, channels: string[] | undefined): { power: Record<string, string>; edgeMask: string | null } {
   const tf = (record.result as TimeFrequencyResult).timeFrequency;
   const listed = tf?.attachments ?? [];
-  const names = selectChannels(record.result.channels.map((c) => c.name), channels);
+  const names = selectChannels(
+    record.result.channels.map((c) => c.name),
+    channels,
+  );
   const chosen = channels && channels.length > 0 ? names : names.slice(0, 1);
   const power: Record<string, string> = {};
   for (const name of chosen) {
@@ -150,7 +153,14 @@ function level(position: number): number {
  * pooled into `columns` columns, each the mean of its display values (dB, log10 or the value) and an
  * edge column when any of its cells is an edge cell. Otherwise every time is its own column.
  */
-export function poolColumns(display: Float64Array, mask: Uint8Array | null, T: number, F: number, tEdges: number[], columns: number): { display: Float64Array; mask: Uint8Array | null; T: number; tEdges: number[] } {
+export function poolColumns(
+  display: Float64Array,
+  mask: Uint8Array | null,
+  T: number,
+  F: number,
+  tEdges: number[],
+  columns: number,
+): { display: Float64Array; mask: Uint8Array | null; T: number; tEdges: number[] } {
   if (T <= columns) return { display, mask, T, tEdges };
   const C = Math.max(1, Math.floor(columns));
   const out = new Float64Array(C * F);
@@ -247,7 +257,11 @@ function colourBar(area: Area, axis: ColourAxis): string {
       ),
     );
   const ends = axis.endLabels.map((label, i) =>
-    textEl('text', { class: 'colour-bar-end', 'data-end': i === 0 ? 'low' : 'high', x: x + width / 2, y: i === 0 ? area.top + area.height + 14 : area.top - 6, 'text-anchor': 'middle', 'font-size': 11 }, label),
+    textEl(
+      'text',
+      { class: 'colour-bar-end', 'data-end': i === 0 ? 'low' : 'high', x: x + width / 2, y: i === 0 ? area.top + area.height + 14 : area.top - 6, 'text-anchor': 'middle', 'font-size': 11 },
+      label,
+    ),
   );
   const lx = x + width + 52;
   const ly = area.top + area.height / 2;
@@ -313,7 +327,12 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
       el('path', { d: 'M0,8 L8,0 M-2,2 L2,-2 M6,10 L10,6', stroke: '#ffffff', 'stroke-width': 1.3, 'stroke-opacity': 0.85 }),
       el('path', { d: 'M-2,8 L6,0 M2,10 L10,2', stroke: '#333333', 'stroke-width': 1, 'stroke-opacity': 0.6 }),
     ),
-    el('pattern', { id: dots, patternUnits: 'userSpaceOnUse', width: 5, height: 5 }, el('rect', { x: 0, y: 0, width: 5, height: 5, fill: '#ffffff' }), el('circle', { cx: 2.5, cy: 2.5, r: 1, fill: '#666666' })),
+    el(
+      'pattern',
+      { id: dots, patternUnits: 'userSpaceOnUse', width: 5, height: 5 },
+      el('rect', { x: 0, y: 0, width: 5, height: 5, fill: '#ffffff' }),
+      el('circle', { cx: 2.5, cy: 2.5, r: 1, fill: '#666666' }),
+    ),
   ];
   const panels: string[] = [];
   names.forEach((name, i) => {
@@ -333,7 +352,9 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
         xAxis(area, xs, linearTicks(tEdges[0]!, tEdges[T]!, 8), i < names.length - 1 ? '' : tf.timeOrigin === 'event' ? 'Time from event (s)' : 'Time from epoch start (s)'),
         el('g', { class: 'heat-map', 'clip-path': `url(#${clip})` }, ...heatMap(shown.display, shown.T, F, shown.tEdges, fEdges, xs, ys, axis)),
         el('g', { class: 'no-values' }, ...markedCells((j) => !Number.isFinite(shown.display[j]!), shown.T, F, shown.tEdges, fEdges, xs, ys, 'no-value', `url(#${dots})`)),
-        shown.mask ? el('g', { class: 'edge-cells', 'clip-path': `url(#${clip})` }, ...markedCells((j) => shown.mask![j] === 1, shown.T, F, shown.tEdges, fEdges, xs, ys, 'edge-cell', `url(#${hatch})`)) : '',
+        shown.mask
+          ? el('g', { class: 'edge-cells', 'clip-path': `url(#${clip})` }, ...markedCells((j) => shown.mask![j] === 1, shown.T, F, shown.tEdges, fEdges, xs, ys, 'edge-cell', `url(#${hatch})`))
+          : '',
         textEl('text', { class: 'panel-title', x: area.left + 4, y: area.top - 5, 'font-weight': 'bold' }, name),
       ),
     );
@@ -354,7 +375,14 @@ export function timeFrequencyPlot(record: FeatureRecord, options: TimeFrequencyP
   }
   if (hasUndefined) {
     const x = outer.left + (mask ? 400 : 0);
-    keys.push(el('g', { class: 'no-value-key' }, el('rect', { x, y: y - 10, width: 18, height: 12, fill: `url(#${dots})`, stroke: '#999999', 'stroke-width': 0.5 }), textEl('text', { x: x + 24, y, 'font-size': 11 }, 'dotted: no value')));
+    keys.push(
+      el(
+        'g',
+        { class: 'no-value-key' },
+        el('rect', { x, y: y - 10, width: 18, height: 12, fill: `url(#${dots})`, stroke: '#999999', 'stroke-width': 0.5 }),
+        textEl('text', { x: x + 24, y, 'font-size': 11 }, 'dotted: no value'),
+      ),
+    );
   }
   body.push(...keys);
   return svgDocument(options, title, description, body, idBase);

@@ -42,10 +42,7 @@ export function resolveRecipe<R extends Recipe>(recipe: R, hash: string, shape: 
  */
 function checkGapPolicy(recipe: Recipe, shape: SignalShape, leavesOutSegments: boolean): void {
   if (recipe.nonFinite !== 'bad-span' || recipe.epoching !== null || (shape.epochCount ?? 1) !== 1 || leavesOutSegments) return;
-  throw unfit(
-    `"nonFinite": "bad-span" leaves out what overlaps a gap, but ${recipe.method} on an unepoched recording uses it whole; add "epoching", or use welch, or "skip-epoch"`,
-    '/nonFinite',
-  );
+  throw unfit(`"nonFinite": "bad-span" leaves out what overlaps a gap, but ${recipe.method} on an unepoched recording uses it whole; add "epoching", or use welch, or "skip-epoch"`, '/nonFinite');
 }
 
 function checkCost(cost: CostEstimate, limits: RecipeLimits): void {

@@ -32,7 +32,11 @@ export function splitRecipeEcho(input: unknown): { settings: unknown; echo: Reci
 /** The echoed hash and id must be those the settings hash to (SHA-256 of their canonical JSON). */
 export function checkRecipeEcho(echo: RecipeEcho, pinned: { id: string; hash: string }): void {
   if (echo.hash !== undefined && echo.hash !== pinned.hash) {
-    throw new RecipeInputError('invalid', `hash ${JSON.stringify(echo.hash)} is not the hash of this recipe's settings, ${pinned.hash}; a setting was changed after the record was made, or the hash was`, '/hash');
+    throw new RecipeInputError(
+      'invalid',
+      `hash ${JSON.stringify(echo.hash)} is not the hash of this recipe's settings, ${pinned.hash}; a setting was changed after the record was made, or the hash was`,
+      '/hash',
+    );
   }
   if (echo.id !== undefined && echo.id !== pinned.id) {
     throw new RecipeInputError('invalid', `id ${JSON.stringify(echo.id)} is not the id of this recipe's settings, ${pinned.id}`, '/id');
@@ -50,7 +54,11 @@ export function checkDerivedEcho(claimed: unknown, derived: DerivedSettings): vo
     const pointer = `/derived/${name.replaceAll('~', '~0').replaceAll('/', '~1')}`;
     if (!(name in actual)) throw new RecipeInputError('unfit-for-signal', `derived.${name} is not a value this recipe derives on this signal`, pointer);
     if (!sameJson(value, actual[name])) {
-      throw new RecipeInputError('unfit-for-signal', `derived.${name} is ${JSON.stringify(value)}, but this recipe on this signal gives ${JSON.stringify(actual[name])}; the record was made on a signal of another shape`, pointer);
+      throw new RecipeInputError(
+        'unfit-for-signal',
+        `derived.${name} is ${JSON.stringify(value)}, but this recipe on this signal gives ${JSON.stringify(actual[name])}; the record was made on a signal of another shape`,
+        pointer,
+      );
     }
   }
 }

@@ -37,7 +37,9 @@ export function signalSha256(signal: Signal): string {
 }
 
 export function signalSha256FromParts(description: Parameters<typeof signalHeader>[0], samplesSha256: string): string {
-  return createHash('sha256').update(canonicalJson({ ...signalHeader(description), samplesSha256 })).digest('hex');
+  return createHash('sha256')
+    .update(canonicalJson({ ...signalHeader(description), samplesSha256 }))
+    .digest('hex');
 }
 
 /**

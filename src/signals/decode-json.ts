@@ -37,11 +37,11 @@ export function decodeJsonSignal(body: JsonSignalBody, limits: SignalLimits): Si
       throw new SignalInputError('shape', `${epoch.length} channel rows but ${channelCount} channel names`, pointer(e));
     }
   });
-  checkSignalShape(
-    { samplingRate: body.samplingRate, channels: body.channels, epochCount: epochs.length, samplesPerEpoch },
-    limits,
-    { samplingRate: '/samplingRate', channels: '/channels', samples: pointer(0, 0) },
-  );
+  checkSignalShape({ samplingRate: body.samplingRate, channels: body.channels, epochCount: epochs.length, samplesPerEpoch }, limits, {
+    samplingRate: '/samplingRate',
+    channels: '/channels',
+    samples: pointer(0, 0),
+  });
   // Names and labels go into the signal's hash, whose canonical JSON (RFC 8785) takes I-JSON only.
   const texts: [string | undefined, string, 'channels' | 'format'][] = [
     ...body.channels.map((name, i): [string, string, 'channels'] => [name, `/channels/${i}`, 'channels']),
@@ -49,7 +49,8 @@ export function decodeJsonSignal(body: JsonSignalBody, limits: SignalLimits): Si
     ...(body.events ?? []).map((ev, i): [string, string, 'format'] => [ev.label, `/events/${i}/label`, 'format']),
   ];
   for (const [text, at, code] of texts) {
-    if (text !== undefined && loneSurrogateAt(text) >= 0) throw new SignalInputError(code, 'the text holds an unpaired UTF-16 surrogate, which JSON text exchanged between programs (I-JSON, RFC 7493) may not hold', at);
+    if (text !== undefined && loneSurrogateAt(text) >= 0)
+      throw new SignalInputError(code, 'the text holds an unpaired UTF-16 surrogate, which JSON text exchanged between programs (I-JSON, RFC 7493) may not hold', at);
   }
   const { unit, exponent } = resolveUploadUnit(body.unit, body.voltage, '/unit');
   const keep = body.nonFinite === 'keep';

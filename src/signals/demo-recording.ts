@@ -88,8 +88,14 @@ export function demoEpochs(condition: DemoCondition, shift: DemoShift, epochCoun
 /** A continuous recording: EO, EC, EO, EC blocks early in the shift, then the same late, with block events. */
 export function demoRecording(blockSeconds = 30, seed = 20261201): Signal {
   const order: [DemoCondition, DemoShift][] = [
-    ['eyes-open', 'early'], ['eyes-closed', 'early'], ['eyes-open', 'early'], ['eyes-closed', 'early'],
-    ['eyes-open', 'late'], ['eyes-closed', 'late'], ['eyes-open', 'late'], ['eyes-closed', 'late'],
+    ['eyes-open', 'early'],
+    ['eyes-closed', 'early'],
+    ['eyes-open', 'early'],
+    ['eyes-closed', 'early'],
+    ['eyes-open', 'late'],
+    ['eyes-closed', 'late'],
+    ['eyes-open', 'late'],
+    ['eyes-closed', 'late'],
   ];
   const n = Math.round(blockSeconds * DEMO_SAMPLING_RATE);
   const total = n * order.length;

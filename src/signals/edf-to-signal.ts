@@ -69,11 +69,7 @@ function selectByLabel(ordinary: readonly OrdinarySignal[], header: EdfHeader, l
       throw new SignalInputError('channels', `channel "${label}" is ambiguous: signals ${positions} of the file share that label`, `${CHANNELS_QUERY}/${i}`);
     }
     const why = header.annotationSignals.length > 0 && label === ANNOTATION_LABEL ? ' (it holds the EDF+ annotations, which become events, not samples)' : '';
-    throw new SignalInputError(
-      'channels',
-      `the file has no ordinary signal labelled "${label}"${why}; its signals are ${labelList(ordinary)}`,
-      `${CHANNELS_QUERY}/${i}`,
-    );
+    throw new SignalInputError('channels', `the file has no ordinary signal labelled "${label}"${why}; its signals are ${labelList(ordinary)}`, `${CHANNELS_QUERY}/${i}`);
   });
 }
 
@@ -90,11 +86,7 @@ function pickRate(candidates: OrdinarySignal[], ordinary: readonly OrdinarySigna
     }
     if (options.channels && kept.length < candidates.length) {
       const other = candidates.filter((s) => !kept.includes(s));
-      throw new SignalInputError(
-        'sampling-rate',
-        `the selected channels ${labelList(other)} are not sampled at ${rateText(wanted)}; the rates are ${rates(candidates)}`,
-        CHANNELS_QUERY,
-      );
+      throw new SignalInputError('sampling-rate', `the selected channels ${labelList(other)} are not sampled at ${rateText(wanted)}; the rates are ${rates(candidates)}`, CHANNELS_QUERY);
     }
     return kept;
   }

@@ -89,10 +89,14 @@ export class AmplitudeSurvey {
   }
 
   add(channel: number, samples: ArrayLike<number>): void {
-    let squares = 0, count = 0;
+    let squares = 0,
+      count = 0;
     for (let i = 0; i < samples.length; i++) {
       const v = samples[i]!;
-      if (Number.isFinite(v)) { squares += v * v; count++; }
+      if (Number.isFinite(v)) {
+        squares += v * v;
+        count++;
+      }
     }
     this.squares[channel] = this.squares[channel]! + squares;
     this.counts[channel] = this.counts[channel]! + count;

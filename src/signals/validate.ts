@@ -42,6 +42,10 @@ export function checkSamplingRate(samplingRate: number, limits: Pick<SignalLimit
     throw new SignalInputError('sampling-rate', `samplingRate ${samplingRate} Hz is above this server's limit of ${limits.maxSamplingRate} Hz`, pointer);
   }
   if (samplingRate < limits.minSamplingRate) {
-    throw new SignalInputError('sampling-rate', `samplingRate ${samplingRate} Hz is below this server's minimum of ${limits.minSamplingRate} Hz (MIN_SAMPLING_RATE); give the rate in Hz (samples per second)`, pointer);
+    throw new SignalInputError(
+      'sampling-rate',
+      `samplingRate ${samplingRate} Hz is below this server's minimum of ${limits.minSamplingRate} Hz (MIN_SAMPLING_RATE); give the rate in Hz (samples per second)`,
+      pointer,
+    );
   }
 }

@@ -121,7 +121,10 @@ export class FilesystemStore implements Store {
 
   async listSignals(): Promise<string[]> {
     await this.init();
-    return (await readdir(join(this.dataDir, 'signals'))).filter((n) => n.endsWith('.json')).map((n) => n.slice(0, -5)).sort();
+    return (await readdir(join(this.dataDir, 'signals')))
+      .filter((n) => n.endsWith('.json'))
+      .map((n) => n.slice(0, -5))
+      .sort();
   }
 
   async deleteSignal(id: string): Promise<boolean> {
@@ -194,7 +197,10 @@ export class FilesystemStore implements Store {
   async listDocuments(collection: Collection): Promise<string[]> {
     await this.init();
     const names = await readdir(join(this.dataDir, collection));
-    return names.filter((n) => n.endsWith('.json')).map((n) => n.slice(0, -5)).sort();
+    return names
+      .filter((n) => n.endsWith('.json'))
+      .map((n) => n.slice(0, -5))
+      .sort();
   }
 
   async ping(): Promise<boolean> {

@@ -12,7 +12,16 @@ import { checkSignalShape } from '../signals/validate.js';
 import { withStorageReservation, type SignalMeta, type Store } from './store.js';
 
 export type IngestDescription =
-  | { format: 'float32'; samplingRate: number; channels: string[]; epochCount: number; unit?: string | undefined; voltage?: boolean | undefined; nonFinite?: 'reject' | 'keep' | undefined; events?: SignalEvent[] | undefined }
+  | {
+      format: 'float32';
+      samplingRate: number;
+      channels: string[];
+      epochCount: number;
+      unit?: string | undefined;
+      voltage?: boolean | undefined;
+      nonFinite?: 'reject' | 'keep' | undefined;
+      events?: SignalEvent[] | undefined;
+    }
   | { format: 'edf'; channels?: string[] | undefined; samplingRate?: number | undefined };
 
 export interface IngestOptions {

@@ -48,7 +48,10 @@ export class UploadArea {
     for (const name of await readdir(dir).catch(() => [] as string[])) {
       const part = PART.exec(name);
       if (!part) continue;
-      const size = await stat(join(dir, name)).then((s) => s.size, () => 0);
+      const size = await stat(join(dir, name)).then(
+        (s) => s.size,
+        () => 0,
+      );
       this.remember(id, Number(part[1]), await reserveStorage(this.store, size, 0));
     }
   }

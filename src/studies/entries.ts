@@ -103,7 +103,8 @@ export function readJsonEntries(body: unknown): EntryInput[] {
     for (const key of Object.keys(raw)) {
       if (key !== 'metadata' && !VIEW_COLUMNS.includes(key as never)) fail({ row, at: () => `${base}/${key}` }, key, 'bad-key', `unknown field "${key}"; metadata go inside "metadata"`);
     }
-    if (!isRecord(raw.metadata)) fail({ row, at: () => `${base}/metadata` }, 'metadata', raw.metadata === undefined ? 'missing-column' : 'wrong-type', 'every entry has a "metadata" object (at least its "subject")');
+    if (!isRecord(raw.metadata))
+      fail({ row, at: () => `${base}/metadata` }, 'metadata', raw.metadata === undefined ? 'missing-column' : 'wrong-type', 'every entry has a "metadata" object (at least its "subject")');
     const view: SignalView = {};
     const number = (column: 'start' | 'end') => {
       const value = raw[column];
@@ -224,7 +225,8 @@ export function readCsvManifest(text: string): EntryInput[] {
   const names = columns.map((c) => c.name);
   const repeated = names.find((n, i) => names.indexOf(n) !== i);
   if (repeated) throw manifestError('bad-key', `column "${repeated}" appears twice`, { row: 0, column: repeated, pointer: `/header/${names.lastIndexOf(repeated)}` });
-  if (!names.includes('signal') && !names.includes('upload')) throw manifestError('missing-column', 'the header names a "signal" or an "upload" column', { row: 0, column: 'signal', pointer: '/header' });
+  if (!names.includes('signal') && !names.includes('upload'))
+    throw manifestError('missing-column', 'the header names a "signal" or an "upload" column', { row: 0, column: 'signal', pointer: '/header' });
   for (const key of REQUIRED_METADATA) {
     if (!names.includes(key)) throw manifestError('missing-column', `the header names a "${key}" column`, { row: 0, column: key, pointer: '/header' });
   }

@@ -184,7 +184,12 @@ export function createRunDriver(options: RunDriverOptions) {
         item.resultHash = (JSON.parse(record) as { resultHash?: string }).resultHash ?? null;
       } else {
         item.status = 'failed';
-        item.problem = { type: problemType('job-not-found'), title: PROBLEMS['job-not-found'].title, status: 404, detail: `job ${item.jobId} of entry ${item.entryId} is no longer known and left no record` };
+        item.problem = {
+          type: problemType('job-not-found'),
+          title: PROBLEMS['job-not-found'].title,
+          status: 404,
+          detail: `job ${item.jobId} of entry ${item.entryId} is no longer known and left no record`,
+        };
       }
     }
   }

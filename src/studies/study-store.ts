@@ -150,7 +150,11 @@ export function createStudyStore(store: Store) {
       return exclusive(studyKey(tenant, studyId), async () => {
         const study = await require(tenant, studyId);
         if (study.entries.length + inputs.length > STUDY_LIMITS.entries) {
-          throw manifestError('too-large', `a study holds at most ${STUDY_LIMITS.entries} entries; it has ${study.entries.length} and ${inputs.length} were sent`, { row: null, column: null, pointer: '/' });
+          throw manifestError('too-large', `a study holds at most ${STUDY_LIMITS.entries} entries; it has ${study.entries.length} and ${inputs.length} were sent`, {
+            row: null,
+            column: null,
+            pointer: '/',
+          });
         }
         const taken = new Map(study.entries.map((e) => [identityOf(e.signal, e.view), `entry ${e.id}`]));
         const now = new Date().toISOString();
@@ -171,7 +175,11 @@ export function createStudyStore(store: Store) {
           const earlier = taken.get(identity);
           if (earlier) {
             const column = input.upload !== undefined ? 'upload' : 'signal';
-            throw manifestError('duplicate-entry', `signal ${meta.id}${view ? ' with this view' : ''} is already ${earlier}; give each entry its own signal or part of one`, { row: input.row, column, pointer: input.at(column) });
+            throw manifestError('duplicate-entry', `signal ${meta.id}${view ? ' with this view' : ''} is already ${earlier}; give each entry its own signal or part of one`, {
+              row: input.row,
+              column,
+              pointer: input.at(column),
+            });
           }
           taken.set(identity, `row ${input.row}`);
           added.push({ id: entryIdOf(identity), signal: meta.id, sha256: meta.sha256, view, metadata: input.metadata, addedAt: now });

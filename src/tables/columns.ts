@@ -70,10 +70,7 @@ export const LEVEL_COLUMNS: Record<Exclude<TableLevel, 'features'>, readonly Col
     c('denominator', 'string', null, 'band under the line'),
     c('value', 'double', '1', 'absolute power of the numerator band over that of the denominator band; empty when the denominator is 0'),
   ],
-  spectra: [
-    c('frequency', 'double', 'Hz', 'bin frequency'),
-    c('psd', 'double', 'signal unit²/Hz', 'one-sided power spectral density'),
-  ],
+  spectra: [c('frequency', 'double', 'Hz', 'bin frequency'), c('psd', 'double', 'signal unit²/Hz', 'one-sided power spectral density')],
   quality: [
     c('used', 'boolean', null, 'whether the epoch entered the averages'),
     c('flat', 'boolean', null, 'standard deviation at or below flatThreshold'),
@@ -89,7 +86,12 @@ export const LEVEL_COLUMNS: Record<Exclude<TableLevel, 'features'>, readonly Col
     c('high', 'double', 'Hz', 'upper frequency, excluded'),
     c('start', 'double', 's', 'window start, included (relative to the event or the epoch start)'),
     c('end', 'double', 's', 'window end, excluded'),
-    c('value', 'double', 'signal unit² (morlet), signal unit²/Hz (spectrogram), or the baseline mode', 'mean of the trial-averaged (normalized) power over the cells, edge cells left out; empty when no cell is left'),
+    c(
+      'value',
+      'double',
+      'signal unit² (morlet), signal unit²/Hz (spectrogram), or the baseline mode',
+      'mean of the trial-averaged (normalized) power over the cells, edge cells left out; empty when no cell is left',
+    ),
     c('cells', 'integer', null, 'time–frequency cells averaged'),
   ],
   'pair-bands': [

@@ -31,7 +31,14 @@ const HEAD = '| column | type | unit | meaning |\n|---|---|---|---|';
  * the Parquet schema: the README and the OpenAPI description show this text.
  */
 export function tableColumnsMarkdown(): string {
-  const lead = [ENTRY_COLUMN, { name: '<metadata key>', type: 'string', unit: null, meaning: "one column per entry metadata key (run-level tables); double when every entry's value is a number" } as Column, SIGNAL_COLUMN, ...LOCATION_COLUMNS, CHANNEL_COLUMN, ...PAIR_COLUMNS];
+  const lead = [
+    ENTRY_COLUMN,
+    { name: '<metadata key>', type: 'string', unit: null, meaning: "one column per entry metadata key (run-level tables); double when every entry's value is a number" } as Column,
+    SIGNAL_COLUMN,
+    ...LOCATION_COLUMNS,
+    CHANNEL_COLUMN,
+    ...PAIR_COLUMNS,
+  ];
   const parts = [
     'Every row starts with where it comes from and ends with provenance:',
     '',

@@ -127,11 +127,7 @@ function featureGetters(record: FeatureRecord): { column: Column; get: Getter }[
     add(max!, (ch) => ch.features?.lineNoise?.maxRatio ?? null);
     for (let h = 1; h <= named.lineNoise.harmonics; h++) {
       const frequency = named.lineNoise.frequency * h;
-      add(
-        { ...harmonic!, meaning: `the ratio at ${frequency} Hz` },
-        (ch) => ch.features?.lineNoise?.harmonics.find((x) => x.frequency === frequency)?.ratio ?? null,
-        `lineNoise${frequency}Hz`,
-      );
+      add({ ...harmonic!, meaning: `the ratio at ${frequency} Hz` }, (ch) => ch.features?.lineNoise?.harmonics.find((x) => x.frequency === frequency)?.ratio ?? null, `lineNoise${frequency}Hz`);
     }
   }
   if (named.quality) {

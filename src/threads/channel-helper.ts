@@ -21,10 +21,16 @@ function run({ task, data, control, port }: HelperTask): void {
       // Each trial is copied out of shared memory first: the estimators ran about half as fast on a
       // SharedArrayBuffer-backed array as on a copy (Welch, 300 000 samples: 15 vs 8 ms, measured),
       // and a copy of one trial costs a fraction of that. The values, and so the outcome, are the same.
-      const outcome = kernel.compute(setup, work, c, (i) => shared(i).slice(), () => {
-        if (Atomics.load(control, ABORT) !== 0) throw new Abandoned();
-        Atomics.add(control, TRIALS, 1);
-      });
+      const outcome = kernel.compute(
+        setup,
+        work,
+        c,
+        (i) => shared(i).slice(),
+        () => {
+          if (Atomics.load(control, ABORT) !== 0) throw new Abandoned();
+          Atomics.add(control, TRIALS, 1);
+        },
+      );
       const report: HelperReport = { c, outcome };
       // Copied, not transferred: detaching an ArrayBuffer makes V8 drop an assumption its optimized
       // typed-array code relies on for the rest of the thread's life, and this thread's FFTs ran
@@ -38,7 +44,9 @@ function run({ task, data, control, port }: HelperTask): void {
     if (error instanceof Abandoned) return;
     const e = error instanceof Error ? error : new Error(String(error));
     const details = e as Error & { code?: string; pointer?: string | null };
-    const report: HelperReport = { error: { name: e.name, message: e.message, ...(details.code !== undefined ? { code: details.code } : {}), ...(details.pointer !== undefined ? { pointer: details.pointer } : {}) } };
+    const report: HelperReport = {
+      error: { name: e.name, message: e.message, ...(details.code !== undefined ? { code: details.code } : {}), ...(details.pointer !== undefined ? { pointer: details.pointer } : {}) },
+    };
     port.postMessage(report);
     Atomics.notify(control, COMPLETED);
   } finally {

@@ -70,12 +70,15 @@ export function createChannelRunner(options: ChannelRunnerOptions = {}): Channel
       // Without helpers the same loop runs on a private counter and nothing is copied or posted.
       const control = new Int32Array(helperCount > 0 ? new SharedArrayBuffer(CONTROL_SLOTS * 4) : new ArrayBuffer(CONTROL_SLOTS * 4));
       const data = helperCount > 0 ? sharedSamples(signal.data) : signal.data;
-      const ports = helperCount === 0 ? [] : helperThreads(helperCount).map((worker) => {
-        const { port1, port2 } = new MessageChannel();
-        const message: HelperTask = { task, data, control, port: port2 };
-        worker.postMessage(message, [port2]);
-        return port1;
-      });
+      const ports =
+        helperCount === 0
+          ? []
+          : helperThreads(helperCount).map((worker) => {
+              const { port1, port2 } = new MessageChannel();
+              const message: HelperTask = { task, data, control, port: port2 };
+              worker.postMessage(message, [port2]);
+              return port1;
+            });
       const outcomes: unknown[] = new Array(C);
       const reported = new Array<boolean>(C).fill(false);
       const contributed = new Set<MessagePort | null>();

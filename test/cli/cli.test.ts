@@ -44,7 +44,7 @@ describe('rhythmetric (the command line)', () => {
   });
 
   describe('when a file is analyzed here and on a server', () => {
-    it('should write a local record whose result is the same bytes (and resultHash) as the server\'s', async () => {
+    it("should write a local record whose result is the same bytes (and resultHash) as the server's", async () => {
       const local = await runCli(['analyze', signalFile, '--recipe', recipeFile, '--out', join(dir, 'local.json')]);
       expect(local.code, local.stderr).toBe(0);
       const localText = await readFile(join(dir, 'local.json'), 'utf8');
@@ -113,7 +113,7 @@ describe('rhythmetric (the command line)', () => {
       expect(run.stdout).not.toMatch(/first difference/);
     });
 
-    it('should exit 1 naming the input hashes when the file is not the record\'s input', async () => {
+    it("should exit 1 naming the input hashes when the file is not the record's input", async () => {
       const other = join(dir, 'eyes-open.json');
       await writeFile(other, JSON.stringify(toUploadJson(demoEpochs('eyes-open', 'late', 3, 4, 5))));
       const run = await runCli(['verify', join(dir, 'local.json'), other]);
@@ -143,7 +143,7 @@ describe('rhythmetric (the command line)', () => {
   });
 
   describe('when a table is asked for', () => {
-    it('should write the same CSV as the server\'s table route, and fetch that route with the table command', async () => {
+    it("should write the same CSV as the server's table route, and fetch that route with the table command", async () => {
       const out = join(dir, 'bands.csv');
       const local = await runCli(['analyze', signalFile, '--recipe', recipeFile, '--table', 'bands', '--format', 'csv', '--out', out]);
       expect(local.code, local.stderr).toBe(0);

@@ -24,7 +24,7 @@ function expectDigits(value: number, printed: string) {
   expect(String(value).startsWith(printed.replace('…', '')), `${value} against the README's ${printed}`).toBe(true);
 }
 
-describe('when the README\'s worked example is run as written', () => {
+describe("when the README's worked example is run as written", () => {
   let readme: string;
   let section: string;
   let api: Awaited<ReturnType<typeof startTestApi>>;
@@ -86,7 +86,11 @@ describe('when the README\'s worked example is run as written', () => {
     const ozAlpha = about(/gives about (\d+) µV² on Oz/);
     const blinkDelta = about(/blinks put about\s+(\d+) µV² of delta/);
     const upload = await api.app.inject({ method: 'POST', url: '/v1/signals', headers: { 'content-type': 'application/json' }, payload: await readFile(join(demo, 'eyes-open-late.json')) });
-    const submitted = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal: (upload.json() as { id: string }).id, recipe: { method: 'welch', ratios: [{ numerator: 'theta', denominator: 'beta' }] } } });
+    const submitted = await api.app.inject({
+      method: 'POST',
+      url: '/v1/jobs',
+      payload: { signal: (upload.json() as { id: string }).id, recipe: { method: 'welch', ratios: [{ numerator: 'theta', denominator: 'beta' }] } },
+    });
     const id = (submitted.json() as { id: string }).id;
     expect((await pollJob(api.app, id)).state).toBe('succeeded');
     const record = (await api.app.inject({ method: 'GET', url: `/v1/jobs/${id}/record` })).json() as RecordBody;

@@ -22,7 +22,7 @@ async function readmeSnippet(): Promise<string> {
 
 if (!existsSync(PYTHON)) console.warn(`[skip] the README's Python snippet is not run: ${PYTHON} does not exist here`);
 
-describe.skipIf(!existsSync(PYTHON))('when the README\'s Python snippet recomputes a record\'s hashes', () => {
+describe.skipIf(!existsSync(PYTHON))("when the README's Python snippet recomputes a record's hashes", () => {
   let api: Awaited<ReturnType<typeof startTestApi>>;
   let dir: string;
   let snippet: string;
@@ -50,14 +50,19 @@ describe.skipIf(!existsSync(PYTHON))('when the README\'s Python snippet recomput
     const { stdout } = await run(PYTHON, [snippet, join(dir, `${name}.record.json`), join(dir, `${name}.json`)]);
     const record = JSON.parse(recordText) as { resultHash: string; input: { sha256: string } };
     // Each line holds the recomputed hash, then the record's; both must be the record's own.
-    expect(stdout.trim().split('\n').map((line) => line.split(/\s+/))).toEqual([
+    expect(
+      stdout
+        .trim()
+        .split('\n')
+        .map((line) => line.split(/\s+/)),
+    ).toEqual([
       ['resultHash', record.resultHash, record.resultHash],
       ['input.sha256', record.input.sha256, record.input.sha256],
     ]);
     return recordText;
   }
 
-  it('should match on the worked example\'s upload (µV epochs, Welch with a ratio)', async () => {
+  it("should match on the worked example's upload (µV epochs, Welch with a ratio)", async () => {
     await check('eyes-closed', toUploadJson(demoEpochs('eyes-closed', 'late', 4, 4, 1003)), { method: 'welch', ratios: [{ numerator: 'theta', denominator: 'beta' }] });
   }, 90_000);
 

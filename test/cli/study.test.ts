@@ -12,7 +12,10 @@ const RECIPE = '{"method":"welch","segmentSeconds":1}';
 
 /** The last JSON line of --json output whose message starts with `prefix`. */
 function summary(stderr: string, prefix: string): Record<string, unknown> {
-  const lines = stderr.trim().split('\n').map((l) => JSON.parse(l) as { message: string });
+  const lines = stderr
+    .trim()
+    .split('\n')
+    .map((l) => JSON.parse(l) as { message: string });
   return lines.filter((l) => l.message.startsWith(prefix)).at(-1) as unknown as Record<string, unknown>;
 }
 
@@ -39,7 +42,7 @@ describe('rhythmetric study run', () => {
   });
 
   describe('when run here, with no server', () => {
-    it('should write every entry\'s record and a run table led by the entry and its metadata, and skip what is done on a second run', async () => {
+    it("should write every entry's record and a run table led by the entry and its metadata, and skip what is done on a second run", async () => {
       const out = join(dir, 'local');
       const first = await runCli(['study', 'run', manifest, '--recipe', RECIPE, '--out', out, '--table', 'bands', '--json']);
       expect(first.code, first.stderr).toBe(0);
@@ -47,12 +50,17 @@ describe('rhythmetric study run', () => {
       const records = (await readdir(out)).filter((f) => f.endsWith('.record.json'));
       expect(records).toHaveLength(4);
 
-      const [header, ...lines] = (await readFile(join(out, 'bands.csv'), 'utf8')).trim().split('\r\n').map((l) => l.split(','));
+      const [header, ...lines] = (await readFile(join(out, 'bands.csv'), 'utf8'))
+        .trim()
+        .split('\r\n')
+        .map((l) => l.split(','));
       expect(header!.slice(0, 4)).toEqual(['entry', 'subject', 'condition', 'age']);
       // Every row holds exactly the values of the record it came from (read back to the same double).
       const row = lines.find((l) => l[0] === 'files/s2-eyes-closed.json' && l[header!.indexOf('channel')] === 'Oz' && l[header!.indexOf('band')] === 'alpha')!;
       expect(row.slice(1, 4)).toEqual(['s2', 'eyes-closed', '45']);
-      const record = JSON.parse(await readFile(join(out, records.find((f) => f.startsWith('s2-eyes-closed'))!), 'utf8')) as { result: { channels: { name: string; bands: { name: string; absolute: number }[] }[] } };
+      const record = JSON.parse(await readFile(join(out, records.find((f) => f.startsWith('s2-eyes-closed'))!), 'utf8')) as {
+        result: { channels: { name: string; bands: { name: string; absolute: number }[] }[] };
+      };
       const alpha = record.result.channels.find((c) => c.name === 'Oz')!.bands.find((b) => b.name === 'alpha')!.absolute;
       expect(Object.is(Number(row[header!.indexOf('absolute')]), alpha)).toBe(true);
 
@@ -90,8 +98,16 @@ describe('rhythmetric study run', () => {
       const table = await readFile(join(out, 'bands.csv'), 'utf8');
       expect(table.split('\r\n')[0]!.split(',').slice(1, 4)).toEqual(['subject', 'condition', 'age']);
       // The same values as the table made here from the same files and recipe (after the entry column).
-      const local = (await readFile(join(dir, 'local', 'bands.csv'), 'utf8')).trim().split('\r\n').map((l) => l.split(',').slice(1).join(',')).sort();
-      const remote = table.trim().split('\r\n').map((l) => l.split(',').slice(1).join(',')).sort();
+      const local = (await readFile(join(dir, 'local', 'bands.csv'), 'utf8'))
+        .trim()
+        .split('\r\n')
+        .map((l) => l.split(',').slice(1).join(','))
+        .sort();
+      const remote = table
+        .trim()
+        .split('\r\n')
+        .map((l) => l.split(',').slice(1).join(','))
+        .sort();
       expect(remote).toEqual(local);
 
       const second = await runCli(['study', 'run', manifest, '--recipe', RECIPE, '--out', out, '--server', server, '--json']);

@@ -33,7 +33,7 @@ describe('when the client talks to a running server', () => {
     await api?.stop();
   });
 
-  it('should upload, submit, wait and fetch a record whose resultHash is the SHA-256 of its result\'s canonical JSON', async () => {
+  it("should upload, submit, wait and fetch a record whose resultHash is the SHA-256 of its result's canonical JSON", async () => {
     const signal = await client.uploadSignal(toUploadJson(demoEpochs('eyes-open', 'early', 2, 4, 11)));
     expect(signal.id).toMatch(/^sig_[0-9a-f]{32}$/);
     const job = await client.submitJob({ signal: signal.id, recipe: { method: 'periodogram' } });

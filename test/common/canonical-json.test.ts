@@ -77,15 +77,7 @@ describe('canonicalJson', () => {
       // Read the order from the text: JSON.parse would put the integer-like name "1" first again.
       const text = canonicalJson(input);
       const order = Object.values(input).sort((a, b) => text.indexOf(`"${a}"`) - text.indexOf(`"${b}"`));
-      expect(order).toEqual([
-        'Carriage Return',
-        'One',
-        'Control',
-        'Latin Small Letter O With Diaeresis',
-        'Euro Sign',
-        'Emoji: Grinning Face',
-        'Hebrew Letter Dalet With Dagesh',
-      ]);
+      expect(order).toEqual(['Carriage Return', 'One', 'Control', 'Latin Small Letter O With Diaeresis', 'Euro Sign', 'Emoji: Grinning Face', 'Hebrew Letter Dalet With Dagesh']);
       expect(text.startsWith(String.raw`{"\r":"Carriage Return","1":"One",`)).toBe(true);
     });
   });

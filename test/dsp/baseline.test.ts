@@ -20,9 +20,10 @@ describe('baselineNormalize', () => {
     ] as const)('should give %s = %s after the baseline and the neutral value inside it', (mode, after) => {
       const r = baselineNormalize([trial], { ...base, mode });
       const neutral = mode === 'decibel' ? 0 : mode === 'percent' ? 0 : 1;
-      for (let t = 0; t < 6; t++) for (let f = 0; f < 2; f++) {
-        expect(r.average[t * 2 + f]).toBeCloseTo(t < 2 ? neutral : after, 12);
-      }
+      for (let t = 0; t < 6; t++)
+        for (let f = 0; f < 2; f++) {
+          expect(r.average[t * 2 + f]).toBeCloseTo(t < 2 ? neutral : after, 12);
+        }
       expect(Array.from(r.baselineMean)).toEqual([4, 0.5]);
       expect(r.warnings).toEqual([]);
     });
@@ -71,7 +72,11 @@ describe('baselineNormalize', () => {
       const trial = map(4, 2, (t) => t + 1);
       const exclude = map(4, 2, (t, f) => (f === 1 || t === 0 ? 1 : 0));
       const r = baselineNormalize([trial], {
-        mode: 'ratio', timeCount: 4, frequencyCount: 2, window: { startSample: 0, endSample: 2 }, exclude: Uint8Array.from(exclude),
+        mode: 'ratio',
+        timeCount: 4,
+        frequencyCount: 2,
+        window: { startSample: 0, endSample: 2 },
+        exclude: Uint8Array.from(exclude),
       });
       expect(r.baselineMean[0]).toBe(2); // only row 1 counts
       expect(Array.from(r.baselineCounts)).toEqual([1, 0]);
@@ -82,19 +87,28 @@ describe('baselineNormalize', () => {
 
   describe('when a 10 Hz burst 0.3–0.6 s after the event is in half the channels (invented data)', () => {
     it('should show > 3 dB at 10 Hz inside the burst in burst channels and |dB| < 1 elsewhere', () => {
-      const fs = 250, epochs = 30;
+      const fs = 250,
+        epochs = 30;
       const random = createRandom(2024);
       // epoch −1.0 … 1.5 s; Morlet at 6, 10, 20 Hz, 7 cycles; baseline −0.5 … −0.2 s with the edge cells left out
       const plan = createMorletPlan(Math.round(2.5 * fs), { samplingRate: fs, frequencies: [6, 10, 20], cycles: 7 });
       const times = Float64Array.from(plan.times, (t) => t - 1);
       const options: BaselineOptions = {
-        mode: 'decibel', timeCount: plan.timeCount, frequencyCount: 3, window: { startTime: -0.5, endTime: -0.2, times }, exclude: plan.edgeMask,
+        mode: 'decibel',
+        timeCount: plan.timeCount,
+        frequencyCount: 3,
+        window: { startTime: -0.5, endTime: -0.2, times },
+        exclude: plan.edgeMask,
       };
       const results = [true, false].map((burst) => {
-        const maps = Array.from({ length: epochs }, () => plan.power(Float64Array.from({ length: plan.length }, (_, i) => {
-          const t = i / fs - 1;
-          return random.normal() + (burst && t >= 0.3 && t < 0.6 ? 1.5 * Math.sin(2 * Math.PI * 10 * t + random.uniform()) : 0);
-        })));
+        const maps = Array.from({ length: epochs }, () =>
+          plan.power(
+            Float64Array.from({ length: plan.length }, (_, i) => {
+              const t = i / fs - 1;
+              return random.normal() + (burst && t >= 0.3 && t < 0.6 ? 1.5 * Math.sin(2 * Math.PI * 10 * t + random.uniform()) : 0);
+            }),
+          ),
+        );
         const r = baselineNormalize(maps, options);
         expect(r.warnings).toEqual([]);
         // at 6 Hz, 3σ_t = 0.557 s reaches past −0.5 s, so only part of the baseline is used

@@ -7,8 +7,17 @@ import { createRandom } from '../../src/common/random.js';
 import { float32s, float64s, readWelchFixture, worstRelativeError } from '../fixtures/welch/fixture.js';
 
 interface CoherenceCase {
-  name: string; samplingRate: number; segmentSamples: number; overlapSamples: number; fftLength: number;
-  window: WindowName; detrend: DetrendKind; x32: string; y32: string; frequencies: string; coherence: string;
+  name: string;
+  samplingRate: number;
+  segmentSamples: number;
+  overlapSamples: number;
+  fftLength: number;
+  window: WindowName;
+  detrend: DetrendKind;
+  x32: string;
+  y32: string;
+  frequencies: string;
+  coherence: string;
 }
 const fixture = readWelchFixture<{ provenance: { scipy: string }; cases: CoherenceCase[] }>('../tf/coherence.json');
 
@@ -20,8 +29,12 @@ describe('crossSpectralConnectivity', () => {
   describe(`when compared with scipy.signal.coherence (scipy ${fixture.provenance.scipy})`, () => {
     it.each(fixture.cases.map((c) => [c.name, c] as const))('should match %s to 1e-9 relative', (_name, c) => {
       const r = crossSpectralConnectivity([[float32s(c.x32), float32s(c.y32)]], {
-        samplingRate: c.samplingRate, segmentSamples: c.segmentSamples, overlapSamples: c.overlapSamples,
-        fftLength: c.fftLength, window: c.window, detrend: c.detrend,
+        samplingRate: c.samplingRate,
+        segmentSamples: c.segmentSamples,
+        overlapSamples: c.overlapSamples,
+        fftLength: c.fftLength,
+        window: c.window,
+        detrend: c.detrend,
       });
       const expected = float64s(c.coherence);
       // after mean or line removal the DC bin is 0/0 on both sides (rounding noise), so it is left out there
@@ -37,8 +50,10 @@ describe('crossSpectralConnectivity', () => {
     // scipy 1.10, docs/references.md §7). The paired real FFT must not lend the flat channel rounding
     // noise from its partner: before the fix such a pair showed coherence up to 0.83.
     const random = createRandom(7);
-    const live = noise(2048, random), other = noise(2048, random);
-    const constant = new Float64Array(2048).fill(3.1), zero = new Float64Array(2048);
+    const live = noise(2048, random),
+      other = noise(2048, random);
+    const constant = new Float64Array(2048).fill(3.1),
+      zero = new Float64Array(2048);
     const options: ConnectivityOptions = { samplingRate: 256, segmentSamples: 256, overlapSamples: 128, window: 'hann', detrend: 'mean' };
 
     it('should give NaN coherence, imaginary coherency and phase locking for every pair it is in', () => {
@@ -53,7 +68,10 @@ describe('crossSpectralConnectivity', () => {
         expect(Number.isNaN(r.bands[0]!.coherence[p]!)).toBe(true);
       }
       // the live pair is untouched by its flat neighbour: the same as computed without it, to rounding
-      const alone = crossSpectralConnectivity(epochs.map(([a, , b]) => [a!, b!]), options);
+      const alone = crossSpectralConnectivity(
+        epochs.map(([a, , b]) => [a!, b!]),
+        options,
+      );
       expect(worstRelativeError(r.coherence[1]!, alone.coherence[0]!, 1e-12)).toBeLessThan(1e-12);
     });
 
@@ -75,7 +93,10 @@ describe('crossSpectralConnectivity', () => {
       let result;
       for (let run = 0; run < 50; run++) {
         result = crossSpectralConnectivity([[noise(16 * 128, random), noise(16 * 128, random)]], {
-          samplingRate: 128, segmentSamples: 128, overlapSamples: 0, window: 'hann',
+          samplingRate: 128,
+          segmentSamples: 128,
+          overlapSamples: 0,
+          window: 'hann',
         });
         // interior bins only: DC and Nyquist DFTs are real, with half the degrees of freedom
         for (let k = 1; k < 64; k++) values.push(result.coherence[0]![k]!);
@@ -85,20 +106,28 @@ describe('crossSpectralConnectivity', () => {
       expect(result!.coherenceThreshold).toBeCloseTo(0.181036, 6);
       const mean = values.reduce((a, b) => a + b, 0) / values.length;
       // Ĉ ~ Beta(1, n − 1) under the null: sd = √((n−1)/(n²(n+1))) = 0.0587; 4 standard errors over 3150 bins
-      expect(Math.abs(mean - 0.0625)).toBeLessThan(4 * 0.0587 / Math.sqrt(values.length));
+      expect(Math.abs(mean - 0.0625)).toBeLessThan((4 * 0.0587) / Math.sqrt(values.length));
       const alarms = values.filter((v) => v > result!.coherenceThreshold).length / values.length;
-      expect(Math.abs(alarms - 0.05)).toBeLessThan(4 * Math.sqrt(0.05 * 0.95 / values.length));
+      expect(Math.abs(alarms - 0.05)).toBeLessThan(4 * Math.sqrt((0.05 * 0.95) / values.length));
     });
 
     it('should report 1/n_eff from the overlap-corrected degrees of freedom with Hann at 50 % overlap, within 5 % of Monte Carlo', () => {
       const random = createRandom(50);
-      let sum = 0, count = 0, result;
+      let sum = 0,
+        count = 0,
+        result;
       for (let run = 0; run < 60; run++) {
         // 16 segments of 128 with 64-sample steps: 17·64 samples
         result = crossSpectralConnectivity([[noise(17 * 64, random), noise(17 * 64, random)]], {
-          samplingRate: 128, segmentSamples: 128, overlapSamples: 64, window: 'hann',
+          samplingRate: 128,
+          segmentSamples: 128,
+          overlapSamples: 64,
+          window: 'hann',
         });
-        for (let k = 1; k < 64; k++) { sum += result.coherence[0]![k]!; count++; }
+        for (let k = 1; k < 64; k++) {
+          sum += result.coherence[0]![k]!;
+          count++;
+        }
       }
       // ν = 36·16²/(19·16 − 1) = 30.416 (docs/references.md §2), n_eff = ν/2 = 15.21; docs/references.md §7 reports a
       // Monte Carlo mean of 0.0647 for this case (informative, no closed form)
@@ -113,20 +142,25 @@ describe('crossSpectralConnectivity', () => {
       const r = crossSpectralConnectivity(epochs, { samplingRate: 256, segmentSamples: 256, overlapSamples: 0, tapers: { timeBandwidth: 3, taperCount: 5 } });
       expect(r.method).toBe('multitaper');
       expect(r.effectiveSegments).toBe(150);
-      const interior = (v: Float64Array): number => { let s = 0; for (let k = 1; k < 128; k++) s += v[k]!; return s / 127; };
+      const interior = (v: Float64Array): number => {
+        let s = 0;
+        for (let k = 1; k < 128; k++) s += v[k]!;
+        return s / 127;
+      };
       // PLV over 30 epochs: E[R_30] = 0.1627 (phaseConsistencyNull); bins are nearly independent (127 of them),
       // single-draw sd ≈ 0.52·E[R], so 4 SE ≈ 0.19·E[R]
       expect(r.phaseLockingNull!.mean).toBe(phaseConsistencyNull(30).mean);
       expect(Math.abs(interior(r.phaseLocking![0]!) - r.phaseLockingNull!.mean)).toBeLessThan(0.19 * r.phaseLockingNull!.mean);
       // MSC over 150 tapered spectra: Beta(1, 149) mean 1/150, sd ≈ 1/150; adjacent bins share taper leakage (±3 bins),
       // so allow 4 SE of 127/7 independent bins
-      expect(Math.abs(interior(r.coherence[0]!) - 1 / 150)).toBeLessThan(4 * (1 / 150) / Math.sqrt(127 / 7));
+      expect(Math.abs(interior(r.coherence[0]!) - 1 / 150)).toBeLessThan((4 * (1 / 150)) / Math.sqrt(127 / 7));
     });
   });
 
   describe('when the channels share a delayed signal', () => {
     // y(t) = x(t − τ) + noise with τ = 5 ms; at 20 Hz, 2πfτ = 0.63 rad < π, so Im coherency > 0 (j lags i)
-    const fs = 200, random = createRandom(8);
+    const fs = 200,
+      random = createRandom(8);
     const source = noise(4000 + 1, random);
     const x = source.subarray(1);
     const y = Float64Array.from(source.subarray(0, 4000), (v) => v + 0.1 * random.normal());
@@ -165,7 +199,8 @@ describe('crossSpectralConnectivity', () => {
 
   describe('when the phase lag is the same in every epoch', () => {
     it('should give a phase-locking value near 1 at that frequency', () => {
-      const fs = 100, random = createRandom(12);
+      const fs = 100,
+        random = createRandom(12);
       const epochs = Array.from({ length: 20 }, () => {
         const phase = 2 * Math.PI * random.uniform();
         const t = (i: number): number => i / fs;
@@ -197,12 +232,24 @@ describe('crossSpectralConnectivity', () => {
 
     it('should reject one channel and ragged epochs', () => {
       expect(() => crossSpectralConnectivity([[x]], ok)).toThrow(/two channels/);
-      expect(() => crossSpectralConnectivity([[x, x], [x, x.subarray(1)]], ok)).toThrow(/epochs\[1\]\[1\]/);
+      expect(() =>
+        crossSpectralConnectivity(
+          [
+            [x, x],
+            [x, x.subarray(1)],
+          ],
+          ok,
+        ),
+      ).toThrow(/epochs\[1\]\[1\]/);
     });
 
     it('should list every pair i < j by default', () => {
       const r = crossSpectralConnectivity([[x, x.map((v) => -v), x.map((v) => 2 * v)]], ok);
-      expect(r.pairs).toEqual([[0, 1], [0, 2], [1, 2]]);
+      expect(r.pairs).toEqual([
+        [0, 1],
+        [0, 2],
+        [1, 2],
+      ]);
       expect(r.phaseLocking).toBeUndefined();
     });
   });

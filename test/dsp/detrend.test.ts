@@ -3,7 +3,12 @@ import { describe, expect, it } from 'vitest';
 import { DETREND_KINDS, detrendInto, type DetrendKind } from '../../src/dsp/detrend.js';
 import { float32s, float64s, readWelchFixture } from '../fixtures/welch/fixture.js';
 
-interface DetrendCase { length: number; x32: string; mean: string; linear: string }
+interface DetrendCase {
+  length: number;
+  x32: string;
+  mean: string;
+  linear: string;
+}
 const fixture = readWelchFixture<{ provenance: { scipy: string }; cases: DetrendCase[] }>('./detrend.json');
 
 function maxAbs(a: Float64Array): number {
@@ -17,7 +22,10 @@ describe('detrendInto', () => {
     it.each(fixture.cases.map((c) => [c.length, c] as const))('should match type=constant and type=linear for N = %i', (_n, c) => {
       const x = float32s(c.x32);
       const scale = Math.max(maxAbs(x), 1);
-      for (const [kind, expected] of [['mean', float64s(c.mean)], ['linear', float64s(c.linear)]] as const) {
+      for (const [kind, expected] of [
+        ['mean', float64s(c.mean)],
+        ['linear', float64s(c.linear)],
+      ] as const) {
         const out = detrendInto(x, kind, new Float64Array(x.length));
         // tolerance: 1e-12 of the input's largest magnitude (least-squares rounding differs in method)
         for (let i = 0; i < x.length; i++) expect(Math.abs(out[i]! - expected[i]!)).toBeLessThan(1e-12 * scale);
@@ -38,13 +46,20 @@ describe('detrendInto', () => {
 
   describe('when checking the least-squares normal equations (fast-check)', () => {
     it('should leave a residual with zero sum and zero correlation with the index', () => {
-      fc.assert(fc.property(fc.float64Array({ minLength: 2, maxLength: 300, min: -1e4, max: 1e4, noNaN: true }), (x) => {
-        const r = detrendInto(x, 'linear', new Float64Array(x.length));
-        let sum = 0, moment = 0;
-        for (let i = 0; i < r.length; i++) { sum += r[i]!; moment += i * r[i]!; }
-        const bound = 1e-10 * Math.max(maxAbs(x), 1e-300) * x.length * x.length;
-        return Math.abs(sum) <= bound && Math.abs(moment) <= bound * x.length;
-      }), { seed: 3, numRuns: 200 });
+      fc.assert(
+        fc.property(fc.float64Array({ minLength: 2, maxLength: 300, min: -1e4, max: 1e4, noNaN: true }), (x) => {
+          const r = detrendInto(x, 'linear', new Float64Array(x.length));
+          let sum = 0,
+            moment = 0;
+          for (let i = 0; i < r.length; i++) {
+            sum += r[i]!;
+            moment += i * r[i]!;
+          }
+          const bound = 1e-10 * Math.max(maxAbs(x), 1e-300) * x.length * x.length;
+          return Math.abs(sum) <= bound && Math.abs(moment) <= bound * x.length;
+        }),
+        { seed: 3, numRuns: 200 },
+      );
     });
   });
 

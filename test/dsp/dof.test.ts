@@ -18,7 +18,11 @@ function gaussianNoise(n: number, seed: number): Float64Array {
   const out = new Float64Array(n);
   for (let i = 0; i < n; i += 2) {
     let u: number, v: number, s: number;
-    do { u = 2 * uniform() - 1; v = 2 * uniform() - 1; s = u * u + v * v; } while (s >= 1 || s === 0);
+    do {
+      u = 2 * uniform() - 1;
+      v = 2 * uniform() - 1;
+      s = u * u + v * v;
+    } while (s >= 1 || s === 0);
     const f = Math.sqrt((-2 * Math.log(s)) / s);
     out[i] = u * f;
     if (i + 1 < n) out[i + 1] = v * f;
@@ -28,7 +32,8 @@ function gaussianNoise(n: number, seed: number): Float64Array {
 
 /** Fraction of interior bins whose 95 % interval holds the true white-noise density 2σ²/fs (σ = 1). */
 function coverage(epochs: number, samples: number, fs: number, estimate: (x: Float64Array) => { psd: Float64Array; dof: number | Float64Array }): number {
-  let inside = 0, total = 0;
+  let inside = 0,
+    total = 0;
   for (let e = 0; e < epochs; e++) {
     const { psd, dof } = estimate(gaussianNoise(samples, 1000 + e));
     const { lower, upper } = confidenceInterval(psd, dof);
@@ -49,7 +54,14 @@ describe('welchDegreesOfFreedom', () => {
   describe('when the window is Hann with 50 % overlap', () => {
     const hann = makeWindow('hann', 256);
     // docs/references.md §2 table (COMPUTED from Percival & Walden 292b): ν = 36N_B²/(19N_B − 1).
-    const table: Array<[number, number]> = [[1, 2], [2, 3.891892], [5, 9.574468], [9, 17.152941], [20, 37.994723], [100, 189.5734]];
+    const table: Array<[number, number]> = [
+      [1, 2],
+      [2, 3.891892],
+      [5, 9.574468],
+      [9, 17.152941],
+      [20, 37.994723],
+      [100, 189.5734],
+    ];
     for (const [segments, tabulated] of table) {
       it(`should give 36N_B²/(19N_B − 1) to 1e-9 and the table value at its precision for N_B = ${segments}`, () => {
         const nu = welchDegreesOfFreedom(hann, 128, segments);
@@ -122,7 +134,11 @@ describe('perBinDegreesOfFreedom', () => {
 
 describe('confidenceInterval', () => {
   describe('when compared with the 95 % multipliers of docs/references.md §2 (scipy.stats.chi2.ppf, NIST tables)', () => {
-    const table: Array<[number, number, number]> = [[2, 0.27109, 39.4979], [10, 0.48821, 3.07979], [20, 0.58532, 2.08534]];
+    const table: Array<[number, number, number]> = [
+      [2, 0.27109, 39.4979],
+      [10, 0.48821, 3.07979],
+      [20, 0.58532, 2.08534],
+    ];
     for (const [nu, low, high] of table) {
       it(`should multiply the estimate by [${low}, ${high}] for ν = ${nu} (5 significant digits)`, () => {
         const { lower, upper } = confidenceInterval(Float64Array.of(1, 2), nu);
@@ -134,7 +150,7 @@ describe('confidenceInterval', () => {
   });
 
   describe('when ν differs per bin', () => {
-    it('should use each bin\'s own ν', () => {
+    it("should use each bin's own ν", () => {
       const { lower, upper } = confidenceInterval(Float64Array.of(1, 1), Float64Array.of(2, 20));
       expect(Math.abs(lower[0]! / 0.27109 - 1)).toBeLessThan(2e-5);
       expect(Math.abs(upper[1]! / 2.08534 - 1)).toBeLessThan(2e-5);
@@ -170,11 +186,18 @@ describe('when white Gaussian noise is analysed (seeded Monte Carlo)', () => {
     expect(Math.abs(c - 0.95)).toBeLessThan(0.01);
   });
   it('should give an unbiased adaptive multitaper estimate with mean ν close to 2K (docs/references.md §3: 0.993 and 13.98)', () => {
-    let level = 0, nu = 0, count = 0, maxIterations = 0;
+    let level = 0,
+      nu = 0,
+      count = 0,
+      maxIterations = 0;
     for (let e = 0; e < 100; e++) {
       const r = multitaper(gaussianNoise(512, 5000 + e), { samplingRate: 1, timeBandwidth: 4, taperCount: 7, weighting: 'adaptive', detrend: 'none' });
       maxIterations = Math.max(maxIterations, r.iterations);
-      for (let k = 1; k < r.psd.length - 1; k++) { level += r.psd[k]! / 2; nu += r.degreesOfFreedom[k]!; count++; }
+      for (let k = 1; k < r.psd.length - 1; k++) {
+        level += r.psd[k]! / 2;
+        nu += r.degreesOfFreedom[k]!;
+        count++;
+      }
     }
     // Unit white noise: one-sided density 2σ²/fs = 2. Tolerances: 2 % on the level, ν in [13, 14].
     expect(Math.abs(level / count - 1)).toBeLessThan(0.02);

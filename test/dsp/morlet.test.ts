@@ -1,25 +1,23 @@
 import { describe, expect, it } from 'vitest';
-import {
-  createMorletPlan,
-  DEFAULT_EDGE_SIGMAS,
-  logFrequencies,
-  morletPower,
-  morletWavelet,
-  POWER_FACTOR,
-  SPECTRUM_CACHE_BYTES,
-  waveletCacheBytes,
-  type MorletOptions,
-} from '../../src/dsp/morlet.js';
+import { createMorletPlan, DEFAULT_EDGE_SIGMAS, logFrequencies, morletPower, morletWavelet, POWER_FACTOR, SPECTRUM_CACHE_BYTES, waveletCacheBytes, type MorletOptions } from '../../src/dsp/morlet.js';
 import { complexFftPlan } from '../../src/dsp/fft.js';
 import { createRandom } from '../../src/common/random.js';
 import { float32s, float64s, readWelchFixture } from '../fixtures/welch/fixture.js';
 
-interface MorletCase { samplingRate: number; frequencies: number[]; cycles: number[]; x32: string; re: string; im: string }
+interface MorletCase {
+  samplingRate: number;
+  frequencies: number[];
+  cycles: number[];
+  x32: string;
+  re: string;
+  im: string;
+}
 const fixture = readWelchFixture<{ provenance: { numpy: string }; case: MorletCase }>('../tf/morlet.json');
 
 /** largest |a − b| over all entries, divided by the largest |b| (a scale-free error for complex fields) */
 function worstScaledError(aRe: Float64Array, aIm: Float64Array, bRe: Float64Array, bIm: Float64Array): number {
-  let peak = 0, worst = 0;
+  let peak = 0,
+    worst = 0;
   for (let i = 0; i < bRe.length; i++) {
     peak = Math.max(peak, Math.hypot(bRe[i]!, bIm[i]!));
     worst = Math.max(worst, Math.hypot(aRe[i]! - bRe[i]!, aIm[i]! - bIm[i]!));
@@ -42,17 +40,21 @@ function direct(x: Float64Array, fs: number, f: number, cycles: number): { re: F
   const M = Math.ceil(6 * sigma * fs);
   let G = 0;
   for (let k = -M; k <= M; k++) G += Math.exp(-((k / fs) ** 2) / (2 * sigma * sigma));
-  const re = new Float64Array(x.length), im = new Float64Array(x.length);
+  const re = new Float64Array(x.length),
+    im = new Float64Array(x.length);
   for (let n = 0; n < x.length; n++) {
-    let sr = 0, si = 0;
+    let sr = 0,
+      si = 0;
     for (let m = 0; m < x.length; m++) {
       const k = n - m;
       if (Math.abs(k) > M) continue;
       const envelope = Math.exp(-((k / fs) ** 2) / (2 * sigma * sigma)) / G;
       const angle = (2 * Math.PI * f * k) / fs;
-      sr += x[m]! * envelope * Math.cos(angle); si += x[m]! * envelope * Math.sin(angle);
+      sr += x[m]! * envelope * Math.cos(angle);
+      si += x[m]! * envelope * Math.sin(angle);
     }
-    re[n] = sr; im[n] = si;
+    re[n] = sr;
+    im[n] = si;
   }
   return { re, im, M };
 }
@@ -74,12 +76,15 @@ describe('morletWavelet', () => {
     });
 
     it('should have an envelope whose second moment gives σ_t and whose FWHM is 0.262347 s, to 1e-6', () => {
-      let mass = 0, moment = 0, above = 0;
+      let mass = 0,
+        moment = 0,
+        above = 0;
       const peak = Math.hypot(w.re[w.halfWidth]!, w.im[w.halfWidth]!);
       for (let j = 0; j < w.re.length; j++) {
         const t = (j - w.halfWidth) / fs;
         const a = Math.hypot(w.re[j]!, w.im[j]!);
-        mass += a; moment += t * t * a;
+        mass += a;
+        moment += t * t * a;
         if (a >= peak / 2) above++;
       }
       expect(Math.abs(Math.sqrt(moment / mass) - 0.111408) / 0.111408).toBeLessThan(1e-5);
@@ -89,22 +94,30 @@ describe('morletWavelet', () => {
 
     it('should have an amplitude spectrum of spread σ_f and a power spectrum of spread σ_f/√2 (the √2 remark of §7)', () => {
       const n = 1 << 16;
-      const re = new Float64Array(n), im = new Float64Array(n);
-      re.set(w.re); im.set(w.im);
+      const re = new Float64Array(n),
+        im = new Float64Array(n);
+      re.set(w.re);
+      im.set(w.im);
       complexFftPlan(n).transform(re, im);
-      let m1 = 0, s1 = 0, m2 = 0, s2 = 0;
+      let m1 = 0,
+        s1 = 0,
+        m2 = 0,
+        s2 = 0;
       for (let k = 0; k < n; k++) {
-        const nu = (k <= n / 2 ? k : k - n) * fs / n;
+        const nu = ((k <= n / 2 ? k : k - n) * fs) / n;
         // moments over ±8σ_f: beyond it only the truncation ripple (~1e-8) remains, which the (ν − f)² weight would inflate
         if (Math.abs(nu - 10) > 8 * w.sigmaFrequency) continue;
         const amplitude = Math.hypot(re[k]!, im[k]!);
-        m1 += amplitude; s1 += (nu - 10) ** 2 * amplitude;
-        m2 += amplitude ** 2; s2 += (nu - 10) ** 2 * amplitude ** 2;
+        m1 += amplitude;
+        s1 += (nu - 10) ** 2 * amplitude;
+        m2 += amplitude ** 2;
+        s2 += (nu - 10) ** 2 * amplitude ** 2;
       }
       expect(Math.abs(Math.sqrt(s1 / m1) - 1.428571) / 1.428571).toBeLessThan(1e-5);
       expect(Math.abs(Math.sqrt(s2 / m2) - 1.428571 / Math.SQRT2) / (1.428571 / Math.SQRT2)).toBeLessThan(1e-5);
       // unit gain at the centre frequency, by the DTFT at exactly 10 Hz (off the FFT grid)
-      let dtRe = 0, dtIm = 0;
+      let dtRe = 0,
+        dtIm = 0;
       for (let j = 0; j < w.re.length; j++) {
         const angle = (-2 * Math.PI * 10 * (j - w.halfWidth)) / fs;
         dtRe += w.re[j]! * Math.cos(angle) - w.im[j]! * Math.sin(angle);
@@ -123,10 +136,14 @@ describe('morletPower', () => {
       const x = float32s(c.x32);
       // one frequency at a time, each with its own cycle count as in the fixture
       const F = c.frequencies.length;
-      const re = new Float64Array(x.length * F), im = new Float64Array(x.length * F);
+      const re = new Float64Array(x.length * F),
+        im = new Float64Array(x.length * F);
       c.frequencies.forEach((f, j) => {
         const w = createMorletPlan(x.length, { samplingRate: c.samplingRate, frequencies: [f], cycles: c.cycles[j]! }).coefficients(x);
-        for (let i = 0; i < x.length; i++) { re[i * F + j] = w.re[i]!; im[i * F + j] = w.im[i]!; }
+        for (let i = 0; i < x.length; i++) {
+          re[i * F + j] = w.re[i]!;
+          im[i * F + j] = w.im[i]!;
+        }
       });
       expect(worstScaledError(re, im, float64s(c.re), float64s(c.im))).toBeLessThan(1e-10);
     });
@@ -144,19 +161,23 @@ describe('morletPower', () => {
       const plan = createMorletPlan(x.length, options);
       const { re, im } = plan.coefficients(x);
       const F = plan.frequencyCount;
-      const dRe = new Float64Array(re.length), dIm = new Float64Array(im.length);
+      const dRe = new Float64Array(re.length),
+        dIm = new Float64Array(im.length);
       for (let j = 0; j < F; j++) {
         const w = morletWavelet(plan.frequencies[j]!, plan.cycles[j]!, fs);
         const M = w.halfWidth;
         for (let n = 0; n < x.length; n++) {
-          let sr = 0, si = 0;
+          let sr = 0,
+            si = 0;
           // w(n) = Σ_m x[n − m]·ψ̃[m], zero outside the epoch
           for (let m = -M; m <= M; m++) {
             const k = n - m;
             if (k < 0 || k >= x.length) continue;
-            sr += x[k]! * w.re[m + M]!; si += x[k]! * w.im[m + M]!;
+            sr += x[k]! * w.re[m + M]!;
+            si += x[k]! * w.im[m + M]!;
           }
-          dRe[n * F + j] = sr; dIm[n * F + j] = si;
+          dRe[n * F + j] = sr;
+          dIm[n * F + j] = si;
         }
       }
       expect(worstScaledError(re, im, dRe, dIm)).toBeLessThan(1e-12);
@@ -169,7 +190,7 @@ describe('morletPower', () => {
       [300, 250, [2, 2.5, 60]],
       // 500 Hz, N = 1000: M = 1672 (2 Hz), 1013 (3.3 Hz, just over N − 1), 998 (3.35 Hz, just under)
       [1000, 500, [2, 3.3, 3.35, 45]],
-    ] as const)('should equal the direct sum with the full wavelet to 1e-12 of each frequency\'s largest (N = %s, %s Hz)', (length, fs, frequencies) => {
+    ] as const)("should equal the direct sum with the full wavelet to 1e-12 of each frequency's largest (N = %s, %s Hz)", (length, fs, frequencies) => {
       const x = noise(length, 8);
       const plan = createMorletPlan(length, { samplingRate: fs, frequencies, cycles: 7 });
       const w = plan.powerAndCoefficients(x);
@@ -179,10 +200,12 @@ describe('morletPower', () => {
         if (f < 3.34) expect(d.M).toBeGreaterThan(length - 1);
         expect(worstScaledError(column(w.re, F, j), column(w.im, F, j), d.re, d.im)).toBeLessThan(1e-12);
         const power = column(w.power, F, j);
-        let peak = 0, worst = 0;
+        let peak = 0,
+          worst = 0;
         for (let i = 0; i < length; i++) {
           const p = POWER_FACTOR * (d.re[i]! ** 2 + d.im[i]! ** 2);
-          peak = Math.max(peak, p); worst = Math.max(worst, Math.abs(power[i]! - p));
+          peak = Math.max(peak, p);
+          worst = Math.max(worst, Math.abs(power[i]! - p));
         }
         expect(worst / peak).toBeLessThan(1e-12);
       });
@@ -213,9 +236,17 @@ describe('morletPower', () => {
 
   describe('when only every d-th time is kept (decimation; d | L folds the product onto L/d bins)', () => {
     it.each([
-      [301, 2], [301, 3], [301, 7], [301, 12], [301, 400], [1000, 4], [1000, 9], [5, 1000],
+      [301, 2],
+      [301, 3],
+      [301, 7],
+      [301, 12],
+      [301, 400],
+      [1000, 4],
+      [1000, 9],
+      [5, 1000],
     ])('should equal the direct sum at every d-th sample (N = %s, decimation %s)', (length, decimation) => {
-      const fs = 250, frequencies = [2, 9, 60];
+      const fs = 250,
+        frequencies = [2, 9, 60];
       const x = noise(length, 40 + decimation);
       const plan = createMorletPlan(length, { samplingRate: fs, frequencies, cycles: 7, decimation });
       expect(plan.timeCount).toBe(Math.ceil(length / decimation));
@@ -228,13 +259,16 @@ describe('morletPower', () => {
       frequencies.forEach((f, j) => {
         const d = direct(x, fs, f, 7);
         const keep = (v: Float64Array): Float64Array => Float64Array.from({ length: plan.timeCount }, (_, i) => v[i * decimation]!);
-        const dRe = keep(d.re), dIm = keep(d.im);
+        const dRe = keep(d.re),
+          dIm = keep(d.im);
         expect(worstScaledError(column(w.re, 3, j), column(w.im, 3, j), dRe, dIm)).toBeLessThan(1e-12);
         const power = column(w.power, 3, j);
-        let peak = 0, worst = 0;
+        let peak = 0,
+          worst = 0;
         for (let i = 0; i < plan.timeCount; i++) {
           const p = POWER_FACTOR * (dRe[i]! ** 2 + dIm[i]! ** 2);
-          peak = Math.max(peak, p); worst = Math.max(worst, Math.abs(power[i]! - p));
+          peak = Math.max(peak, p);
+          worst = Math.max(worst, Math.abs(power[i]! - p));
         }
         expect(worst / peak).toBeLessThan(1e-12);
       });
@@ -243,10 +277,12 @@ describe('morletPower', () => {
 
   describe('when the input is a sinusoid A·cos(2πft + φ)', () => {
     it.each([
-      [10.3, 7, 3], [4.1, 3, 0.5], [37, 12, 2],
+      [10.3, 7, 3],
+      [4.1, 3, 0.5],
+      [37, 12, 2],
     ])('should give power A²/2 away from the edges (f = %s Hz, %s cycles, A = %s), to 1e-6', (f, cycles, A) => {
       const fs = 500;
-      const x = Float64Array.from({ length: 3000 }, (_, i) => A * Math.cos(2 * Math.PI * f * i / fs + 0.7));
+      const x = Float64Array.from({ length: 3000 }, (_, i) => A * Math.cos((2 * Math.PI * f * i) / fs + 0.7));
       const result = morletPower(x, { samplingRate: fs, frequencies: [f], cycles });
       expect(result.powerFactor).toBe(POWER_FACTOR);
       let checked = 0;
@@ -256,18 +292,20 @@ describe('morletPower', () => {
         // check where ±6σ_t (the whole wavelet) fits, so the identity must hold to truncation error
         const reach = 6 * result.sigmaTime[0]! * fs;
         if (i < reach || x.length - 1 - i < reach) continue;
-        expect(Math.abs(result.power[i]! - A * A / 2) / (A * A / 2)).toBeLessThan(1e-6);
+        expect(Math.abs(result.power[i]! - (A * A) / 2) / ((A * A) / 2)).toBeLessThan(1e-6);
         checked++;
       }
       expect(checked).toBeGreaterThan(100);
     });
 
     it('should give coefficients whose angle is the instantaneous phase 2πft + φ', () => {
-      const fs = 400, f = 12, phase = 0.7;
-      const x = Float64Array.from({ length: 2000 }, (_, i) => Math.cos(2 * Math.PI * f * i / fs + phase));
+      const fs = 400,
+        f = 12,
+        phase = 0.7;
+      const x = Float64Array.from({ length: 2000 }, (_, i) => Math.cos((2 * Math.PI * f * i) / fs + phase));
       const { re, im } = createMorletPlan(x.length, { samplingRate: fs, frequencies: [f] }).coefficients(x);
       const i = 1000;
-      const expected = 2 * Math.PI * f * i / fs + phase;
+      const expected = (2 * Math.PI * f * i) / fs + phase;
       const diff = Math.atan2(im[i]!, re[i]!) - expected;
       expect(Math.abs(Math.atan2(Math.sin(diff), Math.cos(diff)))).toBeLessThan(1e-6);
       expect(Math.abs(Math.hypot(re[i]!, im[i]!) - 0.5)).toBeLessThan(1e-6);
@@ -349,7 +387,8 @@ describe('morletPower', () => {
     it('should give identical numbers from a reused plan and from a fresh one', () => {
       const options: MorletOptions = { samplingRate: 256, frequencies: { low: 2, high: 45, count: 8 } };
       const plan = createMorletPlan(512, options);
-      const a = noise(512, 1), b = noise(512, 2);
+      const a = noise(512, 1),
+        b = noise(512, 2);
       plan.power(a);
       expect(Array.from(plan.power(b))).toEqual(Array.from(morletPower(b, options).power));
     });

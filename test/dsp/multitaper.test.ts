@@ -5,9 +5,18 @@ import { dpss } from '../../src/dsp/dpss.js';
 import { createMultitaperPlan, multitaper } from '../../src/dsp/multitaper.js';
 
 interface Case {
-  samplingRate: number; fftLength: number; timeBandwidth: number; taperCount: number; detrend: DetrendKind;
-  signal: number[]; frequencies: number[]; equal: number[]; eigenvalue: number[]; adaptive: number[];
-  adaptiveIterations: number; adaptiveDof: number[];
+  samplingRate: number;
+  fftLength: number;
+  timeBandwidth: number;
+  taperCount: number;
+  detrend: DetrendKind;
+  signal: number[];
+  frequencies: number[];
+  equal: number[];
+  eigenvalue: number[];
+  adaptive: number[];
+  adaptiveIterations: number;
+  adaptiveDof: number[];
 }
 // scipy.signal.windows.dpss + numpy.fft.rfft (scipy 1.10.1, numpy 1.24.2) via scripts/make-multitaper-fixtures.py;
 // "adaptive" is a numpy mirror of the same Thomson iteration run to tolerance 1e-12.
@@ -64,14 +73,17 @@ describe('multitaper', () => {
 
   describe('when the input is an A = 2 sinusoid on a bin centre', () => {
     it('should peak at the tone and hold about A²/2·mean(λ_k) inside ±W (concentration definition; 1 % for the bin sum standing in for the integral)', () => {
-      const n = 500, fs = 250;
+      const n = 500,
+        fs = 250;
       const tone = Float64Array.from({ length: n }, (_, t) => 2 * Math.sin((2 * Math.PI * 10 * t) / fs + 0.3));
       const r = multitaper(tone, { samplingRate: fs, timeBandwidth: 4, weighting: 'equal', detrend: 'none' });
       const peak = r.psd.indexOf(Math.max(...r.psd));
       expect(r.frequencies[peak]).toBe(10);
       // W = NW·fs/N = 2 Hz; the positive- and negative-frequency images each hold λ_k of A²/4 inside ±W.
       let inBand = 0;
-      r.frequencies.forEach((f, k) => { if (Math.abs(f - 10) <= 2) inBand += r.psd[k]! * 0.5; });
+      r.frequencies.forEach((f, k) => {
+        if (Math.abs(f - 10) <= 2) inBand += r.psd[k]! * 0.5;
+      });
       const meanLambda = r.concentrations.reduce((s, v) => s + v, 0) / 7;
       expect(Math.abs(inBand / (2 * meanLambda) - 1)).toBeLessThan(0.01);
     });

@@ -6,7 +6,8 @@ import type { WindowName } from '../../src/dsp/windows.js';
 
 // scipy.signal.periodogram(..., scaling='density') via scripts/make-multitaper-fixtures.py (scipy 1.10.1).
 const fixture = JSON.parse(readFileSync(new URL('../fixtures/multitaper/periodogram.json', import.meta.url), 'utf8')) as {
-  samplingRate: number; signal: number[];
+  samplingRate: number;
+  signal: number[];
   cases: Array<{ window: WindowName; tukeyRatio: number | null; fftLength: number; detrend: DetrendKind; frequencies: number[]; psd: number[] }>;
 };
 const x = Float64Array.from(fixture.signal);
@@ -16,7 +17,10 @@ describe('periodogram', () => {
     for (const c of fixture.cases) {
       it(`should match to 1e-9 relative for window ${c.window}, fftLength ${c.fftLength}, detrend ${c.detrend}`, () => {
         const r = periodogram(x, {
-          samplingRate: fixture.samplingRate, window: c.window, fftLength: c.fftLength, detrend: c.detrend,
+          samplingRate: fixture.samplingRate,
+          window: c.window,
+          fftLength: c.fftLength,
+          detrend: c.detrend,
           ...(c.tukeyRatio === null ? {} : { tukeyRatio: c.tukeyRatio }),
         });
         expect(r.psd).toHaveLength(c.psd.length);
@@ -48,7 +52,8 @@ describe('periodogram', () => {
 
   describe('when an A = 2 sinusoid sits on a bin centre with a Hann window (docs/references.md §4)', () => {
     it('should give a density peak of (A²/2)/(1.5·Δf) and A²/2 over the peak bin ± 1', () => {
-      const n = 256, fs = 256;
+      const n = 256,
+        fs = 256;
       const tone = Float64Array.from({ length: n }, (_, t) => 2 * Math.sin((2 * Math.PI * 32 * t) / n));
       const r = periodogram(tone, { samplingRate: fs, window: 'hann', detrend: 'none' });
       expect(Math.abs(r.psd[32]! - 2 / 1.5)).toBeLessThan(1e-12);

@@ -9,7 +9,8 @@ const nullFixture = readWelchFixture<{ provenance: { scipy: string }; values: { 
 /** `cells` independent cells of n uniform random phases, as re/im per trial */
 function randomPhases(n: number, cells: number, seed: number): { re: Float64Array[]; im: Float64Array[] } {
   const random = createRandom(seed);
-  const re: Float64Array[] = [], im: Float64Array[] = [];
+  const re: Float64Array[] = [],
+    im: Float64Array[] = [];
   for (let r = 0; r < n; r++) {
     const phases = Float64Array.from({ length: cells }, () => 2 * Math.PI * random.uniform());
     re.push(phases.map(Math.cos));
@@ -49,10 +50,7 @@ describe('phaseConsistencyNull', () => {
 describe('phaseConsistency', () => {
   describe('when phases are chosen by hand', () => {
     it('should give 1 for equal phases, 0 for opposite ones and 1/√2 for a quarter turn', () => {
-      const r = phaseConsistency(
-        [Float64Array.of(2, 1, 1), Float64Array.of(0.5, -3, 0)],
-        [Float64Array.of(2, 0, 0), Float64Array.of(0.5, 0, 4)],
-      );
+      const r = phaseConsistency([Float64Array.of(2, 1, 1), Float64Array.of(0.5, -3, 0)], [Float64Array.of(2, 0, 0), Float64Array.of(0.5, 0, 4)]);
       expect(r.values[0]).toBeCloseTo(1, 15);
       expect(r.values[1]).toBeCloseTo(0, 15);
       expect(r.values[2]).toBeCloseTo(Math.SQRT1_2, 15);
@@ -71,23 +69,30 @@ describe('phaseConsistency', () => {
       const cells = 20000;
       const { re, im } = randomPhases(n, cells, 100 + n);
       const { values, null: expected } = phaseConsistency(re, im);
-      let sum = 0, squares = 0;
-      for (const v of values) { sum += v; squares += v * v; }
+      let sum = 0,
+        squares = 0;
+      for (const v of values) {
+        sum += v;
+        squares += v * v;
+      }
       const mean = sum / cells;
       const sd = Math.sqrt(squares / cells - mean * mean);
-      expect(Math.abs(mean - expected.mean)).toBeLessThan(4 * sd / Math.sqrt(cells));
+      expect(Math.abs(mean - expected.mean)).toBeLessThan((4 * sd) / Math.sqrt(cells));
       // E[R²] = 1/n exactly; var(R²) ≤ E[R⁴] = (2n² − n)/n⁴ (planar walk moment), so 4 SE ≤ 4·√((2n−1)/n³)/√cells
-      expect(Math.abs(squares / cells - 1 / n)).toBeLessThan(4 * Math.sqrt((2 * n - 1) / n ** 3) / Math.sqrt(cells));
+      expect(Math.abs(squares / cells - 1 / n)).toBeLessThan((4 * Math.sqrt((2 * n - 1) / n ** 3)) / Math.sqrt(cells));
     });
 
-    it.each([[10, 0.05], [30, 0.01]] as const)('should exceed the threshold for n = %i in about α = %s of cells (± 4 binomial SD)', (n, alpha) => {
+    it.each([
+      [10, 0.05],
+      [30, 0.01],
+    ] as const)('should exceed the threshold for n = %i in about α = %s of cells (± 4 binomial SD)', (n, alpha) => {
       const cells = 20000;
       const { re, im } = randomPhases(n, cells, 7 * n);
       const r = phaseConsistency(re, im, { alpha });
       expect(r.threshold).toBe(phaseConsistencyThreshold(n, alpha));
       let hits = 0;
       for (const v of r.values) if (v >= r.threshold) hits++;
-      expect(Math.abs(hits / cells - alpha)).toBeLessThan(4 * Math.sqrt(alpha * (1 - alpha) / cells));
+      expect(Math.abs(hits / cells - alpha)).toBeLessThan(4 * Math.sqrt((alpha * (1 - alpha)) / cells));
     });
 
     it('should approach √(−ln α / n) for large n (Rayleigh limit)', () => {
@@ -96,7 +101,8 @@ describe('phaseConsistency', () => {
   });
 
   describe('when Morlet coefficients of invented trials are used', () => {
-    const fs = 250, trials = 40;
+    const fs = 250,
+      trials = 40;
     const plan = createMorletPlan(Math.round(2 * fs), { samplingRate: fs, frequencies: [6, 10], cycles: 5 });
     // epoch −0.8 … 1.2 s. Channel "locked": a 6 Hz component phase-locked to the event from 0.1 to 0.8 s in
     // every trial. Channel "burst": a 10 Hz burst 0.3–0.6 s with a random phase per trial (induced, not locked).
@@ -106,7 +112,11 @@ describe('phaseConsistency', () => {
         const phase = 2 * Math.PI * random.uniform();
         return plan.coefficients(Float64Array.from({ length: plan.length }, (_, i) => random.normal() + signal(i / fs - 0.8, phase)));
       });
-      return phaseConsistency(coefficients.map((c) => c.re), coefficients.map((c) => c.im), { exclude: plan.edgeMask });
+      return phaseConsistency(
+        coefficients.map((c) => c.re),
+        coefficients.map((c) => c.im),
+        { exclude: plan.edgeMask },
+      );
     };
     const locked = channel((t) => (t >= 0.1 && t < 0.8 ? Math.cos(2 * Math.PI * 6 * t) : 0));
     const burst = channel((t, phase) => (t >= 0.3 && t < 0.6 ? 2 * Math.cos(2 * Math.PI * 10 * t + phase) : 0));

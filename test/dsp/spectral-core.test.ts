@@ -22,9 +22,13 @@ describe('taperSegmentPair', () => {
   const window = makeWindow('hann', 64);
   for (const detrend of ['none', 'mean', 'linear'] as DetrendKind[]) {
     it(`should load the same samples as tapering each segment on its own (detrend ${detrend})`, () => {
-      const re = new Float64Array(100), im = new Float64Array(100), fit = new Float64Array(2);
+      const re = new Float64Array(100),
+        im = new Float64Array(100),
+        fit = new Float64Array(2);
       taperSegmentPair(x, 10, 150, window, detrend, fit, re, im);
-      const a = new Float64Array(100), b = new Float64Array(100), scratch = new Float64Array(64);
+      const a = new Float64Array(100),
+        b = new Float64Array(100),
+        scratch = new Float64Array(64);
       taperSegment(x, 10, window, detrend, scratch, a);
       taperSegment(x, 150, window, detrend, scratch, b);
       // Both forms detrend by the same least-squares fit (scipy.signal.detrend) on the same samples.
@@ -36,7 +40,8 @@ describe('taperSegmentPair', () => {
   }
 
   it('should leave the second half zero when there is no second segment', () => {
-    const re = new Float64Array(64), im = new Float64Array(64).fill(7);
+    const re = new Float64Array(64),
+      im = new Float64Array(64).fill(7);
     taperSegmentPair(x, 0, -1, window, 'mean', new Float64Array(2), re, im);
     expect(im.every((v) => v === 0)).toBe(true);
     const expected = detrendInto(x.subarray(0, 64), 'mean', new Float64Array(64)).map((v, j) => v * window[j]!);
@@ -52,7 +57,16 @@ describe('requireWindowEnergy', () => {
 
 describe('NoSegmentsLeftError', () => {
   it('should be what a Welch plan throws when its filter refuses every segment, so callers need not read the wording', () => {
-    const plan = createWelchPlan({ samplingRate: 100, segmentSamples: 50, overlapSamples: 25, fftLength: 50, window: makeWindow('hann', 50), detrend: 'mean', average: 'mean', acceptSegment: () => false });
+    const plan = createWelchPlan({
+      samplingRate: 100,
+      segmentSamples: 50,
+      overlapSamples: 25,
+      fftLength: 50,
+      window: makeWindow('hann', 50),
+      detrend: 'mean',
+      average: 'mean',
+      acceptSegment: () => false,
+    });
     let caught: unknown;
     try {
       plan.compute(normals(200, 1));

@@ -7,17 +7,27 @@ import { createRandom } from '../../src/common/random.js';
 import { float32s, float64s, readWelchFixture, worstRelativeError } from '../fixtures/welch/fixture.js';
 
 interface SpectrogramCase {
-  name: string; samplingRate: number; segmentSamples: number; overlapSamples: number; fftLength: number;
-  window: WindowName | null; timeBandwidth?: number; taperCount?: number; detrend: DetrendKind;
-  x32: string; frequencies: string; times: string; power: string; timeCount: number; frequencyCount: number;
+  name: string;
+  samplingRate: number;
+  segmentSamples: number;
+  overlapSamples: number;
+  fftLength: number;
+  window: WindowName | null;
+  timeBandwidth?: number;
+  taperCount?: number;
+  detrend: DetrendKind;
+  x32: string;
+  frequencies: string;
+  times: string;
+  power: string;
+  timeCount: number;
+  frequencyCount: number;
 }
 const fixture = readWelchFixture<{ provenance: { scipy: string }; cases: SpectrogramCase[] }>('../tf/spectrogram.json');
 
 function optionsOf(c: SpectrogramCase): SpectrogramOptions {
   const base = { samplingRate: c.samplingRate, segmentSamples: c.segmentSamples, overlapSamples: c.overlapSamples, fftLength: c.fftLength, detrend: c.detrend };
-  return c.window === null
-    ? { ...base, tapers: { timeBandwidth: c.timeBandwidth!, taperCount: c.taperCount! } }
-    : { ...base, window: c.window };
+  return c.window === null ? { ...base, tapers: { timeBandwidth: c.timeBandwidth!, taperCount: c.taperCount! } } : { ...base, window: c.window };
 }
 
 describe('spectrogram', () => {
@@ -53,7 +63,7 @@ describe('spectrogram', () => {
       // invented burst: 40 Hz from 2.0 s to 2.5 s in white noise at 500 Hz, 128-sample windows
       const fs = 500;
       const random = createRandom(11);
-      const x = Float64Array.from({ length: 5 * fs }, (_, i) => 0.2 * random.normal() + (i >= 2 * fs && i < 2.5 * fs ? Math.sin(2 * Math.PI * 40 * i / fs) : 0));
+      const x = Float64Array.from({ length: 5 * fs }, (_, i) => 0.2 * random.normal() + (i >= 2 * fs && i < 2.5 * fs ? Math.sin((2 * Math.PI * 40 * i) / fs) : 0));
       const s = spectrogram(x, { samplingRate: fs, segmentSamples: 128, overlapSamples: 96 });
       let best = 0;
       for (let i = 1; i < s.power.length; i++) if (s.power[i]! > s.power[best]!) best = i;
@@ -72,7 +82,8 @@ describe('spectrogram', () => {
       const s = spectrogram(x, { samplingRate: 128, segmentSamples: 128, overlapSamples: 0, window: 'rectangular', detrend: 'none' });
       const df = 128 / 128;
       for (let t = 0; t < s.timeCount; t++) {
-        let integral = 0, meanSquare = 0;
+        let integral = 0,
+          meanSquare = 0;
         for (let k = 0; k < s.frequencyCount; k++) integral += s.power[t * s.frequencyCount + k]! * df;
         for (let j = 0; j < 128; j++) meanSquare += x[t * 128 + j]! ** 2 / 128;
         expect(Math.abs(integral - meanSquare) / meanSquare).toBeLessThan(1e-12);

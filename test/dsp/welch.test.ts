@@ -1,23 +1,25 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import {
-  createWelchPlan,
-  medianBias,
-  oneSidedDensityScale,
-  segmentCount,
-  welch,
-  welchFrequencies,
-  type WelchOptions,
-} from '../../src/dsp/welch.js';
+import { createWelchPlan, medianBias, oneSidedDensityScale, segmentCount, welch, welchFrequencies, type WelchOptions } from '../../src/dsp/welch.js';
 import { makeWindow, windowFigures, type WindowName } from '../../src/dsp/windows.js';
 import type { DetrendKind } from '../../src/dsp/detrend.js';
 import { createRandom } from '../../src/common/random.js';
 import { float32s, float64s, readWelchFixture, worstRelativeError } from '../fixtures/welch/fixture.js';
 
 interface WelchCase {
-  name: string; samplingRate: number; segmentSamples: number; overlapSamples: number; fftLength: number;
-  window: WindowName; tukeyRatio: number | null; detrend: DetrendKind; average: 'mean' | 'median';
-  x32: string; frequencies: string; psd: string; segmentCount: number;
+  name: string;
+  samplingRate: number;
+  segmentSamples: number;
+  overlapSamples: number;
+  fftLength: number;
+  window: WindowName;
+  tukeyRatio: number | null;
+  detrend: DetrendKind;
+  average: 'mean' | 'median';
+  x32: string;
+  frequencies: string;
+  psd: string;
+  segmentCount: number;
 }
 const fixture = readWelchFixture<{ provenance: { scipy: string }; cases: WelchCase[] }>('./welch-cases.json');
 const biasFixture = readWelchFixture<{ values: { count: number; bias: number }[] }>('./median-bias.json');
@@ -56,8 +58,13 @@ describe('welch', () => {
     it.each(fixture.cases.map((c) => [c.name, c] as const))('should match %s to 1e-9 relative', (_name, c) => {
       const window = makeWindow(c.window, c.segmentSamples, c.tukeyRatio === null ? undefined : { tukeyRatio: c.tukeyRatio });
       const result = welch(float32s(c.x32), {
-        samplingRate: c.samplingRate, segmentSamples: c.segmentSamples, overlapSamples: c.overlapSamples,
-        fftLength: c.fftLength, window, detrend: c.detrend, average: c.average,
+        samplingRate: c.samplingRate,
+        segmentSamples: c.segmentSamples,
+        overlapSamples: c.overlapSamples,
+        fftLength: c.fftLength,
+        window,
+        detrend: c.detrend,
+        average: c.average,
       });
       const expected = float64s(c.psd);
       expect(result.psd.length).toBe(expected.length);
@@ -107,10 +114,8 @@ describe('welch', () => {
     });
 
     it('should hold for any input, any odd or even length, with a rectangular window (fast-check)', () => {
-      fc.assert(fc.property(
-        fc.array(fc.double({ min: -1e3, max: 1e3, noNaN: true }), { minLength: 1, maxLength: 90 }),
-        fc.double({ min: 1, max: 1e4, noNaN: true }),
-        (values, fs) => {
+      fc.assert(
+        fc.property(fc.array(fc.double({ min: -1e3, max: 1e3, noNaN: true }), { minLength: 1, maxLength: 90 }), fc.double({ min: 1, max: 1e4, noNaN: true }), (values, fs) => {
           const x = Float64Array.from(values);
           const n = x.length;
           const r = welch(x, options({ samplingRate: fs, segmentSamples: n, overlapSamples: 0, fftLength: n, window: makeWindow('rectangular', n), detrend: 'none' }));
@@ -120,8 +125,9 @@ describe('welch', () => {
           for (const v of x) meanSquare += v * v;
           meanSquare /= n;
           return Math.abs(integral - meanSquare) <= 1e-10 * Math.max(meanSquare, 1e-300) + 1e-300;
-        },
-      ), { seed: 42, numRuns: 200 });
+        }),
+        { seed: 42, numRuns: 200 },
+      );
     });
 
     it('should integrate Hann/50 % white noise to the variance within 1 % (in expectation)', () => {
@@ -136,7 +142,10 @@ describe('welch', () => {
 
   describe('when the input is a sinusoid on a bin centre (docs/references.md §4)', () => {
     it('should put A²/2 = 2 over the peak bin ±1 with Hann, and a peak of (A²/2)/(1.5·Δf)', () => {
-      const fs = 256, n = 256, f0 = 32, amplitude = 2;
+      const fs = 256,
+        n = 256,
+        f0 = 32,
+        amplitude = 2;
       const x = new Float64Array(n * 8).map((_, i) => amplitude * Math.sin((2 * Math.PI * f0 * i) / fs + 0.3));
       const r = welch(x, options({ samplingRate: fs, segmentSamples: n, overlapSamples: n / 2, fftLength: n }));
       const df = fs / n;
@@ -151,9 +160,14 @@ describe('welch', () => {
     it('should skip segments refused by acceptSegment and average the rest', () => {
       const x = normals(256 * 10, 3);
       const calls: [number, number][] = [];
-      const plan = createWelchPlan(options({
-        acceptSegment: (_x, start, end) => { calls.push([start, end]); return start < 256 * 4 || start >= 256 * 6; },
-      }));
+      const plan = createWelchPlan(
+        options({
+          acceptSegment: (_x, start, end) => {
+            calls.push([start, end]);
+            return start < 256 * 4 || start >= 256 * 6;
+          },
+        }),
+      );
       const r = plan.compute(x);
       expect(calls.length).toBe(segmentCount(x.length, 256, 128));
       expect(calls[1]).toEqual([128, 384]);

@@ -2,7 +2,12 @@ import { describe, expect, it } from 'vitest';
 import { WINDOW_NAMES, makeWindow, windowFigures, type WindowName } from '../../src/dsp/windows.js';
 import { float64s, readWelchFixture } from '../fixtures/welch/fixture.js';
 
-interface WindowCase { window: WindowName; tukeyRatio: number | null; length: number; values: string }
+interface WindowCase {
+  window: WindowName;
+  tukeyRatio: number | null;
+  length: number;
+  values: string;
+}
 const fixture = readWelchFixture<{ provenance: { scipy: string }; windows: WindowCase[] }>('./windows.json');
 
 /** Symmetric window of length N from the periodic one of length N−1 (w_sym[n] = f(2πn/(N−1))). */
@@ -24,13 +29,12 @@ const COSINE_SUMS: [WindowName, number[]][] = [
 
 describe('makeWindow', () => {
   describe(`when compared with scipy.signal.get_window(fftbins=True) (scipy ${fixture.provenance.scipy})`, () => {
-    it.each(fixture.windows.map((c) => [`${c.window}${c.tukeyRatio === null ? '' : ` ${c.tukeyRatio}`} N=${c.length}`, c] as const))(
-      'should match %s to 1e-14 absolute', (_label, c) => {
-        const w = makeWindow(c.window, c.length, c.tukeyRatio === null ? undefined : { tukeyRatio: c.tukeyRatio });
-        const expected = float64s(c.values);
-        expect(w.length).toBe(expected.length);
-        for (let i = 0; i < w.length; i++) expect(Math.abs(w[i]! - expected[i]!)).toBeLessThan(1e-14);
-      });
+    it.each(fixture.windows.map((c) => [`${c.window}${c.tukeyRatio === null ? '' : ` ${c.tukeyRatio}`} N=${c.length}`, c] as const))('should match %s to 1e-14 absolute', (_label, c) => {
+      const w = makeWindow(c.window, c.length, c.tukeyRatio === null ? undefined : { tukeyRatio: c.tukeyRatio });
+      const expected = float64s(c.values);
+      expect(w.length).toBe(expected.length);
+      for (let i = 0; i < w.length; i++) expect(Math.abs(w[i]! - expected[i]!)).toBeLessThan(1e-14);
+    });
 
     it('should cover every window name', () => {
       expect(new Set(fixture.windows.map((c) => c.window))).toEqual(new Set(WINDOW_NAMES));
@@ -52,7 +56,7 @@ describe('makeWindow', () => {
   });
 
   describe('when the cache is involved', () => {
-    it('should hand out copies, so one caller cannot change another\'s window', () => {
+    it("should hand out copies, so one caller cannot change another's window", () => {
       const a = makeWindow('blackman', 128);
       a.fill(7);
       const b = makeWindow('blackman', 128);
@@ -83,7 +87,12 @@ describe('windowFigures', () => {
     });
 
     it('should give the COMPUTED ENBW column: Hann 1.5, Hamming 1.362826, Blackman 1.726757, Blackman–Harris 2.004353', () => {
-      const expected: [WindowName, number][] = [['hann', 1.5], ['hamming', 1.362826], ['blackman', 1.726757], ['blackman-harris', 2.004353]];
+      const expected: [WindowName, number][] = [
+        ['hann', 1.5],
+        ['hamming', 1.362826],
+        ['blackman', 1.726757],
+        ['blackman-harris', 2.004353],
+      ];
       for (const [name, enbw] of expected) expect(Math.abs(windowFigures(makeWindow(name, 4096)).noiseBandwidthBins - enbw)).toBeLessThan(1e-6);
     });
 
@@ -95,14 +104,23 @@ describe('windowFigures', () => {
     it('should match the COMPUTED scallop-loss column at N = 4096 to 1e-3 dB', () => {
       // docs/references.md §1 table: Hamming 1.7514, Blackman 1.0989, Blackman–Harris 0.8256 dB (Harris's printed
       // Hamming 1.78 is marked ✗ there and is not used)
-      const expected: [WindowName, number][] = [['rectangular', 3.9224], ['hann', 1.4236], ['hamming', 1.7514], ['blackman', 1.0989], ['blackman-harris', 0.8256]];
+      const expected: [WindowName, number][] = [
+        ['rectangular', 3.9224],
+        ['hann', 1.4236],
+        ['hamming', 1.7514],
+        ['blackman', 1.0989],
+        ['blackman-harris', 0.8256],
+      ];
       for (const [name, sl] of expected) expect(Math.abs(windowFigures(makeWindow(name, 4096)).scallopLossDb - sl)).toBeLessThan(1e-3);
     });
 
-    it('should agree with Harris\'s printed Table I at its own precision (MEMORY values, unmarked cells only)', () => {
+    it("should agree with Harris's printed Table I at its own precision (MEMORY values, unmarked cells only)", () => {
       const rows: [WindowName, number, number, number][] = [
         // name, CG (2 dp), ENBW (2 dp), scallop loss (2 dp)
-        ['rectangular', 1.0, 1.0, 3.92], ['hann', 0.5, 1.5, 1.42], ['blackman', 0.42, 1.73, 1.1], ['blackman-harris', 0.36, 2.0, 0.83],
+        ['rectangular', 1.0, 1.0, 3.92],
+        ['hann', 0.5, 1.5, 1.42],
+        ['blackman', 0.42, 1.73, 1.1],
+        ['blackman-harris', 0.36, 2.0, 0.83],
       ];
       for (const [name, cg, enbw, sl] of rows) {
         const f = windowFigures(makeWindow(name, 4096));

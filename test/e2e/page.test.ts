@@ -135,7 +135,7 @@ describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real
     expect(jobs.jobs).toEqual([]);
   });
 
-  it('should put a binary upload\'s problem beside the upload setting it names', async () => {
+  it("should put a binary upload's problem beside the upload setting it names", async () => {
     // 2 channels × 256 little-endian float32 samples, but no sampling rate given.
     const raw = join(session!.work, 'two-channels.f32');
     await writeFile(raw, Buffer.from(new Float32Array(512).map((_, i) => Math.sin(i / 5)).buffer));
@@ -192,8 +192,14 @@ describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real
     await plot.waitFor({ timeout: 20_000 });
     const texts = await plot.locator('text').allTextContents();
     // Axis labels: frequency in Hz, power with its unit (the plots route's contract, issue 13).
-    expect(texts.some((t) => /Hz/.test(t) && /frequency/i.test(t)), texts.join(' | ')).toBe(true);
-    expect(texts.some((t) => /dB|log/i.test(t) && /\//.test(t)), texts.join(' | ')).toBe(true);
+    expect(
+      texts.some((t) => /Hz/.test(t) && /frequency/i.test(t)),
+      texts.join(' | '),
+    ).toBe(true);
+    expect(
+      texts.some((t) => /dB|log/i.test(t) && /\//.test(t)),
+      texts.join(' | '),
+    ).toBe(true);
 
     const shot = await plot.screenshot({ path: join(SHOTS, '4-psd.png') });
     // The browser decodes its own screenshot; a blank or white plot has no ink pixels.
@@ -222,7 +228,7 @@ describe.skipIf(!HAVE_CHROMIUM)('when a person uses the dashboard page in a real
     expect(ink.coloured).toBeGreaterThan(200);
     await page.screenshot({ path: join(SHOTS, '5-job.png'), fullPage: true });
   });
-  it('should show a study run\'s progress, its table and its mean PSD per condition', async () => {
+  it("should show a study run's progress, its table and its mean PSD per condition", async () => {
     const post = async (path: string, body: unknown) => {
       const res = await fetch(`${base}${path}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
       expect(res.status, await res.clone().text()).toBeLessThan(300);

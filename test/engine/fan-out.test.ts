@@ -32,7 +32,14 @@ function study(): Signal {
 function run(recipe: unknown, threads: number, extra: { checkpoint?: () => void; onProgress?: (f: number) => void } = {}) {
   const signal = study();
   const pinned = normalizeRecipe(recipe);
-  return analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_test', sha256: 'x', recipeId: pinned.id, mode: 'local', channels: createChannelRunner({ threads }), ...extra }) as FeatureRecord;
+  return analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), {
+    signalId: 'sig_test',
+    sha256: 'x',
+    recipeId: pinned.id,
+    mode: 'local',
+    channels: createChannelRunner({ threads }),
+    ...extra,
+  }) as FeatureRecord;
 }
 
 const morlet = {
@@ -153,7 +160,13 @@ describe('when a spectrum job spreads its channels over helper threads', () => {
     try {
       const signal = study();
       const pinned = normalizeRecipe(welch);
-      const record = analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), { signalId: 'sig_test', sha256: 'x', recipeId: pinned.id, mode: 'local', channels: createChannelRunner({ threads: 2, budget }) });
+      const record = analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), {
+        signalId: 'sig_test',
+        sha256: 'x',
+        recipeId: pinned.id,
+        mode: 'local',
+        channels: createChannelRunner({ threads: 2, budget }),
+      });
       expect(record.provenance.threads).toBe(1);
       expect(budget.free[0]).toBe(0);
     } finally {

@@ -36,18 +36,28 @@ describe('when a job is running each time the embedded server is killed with SIG
     const id = submitted.body.id as string;
 
     for (let kill = 1; kill <= ATTEMPTS; kill++) {
-      const running = await until('the job to run', async () => {
-        const job = await jobOf(server.base, id);
-        return job.state === 'running' ? job : undefined;
-      }, 30_000, 50);
+      const running = await until(
+        'the job to run',
+        async () => {
+          const job = await jobOf(server.base, id);
+          return job.state === 'running' ? job : undefined;
+        },
+        30_000,
+        50,
+      );
       expect(running.attempts).toBe(kill);
       // The state turns "running" in memory a moment before its write is durable; the computation
       // starts only after that write. Kill once the disk says so, as a crash mid-computation would.
-      await until('the start to be written', async () => {
-        const text = await readFile(join(dataDir, 'jobs', `${id}.json`), 'utf8');
-        const { view } = JSON.parse(text) as { view: { state: string; attempts: number } };
-        return view.state === 'running' && view.attempts === kill ? true : undefined;
-      }, 30_000, 20);
+      await until(
+        'the start to be written',
+        async () => {
+          const text = await readFile(join(dataDir, 'jobs', `${id}.json`), 'utf8');
+          const { view } = JSON.parse(text) as { view: { state: string; attempts: number } };
+          return view.state === 'running' && view.attempts === kill ? true : undefined;
+        },
+        30_000,
+        20,
+      );
       server.child.kill('SIGKILL');
       expect((await server.child.exited).signal).toBe('SIGKILL');
       server = await serve();

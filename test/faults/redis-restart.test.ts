@@ -5,7 +5,7 @@ import { REDIS_REQUIRED } from '../helpers/redis.js';
 import { http, OwnRedis, pollJobHttp, smallInlineSignal, startHttpApi, startWorkerProcess, until, type ServiceProcess } from './helpers.js';
 
 const haveRedisServer = existsSync('/usr/bin/redis-server') && existsSync('/usr/bin/redis-cli');
-if (!haveRedisServer && REDIS_REQUIRED) throw new Error('/usr/bin/redis-server is required here (CI) to stop and restart a Redis of the test\'s own');
+if (!haveRedisServer && REDIS_REQUIRED) throw new Error("/usr/bin/redis-server is required here (CI) to stop and restart a Redis of the test's own");
 if (!haveRedisServer) console.warn('[skip] Redis outage tests skipped: /usr/bin/redis-server is not installed');
 
 const RECIPE = { method: 'welch', segmentSeconds: 1 };
@@ -79,7 +79,12 @@ async function outageAndRecovery(h: Awaited<ReturnType<typeof outage>>, during: 
   h.workers.push(worker);
   expect((await pollJobHttp(api.base, before.body.id as string, 30_000)).state).toBe('succeeded');
   expect((await pollJobHttp(api.base, after.body.id as string, 30_000)).state).toBe('succeeded');
-  expect(worker.logs('job completed').map((l) => l.jobId).sort()).toEqual([before.body.id, after.body.id].sort());
+  expect(
+    worker
+      .logs('job completed')
+      .map((l) => l.jobId)
+      .sort(),
+  ).toEqual([before.body.id, after.body.id].sort());
 }
 
 /**

@@ -6,7 +6,9 @@ const f = Float64Array.from({ length: 101 }, (_, k) => k * 0.5);
 describe('spectralCentroid', () => {
   describe('when the spectrum holds two tones or is flat', () => {
     it('should give the power-weighted mean frequency (hand-derived)', () => {
-      const two = new Float64Array(101); two[16] = 1; two[24] = 1; // 8 Hz and 12 Hz, equal power
+      const two = new Float64Array(101);
+      two[16] = 1;
+      two[24] = 1; // 8 Hz and 12 Hz, equal power
       expect(spectralCentroid(f, two, [0, 50]).frequency).toBeCloseTo(10, 12);
       two[24] = 3; // (8·1 + 12·3)/4 = 11
       expect(spectralCentroid(f, two, [0, 50]).frequency).toBeCloseTo(11, 12);

@@ -43,7 +43,8 @@ describe('spectralEdge', () => {
       // C(20) = 1.5, C(21) = 2, so 95 % (1.9) falls 0.4/0.5 of the way from 20 to 21 Hz.
       const f = grid(1, 30);
       const p = new Float64Array(f.length);
-      p[10] = 1; p[20] = 1;
+      p[10] = 1;
+      p[20] = 1;
       const r = spectralEdge(f, p, { range: [0, 30] });
       expect(r.edges[0]!.frequency).toBeCloseTo(11, 12);
       expect(r.edges[1]!.frequency).toBeCloseTo(20.8, 12);

@@ -6,7 +6,13 @@ import { periodogram } from '../../src/dsp/periodogram.js';
 
 const f = Float64Array.from({ length: 241 }, (_, k) => k * 0.25);
 const flatBackground = (log10Level: number): PowerLawFit => ({
-  intercept: log10Level, slope: 0, rSquared: 1, residualRms: 0, binCount: 10, inlierFraction: 1, warnings: [],
+  intercept: log10Level,
+  slope: 0,
+  rSquared: 1,
+  residualRms: 0,
+  binCount: 10,
+  inlierFraction: 1,
+  warnings: [],
 });
 const powerLaw = (intercept: number, beta: number): Float64Array => f.map((v) => (v > 0 ? 10 ** (intercept - beta * Math.log10(v)) : 0));
 
@@ -24,10 +30,15 @@ describe('peakFrequency', () => {
   describe('when a Hann-windowed sinusoid falls between bins', () => {
     it('should land within 0.02 bin of the tone (log-parabolic interpolation on the Hann main lobe)', () => {
       for (const tone of [10, 10.1, 10.25, 10.4, 10.5]) {
-        const n = 256, fs = 64;
+        const n = 256,
+          fs = 64;
         const x = Float64Array.from({ length: n }, (_, t) => Math.sin((2 * Math.PI * tone * t) / fs));
         const r = periodogram(x, { samplingRate: fs, window: 'hann', detrend: 'none' });
-        const peak = peakFrequency(r.frequencies, r.psd.map((v) => v + 1e-6), { range: [8, 13], background: flatBackground(-6) });
+        const peak = peakFrequency(
+          r.frequencies,
+          r.psd.map((v) => v + 1e-6),
+          { range: [8, 13], background: flatBackground(-6) },
+        );
         expect(Math.abs(peak.frequency! - tone) / (fs / n), `tone ${tone}`).toBeLessThan(0.02);
       }
     });
@@ -69,7 +80,8 @@ describe('peakFrequency', () => {
 
   describe('when a 10.3 Hz tone in noise goes through the multitaper estimator', () => {
     it('should report the tone within W/2 = 0.25 Hz (multitaper turns a line into a plateau of width 2W = 1 Hz)', () => {
-      const fs = 128, n = 512;
+      const fs = 128,
+        n = 512;
       // Deterministic noise-like samples (sine-hash, uniform on [−½, ½)), synthetic.
       const x = Float64Array.from({ length: n }, (_, t) => {
         const h = Math.sin((t + 1) * 12.9898) * 43758.5453;

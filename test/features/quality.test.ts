@@ -27,7 +27,9 @@ describe('qualityFlags', () => {
     it('should count the samples in runs at the rails', () => {
       const x = sine(256, 20).map((v) => Math.max(-15, Math.min(15, v)));
       let expected = 0;
-      x.forEach((v) => { if (Math.abs(v) === 15) expected++; });
+      x.forEach((v) => {
+        if (Math.abs(v) === 15) expected++;
+      });
       const r = qualityFlags(x);
       expect(r.clipped).toBe(true);
       expect(r.clippedSamples).toBe(expected);

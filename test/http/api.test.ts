@@ -100,7 +100,20 @@ describe('when the input is wrong', () => {
     ['more channel names than rows', '/v1/signals', { ...good, channels: ['Fz', 'Cz', 'Pz'] }, 422, 'invalid-signal', '/data'],
     ['a duplicate channel name', '/v1/signals', { ...good, channels: ['Fz', 'Fz'] }, 422, 'invalid-signal', '/channels/1'],
     ['an unknown upload field', '/v1/signals', { ...good, samplerate: 250 }, 422, 'invalid-signal', '/'],
-    ['a string sample', '/v1/signals', { ...good, data: [['a', 1], [1, 2]] }, 422, 'invalid-signal', '/data/0/0'],
+    [
+      'a string sample',
+      '/v1/signals',
+      {
+        ...good,
+        data: [
+          ['a', 1],
+          [1, 2],
+        ],
+      },
+      422,
+      'invalid-signal',
+      '/data/0/0',
+    ],
     ['both data and epochs', '/v1/signals', { ...good, epochs: [good.data] }, 422, 'invalid-signal', '/epochs'],
     ['a misspelt recipe setting', '/v1/recipes', { method: 'welch', segmentSecond: 2 }, 422, 'invalid-recipe', '/'],
     ['an unknown method', '/v1/recipes', { method: 'wavelet-soup' }, 422, 'invalid-recipe', '/method'],
@@ -116,7 +129,23 @@ describe('when the input is wrong', () => {
     ['a frequency range above Nyquist', '/v1/jobs', { signal: good, recipe: { method: 'welch', frequencyRange: [0, 200] } }, 422, 'recipe-unfit', '/recipe/frequencyRange/1'],
     ['an unknown recipe id', '/v1/jobs', { signal: good, recipe: 'rcp_00000000000000000000000000000000' }, 404, 'recipe-not-found', '/recipe'],
     ['an unknown signal id', '/v1/jobs', { signal: 'sig_00000000000000000000000000000000', recipe: { method: 'welch' } }, 404, 'signal-not-found', '/signal'],
-    ['a ragged inline signal', '/v1/jobs', { signal: { ...good, data: [[1, 2, 3], [1, 2]] }, recipe: { method: 'welch' } }, 422, 'invalid-signal', '/signal/data/1'],
+    [
+      'a ragged inline signal',
+      '/v1/jobs',
+      {
+        signal: {
+          ...good,
+          data: [
+            [1, 2, 3],
+            [1, 2],
+          ],
+        },
+        recipe: { method: 'welch' },
+      },
+      422,
+      'invalid-signal',
+      '/signal/data/1',
+    ],
     ['an unknown job field', '/v1/jobs', { signal: good, recipe: { method: 'welch' }, priority: 1 }, 400, 'invalid-request', '/'],
   ];
   it.each(cases)('should answer %s with a problem naming where', async (_name, url, payload, status, code, pointer) => {
@@ -197,7 +226,12 @@ describe('when uploading binary float32', () => {
   it('should locate a NaN sample by epoch, channel and byte offset', async () => {
     const values = new Float32Array(2 * 300);
     values[300 + 7] = Number.NaN;
-    const res = await api.app.inject({ method: 'POST', url: '/v1/signals?samplingRate=100&channels=A,B', headers: { 'content-type': 'application/octet-stream' }, payload: Buffer.from(values.buffer) });
+    const res = await api.app.inject({
+      method: 'POST',
+      url: '/v1/signals?samplingRate=100&channels=A,B',
+      headers: { 'content-type': 'application/octet-stream' },
+      payload: Buffer.from(values.buffer),
+    });
     expect(res.statusCode).toBe(422);
     expect(res.json().detail).toMatch(/sample 7 of channel "B" in epoch 0 .*byte offset 1228/);
   });
@@ -239,7 +273,12 @@ describe('when operators look at the service', () => {
   });
 
   it('should echo the request id and log it with the job id', async () => {
-    const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: { 'x-request-id': 'lab-pipeline-42' }, payload: { signal: { samplingRate: fs, channels: ['Oz'], data: [tone(1, 10, 2)] }, recipe: { method: 'welch', segmentSeconds: 1 } } });
+    const res = await api.app.inject({
+      method: 'POST',
+      url: '/v1/jobs',
+      headers: { 'x-request-id': 'lab-pipeline-42' },
+      payload: { signal: { samplingRate: fs, channels: ['Oz'], data: [tone(1, 10, 2)] }, recipe: { method: 'welch', segmentSeconds: 1 } },
+    });
     expect(res.headers['x-request-id']).toBe('lab-pipeline-42');
     const line = api.logs.find((l) => l.reqId === 'lab-pipeline-42' && l.msg === 'job submitted');
     expect(line).toMatchObject({ jobId: res.json().id });

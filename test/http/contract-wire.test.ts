@@ -8,7 +8,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_CHANNELS, DEMO_SAMPLING_RATE, demoBlock } from '../../src/signals/demo-recording.js';
 import { pollJob, startTestApi } from '../helpers/app.js';
 
-
 // The OpenAPI 3.1 document as committed (checked equal to the generated one by contract.test.ts).
 // OpenAPI 3.1 schemas are JSON Schema 2020-12 (OpenAPI 3.1.0 §4.8.24), hence Ajv's 2020 draft.
 const doc = JSON.parse(readFileSync(resolve(import.meta.dirname, '..', '..', 'openapi', 'openapi.json'), 'utf8')) as {
@@ -46,7 +45,9 @@ function conforms(method: string, url: string, res: LightMyRequestResponse): voi
   const response = operation!.responses[String(res.statusCode)] ?? operation!.responses.default;
   expect(response, `${method} ${template!.path} answered ${res.statusCode}, which the document does not list: ${res.body.slice(0, 200)}`).toBeDefined();
   seen.add(`${method} ${template!.path} ${res.statusCode}`);
-  const type = String(res.headers['content-type'] ?? '').split(';')[0]!.trim();
+  const type = String(res.headers['content-type'] ?? '')
+    .split(';')[0]!
+    .trim();
   if (!type.endsWith('json')) {
     const missing = Object.keys(response!.headers ?? {}).filter((name) => res.headers[name.toLowerCase()] === undefined);
     expect(missing, `${method} ${template!.path} ${res.statusCode} lacks documented headers`).toEqual([]);
@@ -103,9 +104,23 @@ describe('when every route answers, successes and errors alike', () => {
     const upload = await exchange('POST', '/v1/signals', { key: KEYS.submit, payload: { samplingRate: DEMO_SAMPLING_RATE, channels, data } });
     expect(upload.statusCode).toBe(201);
     const signalId = upload.json().id as string;
-    await exchange('POST', '/v1/signals', { key: KEYS.submit, payload: { samplingRate: DEMO_SAMPLING_RATE, channels: ['A', 'A'], data: [[1, 2], [3, 4]] } });
+    await exchange('POST', '/v1/signals', {
+      key: KEYS.submit,
+      payload: {
+        samplingRate: DEMO_SAMPLING_RATE,
+        channels: ['A', 'A'],
+        data: [
+          [1, 2],
+          [3, 4],
+        ],
+      },
+    });
     await exchange('POST', '/v1/signals', { key: KEYS.submit, payload: 'x', headers: { 'content-type': 'text/plain' } });
-    await exchange('POST', '/v1/signals?samplingRate=256&channels=Cz', { key: KEYS.submit, payload: Buffer.alloc(5 * 1024 * 1024) as unknown as string, headers: { 'content-type': 'application/octet-stream' } });
+    await exchange('POST', '/v1/signals?samplingRate=256&channels=Cz', {
+      key: KEYS.submit,
+      payload: Buffer.alloc(5 * 1024 * 1024) as unknown as string,
+      headers: { 'content-type': 'application/octet-stream' },
+    });
     await exchange('POST', '/v1/signals/import', { key: KEYS.submit, payload: { file: 'nothing.edf' } });
     await exchange('GET', `/v1/signals/${signalId}`, { key: KEYS.read });
     await exchange('GET', '/v1/signals/sig_00000000000000000000000000000000', { key: KEYS.read });
@@ -279,8 +294,14 @@ describe('when every route answers, successes and errors alike', () => {
     }
     expect(answers.size).toBe(16);
     for (const [operation, statuses] of answers) {
-      expect(statuses.some((s) => s < 400), `${operation}: ${statuses.join(', ')}`).toBe(true);
-      expect(statuses.some((s) => s >= 400 && s < 500), `${operation}: ${statuses.join(', ')}`).toBe(true);
+      expect(
+        statuses.some((s) => s < 400),
+        `${operation}: ${statuses.join(', ')}`,
+      ).toBe(true);
+      expect(
+        statuses.some((s) => s >= 400 && s < 500),
+        `${operation}: ${statuses.join(', ')}`,
+      ).toBe(true);
     }
   }, 120_000);
 

@@ -24,7 +24,16 @@ function file(unit: 'mV' | 'uV') {
   const samples = codes.map((d) => (d + 32768) * gain + pmin);
   return Buffer.from(
     writeEdf({
-      signals: ['O1', 'O2'].map((label) => ({ label, samples, samplingRate: fs, physicalDimension: unit, physicalMinimum: pmin, physicalMaximum: pmax, digitalMinimum: -32768, digitalMaximum: 32767 })),
+      signals: ['O1', 'O2'].map((label) => ({
+        label,
+        samples,
+        samplingRate: fs,
+        physicalDimension: unit,
+        physicalMinimum: pmin,
+        physicalMaximum: pmax,
+        digitalMinimum: -32768,
+        digitalMaximum: 32767,
+      })),
       recordDuration: 1,
       startDate: start,
       annotations: [{ onset: 5, duration: 10, label: 'eyes closed' }],

@@ -9,7 +9,12 @@ import { pollJob, startTestApi } from '../helpers/app.js';
 
 const edf = Buffer.from(
   writeEdf({
-    signals: ['Fp1', 'Fp2'].map((label, c) => ({ label, samplingRate: 128, physicalDimension: 'uV', samples: Float64Array.from({ length: 128 * 20 }, (_, i) => Math.round(50 * Math.sin(i / 6 + c))) })),
+    signals: ['Fp1', 'Fp2'].map((label, c) => ({
+      label,
+      samplingRate: 128,
+      physicalDimension: 'uV',
+      samples: Float64Array.from({ length: 128 * 20 }, (_, i) => Math.round(50 * Math.sin(i / 6 + c))),
+    })),
     recordDuration: 1,
     startDate: { year: 2026, month: 12, day: 1, hour: 4, minute: 0, second: 0 },
   }),
@@ -125,7 +130,7 @@ describe('when the far side of a URL import fails', () => {
     ['a body over the limit', '/huge', 413, '/problems/payload-too-large'],
     ['a body that stalls', '/stall', 502, '/problems/source-failed'],
     ['a connection reset mid-body', '/reset', 502, '/problems/source-failed'],
-  ])('should answer %s (%s) with %i, not the client\'s 400', async (_what, path, status, type) => {
+  ])("should answer %s (%s) with %i, not the client's 400", async (_what, path, status, type) => {
     const res = await importing({ url: `http://127.0.0.1:${farPort}${path}` }, small.app);
     expect(res.statusCode, res.body).toBe(status);
     expect(res.headers['content-type']).toContain('application/problem+json');

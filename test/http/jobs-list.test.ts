@@ -48,7 +48,7 @@ describe('when a dashboard lists jobs', () => {
     for (const id of ids) expect((await pollJob(api.app, id)).state).toBe('succeeded');
   });
 
-  it('should carry each job\'s method and labels, newest first', async () => {
+  it("should carry each job's method and labels, newest first", async () => {
     const page = await list('');
     expect(page.jobs.map((j) => j.id)).toEqual([...ids].reverse());
     expect(page.jobs.map((j) => j.method)).toEqual(['welch', 'multitaper', 'periodogram', 'welch', 'welch']);
@@ -80,7 +80,7 @@ describe('when a dashboard lists jobs', () => {
     expect(seen).toEqual([...ids].reverse());
   });
 
-  it('should keep the filters on the next page\'s link', async () => {
+  it("should keep the filters on the next page's link", async () => {
     const page = await list('?method=welch&limit=1');
     expect(page.links.next).toMatch(/^\/v1\/jobs\?method=welch&limit=1&cursor=/);
     const second = await list(page.links.next!.slice('/v1/jobs'.length));
@@ -114,7 +114,7 @@ describe('when a dashboard lists jobs', () => {
     }
   });
 
-  it('should refuse a malformed label at submission, with the label\'s pointer, and queue nothing', async () => {
+  it("should refuse a malformed label at submission, with the label's pointer, and queue nothing", async () => {
     const before = (await list('')).jobs.length;
     const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal: noiseSignal(9), recipe: { method: 'welch', segmentSeconds: 1 }, labels: { '9lives': 'x' } } });
     expect(res.statusCode).toBe(400);
@@ -147,9 +147,11 @@ describe('when a dashboard watches several jobs at once', () => {
 });
 
 describe('when a page on another origin reads responses', () => {
-  it('should expose the request id, ETag, download name and an attachment\'s shape and dtype', async () => {
+  it("should expose the request id, ETag, download name and an attachment's shape and dtype", async () => {
     const res = await api.app.inject({ method: 'GET', url: '/v1/jobs', headers: { origin: ORIGIN } });
-    const exposed = String(res.headers['access-control-expose-headers']).split(',').map((h) => h.trim());
+    const exposed = String(res.headers['access-control-expose-headers'])
+      .split(',')
+      .map((h) => h.trim());
     for (const header of ['x-request-id', 'etag', 'content-disposition', 'x-rhythmetric-shape', 'x-rhythmetric-dtype']) expect(exposed).toContain(header);
   });
 });

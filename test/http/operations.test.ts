@@ -20,7 +20,14 @@ describe('when a dashboard follows a job', () => {
     const events = res.body
       .split('\n\n')
       .filter((block) => block.includes('event: state'))
-      .map((block) => JSON.parse(block.split('\n').find((l) => l.startsWith('data: '))!.slice(6)));
+      .map((block) =>
+        JSON.parse(
+          block
+            .split('\n')
+            .find((l) => l.startsWith('data: '))!
+            .slice(6),
+        ),
+      );
     expect(events.length).toBeGreaterThan(0);
     expect(events.at(-1)).toMatchObject({ id: job.id, state: 'succeeded', progress: 1 });
     const unknown = await api.app.inject({ method: 'GET', url: '/v1/jobs/job_00000000000000000000000000000000/events' });

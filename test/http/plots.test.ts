@@ -62,7 +62,7 @@ describe('when a PSD plot of a succeeded Welch job is asked for', () => {
 });
 
 describe('when a time–frequency plot of a succeeded Morlet job is asked for', () => {
-  it('should read the channel\'s matrix from the store and span the colour bar over it', async () => {
+  it("should read the channel's matrix from the store and span the colour bar over it", async () => {
     const res = await get(`/v1/jobs/${morletJob}/plots/time-frequency?channels=Oz`);
     expect(res.statusCode, res.body).toBe(200);
     const record = (await get(`/v1/jobs/${morletJob}/record`)).json();
@@ -125,7 +125,7 @@ describe('when two jobs are compared', () => {
 });
 
 describe('when a study run is drawn per condition', () => {
-  it('should draw one mean with its spread per condition over the run\'s succeeded entries', async () => {
+  it("should draw one mean with its spread per condition over the run's succeeded entries", async () => {
     const post = (url: string, payload: unknown) => api.app.inject({ method: 'POST', url, payload: payload as Record<string, unknown> });
     const entries = [];
     for (const [i, condition] of (['eyes-closed', 'eyes-open', 'eyes-closed', 'eyes-open'] as const).entries()) {
@@ -161,7 +161,7 @@ describe('when a plot request is wrong', () => {
     expect(body.allowed).toContain('psd');
   });
 
-  it('should list the record\'s channels for an unknown channel', async () => {
+  it("should list the record's channels for an unknown channel", async () => {
     const res = await get(`/v1/jobs/${welchJob}/plots/psd?channels=Oz,T7`);
     expect(res.statusCode).toBe(400);
     const body = res.json();
@@ -170,7 +170,7 @@ describe('when a plot request is wrong', () => {
     expect(body.channels).toEqual(['F3', 'F4', 'Fz', 'Cz', 'Pz', 'O1', 'Oz', 'O2']);
   });
 
-  it('should refuse a kind that does not fit the record\'s method, naming those that do', async () => {
+  it("should refuse a kind that does not fit the record's method, naming those that do", async () => {
     const res = await get(`/v1/jobs/${morletJob}/plots/psd`);
     expect(res.statusCode).toBe(422);
     const body = res.json();

@@ -40,7 +40,13 @@ describe('when a signal is uploaded with an absurdly low sampling rate', () => {
   });
 
   it('should refuse an EDF file whose records make the rate 1e-8 Hz (one sample per 99 999 999 s record)', async () => {
-    const bytes = Buffer.from(writeEdf({ signals: [{ label: 'Cz', samples: [1, 2, 3, 4], samplingRate: 1, physicalMinimum: 0, physicalMaximum: 10 }], recordDuration: 1, startDate: { year: 2026, month: 1, day: 1, hour: 0, minute: 0, second: 0 } }));
+    const bytes = Buffer.from(
+      writeEdf({
+        signals: [{ label: 'Cz', samples: [1, 2, 3, 4], samplingRate: 1, physicalMinimum: 0, physicalMaximum: 10 }],
+        recordDuration: 1,
+        startDate: { year: 2026, month: 1, day: 1, hour: 0, minute: 0, second: 0 },
+      }),
+    );
     // The record-duration field: 8 ASCII characters at byte 244 of the header (EDF, Kemp et al. 1992).
     expect(bytes.subarray(244, 252).toString('ascii').trim()).toBe('1');
     bytes.write('99999999', 244, 'ascii');

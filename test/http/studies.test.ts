@@ -67,7 +67,14 @@ interface RunView {
   finishedAt: string | null;
 }
 
-const RECIPE = { method: 'welch', segmentSeconds: 1, bands: [{ name: 'theta', low: 4, high: 8 }, { name: 'alpha', low: 8, high: 13 }] };
+const RECIPE = {
+  method: 'welch',
+  segmentSeconds: 1,
+  bands: [
+    { name: 'theta', low: 4, high: 8 },
+    { name: 'alpha', low: 8, high: 13 },
+  ],
+};
 
 describe('when entries are added to a study', () => {
   let api: Api;
@@ -82,7 +89,9 @@ describe('when entries are added to a study', () => {
 
   it('should add a CSV manifest whole, keep text and numeric columns apart, and page the entries', async () => {
     const study = await newStudy(a);
-    const manifest = ['signal,subject,session,condition,age:number', `${signals[0]},p01,early,eyes-closed,31`, `${signals[1]},"p,02",late,eyes-closed,27.5`, `${signals[2]},007,late,eyes-open,`].join('\r\n');
+    const manifest = ['signal,subject,session,condition,age:number', `${signals[0]},p01,early,eyes-closed,31`, `${signals[1]},"p,02",late,eyes-closed,27.5`, `${signals[2]},007,late,eyes-open,`].join(
+      '\r\n',
+    );
     const res = await a.csv(`/v1/studies/${study}/entries`, manifest);
     expect(res.statusCode).toBe(201);
     expect(res.json().added).toBe(3);
@@ -135,15 +144,46 @@ describe('when entries are added to a study', () => {
     const cases: [string, () => { csv?: string; json?: unknown }, { reason: string; row: number | null; column: string | null; pointer: string }][] = [
       ['an unknown signal', () => ({ csv: `signal,subject\n${signals[1]},p02\nsig_${'0'.repeat(32)},p03\n` }), { reason: 'unknown-signal', row: 2, column: 'signal', pointer: '/rows/2/signal' }],
       ['a signal twice in the manifest', () => ({ csv: `signal,subject\n${signals[1]},p02\n${signals[1]},p03\n` }), { reason: 'duplicate-entry', row: 2, column: 'signal', pointer: '/rows/2/signal' }],
-      ['a signal already in the study', () => ({ json: { entries: [{ signal: signals[1], metadata: { subject: 'p02' } }, { signal: signals[0], metadata: { subject: 'p01' } }] } }), { reason: 'duplicate-entry', row: 2, column: 'signal', pointer: '/entries/1/signal' }],
+      [
+        'a signal already in the study',
+        () => ({
+          json: {
+            entries: [
+              { signal: signals[1], metadata: { subject: 'p02' } },
+              { signal: signals[0], metadata: { subject: 'p01' } },
+            ],
+          },
+        }),
+        { reason: 'duplicate-entry', row: 2, column: 'signal', pointer: '/entries/1/signal' },
+      ],
       ['a key that is not a name', () => ({ csv: `signal,subject,eye state\n${signals[1]},p02,closed\n` }), { reason: 'bad-key', row: 0, column: 'eye state', pointer: '/header/2' }],
-      ['a key that is a table column', () => ({ json: { entries: [{ signal: signals[1], metadata: { subject: 'p02', Epoch: 3 } }] } }), { reason: 'bad-key', row: 1, column: 'Epoch', pointer: '/entries/0/metadata/Epoch' }],
+      [
+        'a key that is a table column',
+        () => ({ json: { entries: [{ signal: signals[1], metadata: { subject: 'p02', Epoch: 3 } }] } }),
+        { reason: 'bad-key', row: 1, column: 'Epoch', pointer: '/entries/0/metadata/Epoch' },
+      ],
       ['no subject column', () => ({ csv: `signal,condition\n${signals[1]},eyes-open\n` }), { reason: 'missing-column', row: 0, column: 'subject', pointer: '/header' }],
-      ['a short row', () => ({ csv: `signal,subject,condition\n${signals[1]},p02,eyes-open\n${signals[2]},p03\n` }), { reason: 'missing-column', row: 2, column: 'condition', pointer: '/rows/2/condition' }],
+      [
+        'a short row',
+        () => ({ csv: `signal,subject,condition\n${signals[1]},p02,eyes-open\n${signals[2]},p03\n` }),
+        { reason: 'missing-column', row: 2, column: 'condition', pointer: '/rows/2/condition' },
+      ],
       ['no signal column', () => ({ csv: `subject,condition\np02,eyes-open\n` }), { reason: 'missing-column', row: 0, column: 'signal', pointer: '/header' }],
-      ['text in a numeric column', () => ({ csv: `signal,subject,age:number\n${signals[1]},p02,31\n${signals[2]},p03,thirty\n` }), { reason: 'wrong-type', row: 2, column: 'age', pointer: '/rows/2/age' }],
-      ['a boolean metadata value', () => ({ json: { entries: [{ signal: signals[1], metadata: { subject: 'p02', medicated: true } }] } }), { reason: 'wrong-type', row: 1, column: 'medicated', pointer: '/entries/0/metadata/medicated' }],
-      ['a window outside the signal', () => ({ json: { entries: [{ signal: signals[1], channels: ['O1', 'T7'], metadata: { subject: 'p02' } }] } }), { reason: 'bad-view', row: 1, column: 'channels', pointer: '/entries/0/channels' }],
+      [
+        'text in a numeric column',
+        () => ({ csv: `signal,subject,age:number\n${signals[1]},p02,31\n${signals[2]},p03,thirty\n` }),
+        { reason: 'wrong-type', row: 2, column: 'age', pointer: '/rows/2/age' },
+      ],
+      [
+        'a boolean metadata value',
+        () => ({ json: { entries: [{ signal: signals[1], metadata: { subject: 'p02', medicated: true } }] } }),
+        { reason: 'wrong-type', row: 1, column: 'medicated', pointer: '/entries/0/metadata/medicated' },
+      ],
+      [
+        'a window outside the signal',
+        () => ({ json: { entries: [{ signal: signals[1], channels: ['O1', 'T7'], metadata: { subject: 'p02' } }] } }),
+        { reason: 'bad-view', row: 1, column: 'channels', pointer: '/entries/0/channels' },
+      ],
     ];
 
     it.each(cases)('should refuse %s whole, naming the row and column', async (_name, body, expected) => {
@@ -285,7 +325,11 @@ describe('when a study is run', () => {
     }
 
     // The same table as Parquet, chosen by Accept, read back by an independent reader (parquet-wasm).
-    const parquet = await api.app.inject({ method: 'GET', url: `/v1/studies/${study}/runs/${run.id}/table?level=bands`, headers: { ...asA, accept: 'text/csv;q=0.5, application/vnd.apache.parquet' } });
+    const parquet = await api.app.inject({
+      method: 'GET',
+      url: `/v1/studies/${study}/runs/${run.id}/table?level=bands`,
+      headers: { ...asA, accept: 'text/csv;q=0.5, application/vnd.apache.parquet' },
+    });
     expect(parquet.statusCode).toBe(200);
     expect(parquet.headers['content-type']).toBe('application/vnd.apache.parquet');
     const table = tableFromIPC(readParquet(new Uint8Array(parquet.rawPayload)).intoIPCStream());

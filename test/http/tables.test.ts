@@ -56,7 +56,12 @@ describe('when a table of a succeeded job is asked for', () => {
     expect([oz.signal, oz.recipe, oz.resultHash]).toEqual([record.input.signal, record.recipe.id, record.resultHash]);
     // demoRecording(6): the late blocks start at 24, 30, 36 and 42 s, alternating eyes-open and eyes-closed.
     const epochs = rows.filter((r) => r.scope === 'epoch' && r.channel === 'Oz' && r.band === 'alpha');
-    expect(epochs.map((r) => [r.epochStart, r.label])).toEqual([['24', 'eyes-open/late'], ['30', 'eyes-closed/late'], ['36', 'eyes-open/late'], ['42', 'eyes-closed/late']]);
+    expect(epochs.map((r) => [r.epochStart, r.label])).toEqual([
+      ['24', 'eyes-open/late'],
+      ['30', 'eyes-closed/late'],
+      ['36', 'eyes-open/late'],
+      ['42', 'eyes-closed/late'],
+    ]);
   });
 
   it('should answer Parquet to Accept: application/vnd.apache.parquet, readable by an independent reader', async () => {
@@ -107,7 +112,12 @@ describe('when the table cannot be given', () => {
   it('should answer 409 for a job that failed, with its reason', async () => {
     // A flat channel is flagged in every epoch, and dropFlagged leaves no epoch: known only once the samples are read.
     const flat = { samplingRate: 128, channels: ['Cz'], data: [Array.from({ length: 512 }, () => 0)] };
-    const res0 = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: flat, recipe: { method: 'welch', features: { quality: { dropFlagged: true } } } } });
+    const res0 = await api.app.inject({
+      method: 'POST',
+      url: '/v1/jobs',
+      headers: auth(KEYS.lab),
+      payload: { signal: flat, recipe: { method: 'welch', features: { quality: { dropFlagged: true } } } },
+    });
     expect(res0.statusCode, res0.body).toBe(202);
     const failed = await pollJob(api.app, res0.json().id, 60_000, auth(KEYS.lab));
     expect(failed.state).toBe('failed');
@@ -142,7 +152,13 @@ describe('when a binary (float32) upload carries events', () => {
     });
     return bytes;
   };
-  const binary = (query: string) => api.app.inject({ method: 'POST', url: `/v1/signals?samplingRate=${fs}&channels=${channels.join(',')}${query}`, headers: { ...auth(KEYS.lab), 'content-type': 'application/octet-stream' }, payload: body() });
+  const binary = (query: string) =>
+    api.app.inject({
+      method: 'POST',
+      url: `/v1/signals?samplingRate=${fs}&channels=${channels.join(',')}${query}`,
+      headers: { ...auth(KEYS.lab), 'content-type': 'application/octet-stream' },
+      payload: body(),
+    });
 
   it('should store the events as a JSON upload does: the same samples and events give the same signal id', async () => {
     const fromBinary = await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`);
@@ -169,19 +185,36 @@ describe('when a binary (float32) upload carries events', () => {
 
   it('should cut epochs inside the uploaded blocks and show their labels in the table', async () => {
     const id = (await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`)).json().id as string;
-    const submitted = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: id, recipe: { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-open', 'eyes-closed'], epochSeconds: 2 } } } });
+    const submitted = await api.app.inject({
+      method: 'POST',
+      url: '/v1/jobs',
+      headers: auth(KEYS.lab),
+      payload: { signal: id, recipe: { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-open', 'eyes-closed'], epochSeconds: 2 } } },
+    });
     expect(submitted.statusCode, submitted.body).toBe(202);
     const job = await pollJob(api.app, submitted.json().id, 60_000, auth(KEYS.lab));
     expect(job.state, JSON.stringify(job.problem)).toBe('succeeded');
     const table = csvObjects((await get(`/v1/jobs/${job.id as string}/table?level=bands`)).body);
     const epochs = table.filter((r) => r.scope === 'epoch' && r.channel === 'O1' && r.band === 'alpha');
     // Two 6-s blocks, three 2-s epochs each; the blink marker has no duration and tiles nothing.
-    expect(epochs.map((r) => [r.epochStart, r.label])).toEqual([['0', 'eyes-open'], ['2', 'eyes-open'], ['4', 'eyes-open'], ['6', 'eyes-closed'], ['8', 'eyes-closed'], ['10', 'eyes-closed']]);
+    expect(epochs.map((r) => [r.epochStart, r.label])).toEqual([
+      ['0', 'eyes-open'],
+      ['2', 'eyes-open'],
+      ['4', 'eyes-open'],
+      ['6', 'eyes-closed'],
+      ['8', 'eyes-closed'],
+      ['10', 'eyes-closed'],
+    ]);
   });
 
   it('should refuse blocks epoching on a label whose events have no duration before queueing, naming the label', async () => {
     const id = (await binary(`&events=${encodeURIComponent(JSON.stringify(events))}`)).json().id as string;
-    const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', headers: auth(KEYS.lab), payload: { signal: id, recipe: { method: 'welch', epoching: { mode: 'blocks', labels: ['eyes-open', 'blink'], epochSeconds: 2 } } } });
+    const res = await api.app.inject({
+      method: 'POST',
+      url: '/v1/jobs',
+      headers: auth(KEYS.lab),
+      payload: { signal: id, recipe: { method: 'welch', epoching: { mode: 'blocks', labels: ['eyes-open', 'blink'], epochSeconds: 2 } } },
+    });
     expect(res.statusCode).toBe(422);
     expect(res.json()).toMatchObject({ type: '/problems/recipe-unfit', pointer: '/recipe/epoching/labels/1' });
   });

@@ -127,7 +127,13 @@ describe('when the recipe asks for Morlet power around events', () => {
 
 describe('when the recipe asks for a spectrogram', () => {
   it('should show the burst at 10 Hz in the windows centred inside 0.3–0.6 s', async () => {
-    const { job, record } = await run({ method: 'spectrogram', segmentSeconds: 0.2, stepSeconds: 0.05, frequencyRange: [0, 40], epoching: { mode: 'events', beforeSeconds: before, afterSeconds: after } });
+    const { job, record } = await run({
+      method: 'spectrogram',
+      segmentSeconds: 0.2,
+      stepSeconds: 0.05,
+      frequencyRange: [0, 40],
+      epoching: { mode: 'events', beforeSeconds: before, afterSeconds: after },
+    });
     const { shape, values } = await matrix(job.id as string, 'power-0');
     const [T, F] = shape as [number, number];
     const k10 = record.result.frequencies.indexOf(10);
@@ -172,10 +178,7 @@ describe('when connectivity meets flat channels', () => {
       channels: ['Fz', 'Cz', 'Pz'],
       data: [Array.from({ length: n }, () => random.normal()), new Array<number>(n).fill(0), new Array<number>(n).fill(12.5)],
     };
-    const { job, record } = await run(
-      { method: 'connectivity', segmentSeconds: 1, overlap: 0.5, bands: [{ name: 'alpha', low: 8, high: 13 }], epoching: { mode: 'fixed', epochSeconds: 4 } },
-      signal,
-    );
+    const { job, record } = await run({ method: 'connectivity', segmentSeconds: 1, overlap: 0.5, bands: [{ name: 'alpha', low: 8, high: 13 }], epoching: { mode: 'fixed', epochSeconds: 4 } }, signal);
     expect(job.state).toBe('succeeded');
     const c = record.result.connectivity;
     for (const pair of c.pairs) {

@@ -11,7 +11,10 @@ afterAll(async () => {
 
 // Invented samples of a 20 µV rhythm, written once in µV and once in V and mV as a lab's export
 // script would print them (SI prefixes: 1 V = 10^6 µV, 1 mV = 10^3 µV; BIPM SI Brochure, common practice).
-const microvolts = [[12.5, -3.25, 20, -18.75, 0.5, 7, -11.125, 2], [1.5, 2.5, -4, 6.25, -8, 10, -12.5, 14]];
+const microvolts = [
+  [12.5, -3.25, 20, -18.75, 0.5, 7, -11.125, 2],
+  [1.5, 2.5, -4, 6.25, -8, 10, -12.5, 14],
+];
 const asText = (rows: number[][], exponent: number) => rows.map((row) => row.map((v) => Number(`${v}e${exponent}`)));
 
 function post(payload: Record<string, unknown>) {
@@ -52,7 +55,12 @@ describe('when JSON uploads declare a voltage unit', () => {
 
 describe('when float32 uploads declare a voltage unit', () => {
   const upload = (values: number[], query: string) =>
-    api.app.inject({ method: 'POST', url: `/v1/signals?samplingRate=128&channels=O1,O2${query}`, headers: { 'content-type': 'application/octet-stream' }, payload: Buffer.from(Float32Array.from(values).buffer) });
+    api.app.inject({
+      method: 'POST',
+      url: `/v1/signals?samplingRate=128&channels=O1,O2${query}`,
+      headers: { 'content-type': 'application/octet-stream' },
+      payload: Buffer.from(Float32Array.from(values).buffer),
+    });
 
   it('should convert mV to µV (values exact in float32, so the ids agree) and refuse an unknown unit', async () => {
     const micro = [500, -250, 125, 1000, -62.5, 31.25, 2, -4];
@@ -61,7 +69,10 @@ describe('when float32 uploads declare a voltage unit', () => {
     const exact = micro.filter((_, i) => Math.fround(milli[i]!) * 1000 === micro[i]);
     expect(exact.length).toBeGreaterThanOrEqual(4);
     const a = await upload(exact, '&unit=uV');
-    const b = await upload(exact.map((v) => v / 1000), '&unit=mV');
+    const b = await upload(
+      exact.map((v) => v / 1000),
+      '&unit=mV',
+    );
     expect(a.statusCode, a.body).toBe(201);
     expect(b.json().id).toBe(a.json().id);
     const bad = await upload(micro, '&unit=uv2');

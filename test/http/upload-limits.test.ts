@@ -113,7 +113,15 @@ describe('when uploads are abandoned and writes interrupted', () => {
     const temp = join(dataDir, 'tmp');
     const upload = join(temp, 'uploads', 'upl_0123456789abcdef0123456789abcdef');
     await mkdir(upload, { recursive: true });
-    await writeFile(join(upload, 'upload.json'), JSON.stringify({ id: 'upl_0123456789abcdef0123456789abcdef', tenant: 'public', start: { format: 'float32', samplingRate: 500, channels: ['Cz'], epochCount: 1 }, createdAt: new Date().toISOString() }));
+    await writeFile(
+      join(upload, 'upload.json'),
+      JSON.stringify({
+        id: 'upl_0123456789abcdef0123456789abcdef',
+        tenant: 'public',
+        start: { format: 'float32', samplingRate: 500, channels: ['Cz'], epochCount: 1 },
+        createdAt: new Date().toISOString(),
+      }),
+    );
     const leftovers = [join(temp, 'a1b2c3d4e5f60718.part'), join(temp, '0011223344556677.f64.part'), join(upload, '8899aabbccddeeff.upload')];
     for (const path of leftovers) {
       await writeFile(path, Buffer.alloc(1000));

@@ -55,7 +55,12 @@ describe('when a large file is uploaded in parts', () => {
   it('should store an EDF sent in parts exactly as the same EDF sent at once', async () => {
     const edf = Buffer.from(
       writeEdf({
-        signals: ['C3', 'C4'].map((label, c) => ({ label, samplingRate: 256, physicalDimension: 'uV', samples: Float64Array.from({ length: 256 * 30 }, (_, i) => Math.round(100 * Math.sin(i / 11 + c)) / 4) })),
+        signals: ['C3', 'C4'].map((label, c) => ({
+          label,
+          samplingRate: 256,
+          physicalDimension: 'uV',
+          samples: Float64Array.from({ length: 256 * 30 }, (_, i) => Math.round(100 * Math.sin(i / 11 + c)) / 4),
+        })),
         recordDuration: 1,
         startDate: { year: 2026, month: 12, day: 1, hour: 2, minute: 30, second: 0 },
         annotations: [{ onset: 3, duration: 1.5, label: 'arousal' }],

@@ -74,7 +74,7 @@ describe('when the same bad input reaches the embedded queue as a job planned wi
     return api.queue.waitFor(id, 20_000);
   }
 
-  it('should give a planned job (recipe resolved once, with the limits) and an earlier version\'s job the same record', async () => {
+  it("should give a planned job (recipe resolved once, with the limits) and an earlier version's job the same record", async () => {
     const recipe = { method: 'welch', segmentSeconds: 0.5 };
     const res = await api.app.inject({ method: 'POST', url: '/v1/jobs', payload: { signal: signalId, recipe } });
     expect(res.statusCode).toBe(202);

@@ -20,7 +20,7 @@ function resolve(recipe: unknown, s: SignalShape) {
   return resolveRecipe(pinned.recipe, pinned.hash, s);
 }
 
-describe('when a job\'s cost is estimated from the signal\'s shape', () => {
+describe("when a job's cost is estimated from the signal's shape", () => {
   const recipes: Record<string, unknown> = {
     welch: { method: 'welch' },
     multitaper: { method: 'multitaper' },
@@ -58,7 +58,16 @@ describe('when a job\'s cost is estimated from the signal\'s shape', () => {
     const sigma = 7 / (2 * Math.PI * 1e-5);
     const halfWidth = Math.ceil(6 * sigma * 128);
     const recipe = normalizeRecipe({ method: 'morlet', frequencies: [0.00001], output: 'summary', summary: [{ name: 'all', low: 0, high: 1, start: 0, end: 1 }] }).recipe as MorletRecipe;
-    const derived = { segmentSamples: 256, overlapSamples: 0, fftLength: 256, frequencyResolution: 0.5, segmentsPerEpoch: 1, frequencyRange: [0, 64] as [number, number], nyquist: 64, epochSamples: 256 };
+    const derived = {
+      segmentSamples: 256,
+      overlapSamples: 0,
+      fftLength: 256,
+      frequencyResolution: 0.5,
+      segmentsPerEpoch: 1,
+      frequencyRange: [0, 64] as [number, number],
+      nyquist: 64,
+      epochSamples: 256,
+    };
     const cost = morlet.cost(recipe, derived, { samplingRate: 128, samplesPerEpoch: 256, channels: ['A'] });
     expect(cost.bytes).toBeGreaterThanOrEqual(16 * (2 * halfWidth + 1));
     expect(cost.bytes).toBeGreaterThan(2 * 1024 ** 3);

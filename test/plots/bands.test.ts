@@ -9,7 +9,11 @@ const record = spectral(demoRecord({ method: 'welch' }));
 function bars(svg: string) {
   const doc = parseSvg(svg);
   const y = readAxis(doc, 'y');
-  return { doc, y, bars: byClass(doc, 'bar').map((r) => ({ channel: r.getAttribute('data-channel')!, band: r.getAttribute('data-band')!, top: attr(r, 'y'), bottom: attr(r, 'y') + attr(r, 'height') })) };
+  return {
+    doc,
+    y,
+    bars: byClass(doc, 'bar').map((r) => ({ channel: r.getAttribute('data-channel')!, band: r.getAttribute('data-band')!, top: attr(r, 'y'), bottom: attr(r, 'y') + attr(r, 'height') })),
+  };
 }
 
 describe('when band power of the demo study is drawn as bars', () => {

@@ -10,11 +10,19 @@ const closed = spectral(demoRecord({ method: 'welch' }, 'eyes-closed', 'late'));
 const open = spectral(demoRecord({ method: 'welch' }, 'eyes-open', 'late'));
 
 describe('when two records of the demo study are compared on one channel', () => {
-  const doc = parseSvg(comparePlot([{ label: 'eyes closed', record: closed }, { label: 'eyes open', record: open }], { width: 800, height: 480, channel: 'Oz' }));
+  const doc = parseSvg(
+    comparePlot(
+      [
+        { label: 'eyes closed', record: closed },
+        { label: 'eyes open', record: open },
+      ],
+      { width: 800, height: 480, channel: 'Oz' },
+    ),
+  );
   const x = readAxis(doc, 'x');
   const y = readAxis(doc, 'y');
 
-  it('should draw each record\'s spectrum through its own values, told apart by colour and dash', () => {
+  it("should draw each record's spectrum through its own values, told apart by colour and dash", () => {
     const lines = byClass(doc, 'series');
     expect(lines.map((l) => l.getAttribute('data-series'))).toEqual(['eyes closed', 'eyes open']);
     expect(lines[0]!.getAttribute('stroke')).not.toBe(lines[1]!.getAttribute('stroke'));
@@ -37,7 +45,15 @@ describe('when two records of the demo study are compared on one channel', () =>
   });
 
   it('should refuse a channel one record does not have', () => {
-    expect(() => comparePlot([{ label: 'a', record: closed }, { label: 'b', record: open }], { width: 800, height: 480, channel: 'T7' })).toThrow(DomainError);
+    expect(() =>
+      comparePlot(
+        [
+          { label: 'a', record: closed },
+          { label: 'b', record: open },
+        ],
+        { width: 800, height: 480, channel: 'T7' },
+      ),
+    ).toThrow(DomainError);
   });
 });
 
@@ -49,7 +65,7 @@ describe('when records are grouped by condition', () => {
   const doc = parseSvg(groupSpectraPlot(groups, { width: 800, height: 480, channel: 'O2', groupedBy: 'condition' }));
   const y = readAxis(doc, 'y');
 
-  it('should draw the mean of the records\' dB values, with ± 1 SD shaded around it', () => {
+  it("should draw the mean of the records' dB values, with ± 1 SD shaded around it", () => {
     const psds = groups[0]!.records.map((r) => spectral(r).result.channels.find((c) => c.name === 'O2')!.psd);
     const k = spectral(groups[0]!.records[0]!).result.frequencies.indexOf(10);
     const values = psds.map((p) => dB(p[k]!));

@@ -4,7 +4,21 @@ import { demoRecord, timeFrequency } from './records.js';
 import { attr, byClass, parseSvg, pathPoints, readAxis } from './svg-reader.js';
 
 const PX = 0.02;
-const record = timeFrequency(demoRecord({ method: 'connectivity', pairs: [['O1', 'O2'], ['Fz', 'Oz']] }, 'eyes-closed', 'late', 10, 4));
+const record = timeFrequency(
+  demoRecord(
+    {
+      method: 'connectivity',
+      pairs: [
+        ['O1', 'O2'],
+        ['Fz', 'Oz'],
+      ],
+    },
+    'eyes-closed',
+    'late',
+    10,
+    4,
+  ),
+);
 const part = record.result.connectivity as { pairs: { channels: string[]; coherence: number[]; imaginaryCoherency: number[]; phaseLocking: number[] }[]; coherenceThreshold: number };
 
 describe('when connectivity of the demo study is drawn', () => {

@@ -65,7 +65,7 @@ describe('when a Welch record of the demo study is drawn as a PSD in dB', () => 
     expect(byClass(doc, 'band').map((b) => b.getAttribute('data-band'))).toEqual(['delta', 'theta', 'alpha', 'beta', 'gamma']);
   });
 
-  it('should draw the confidence ribbon through the record\'s bounds', () => {
+  it("should draw the confidence ribbon through the record's bounds", () => {
     const ribbon = byClass(doc, 'ribbon').find((p) => p.getAttribute('data-series') === 'Oz')!;
     const ps = pathPoints(ribbon.getAttribute('d')!);
     const n = frequencies.length - 1;
@@ -124,14 +124,19 @@ describe('when the PSD is drawn on a log10 axis', () => {
     }
   });
 
-  it('should tick the power axis on decades in the record\'s unit', () => {
-    expect(isNiceSequence(y.ticks.map((t) => t.value), true)).toBe(true);
+  it("should tick the power axis on decades in the record's unit", () => {
+    expect(
+      isNiceSequence(
+        y.ticks.map((t) => t.value),
+        true,
+      ),
+    ).toBe(true);
     expect(byClass(doc, 'axis-label')[0]!.textContent).toBe('Power (µV²/Hz)');
   });
 });
 
 describe('when the PSD plot is asked for a channel the record does not have', () => {
-  it('should refuse with the record\'s channels listed', () => {
+  it("should refuse with the record's channels listed", () => {
     let caught: unknown;
     try {
       psdPlot(record, { width: 800, height: 480, channels: ['Oz', 'T7'] });

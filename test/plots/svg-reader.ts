@@ -88,5 +88,7 @@ export function isNiceSequence(values: number[], log = false): boolean {
   };
   if (log) return values.every((v) => v > 0 && nice(v));
   const steps = values.slice(1).map((v, i) => v - values[i]!);
-  return steps.length > 0 && nice(steps[0]!) && steps.every((s) => Math.abs(s - steps[0]!) < 1e-9 * Math.abs(steps[0]!)) && values.every((v) => Math.abs(v / steps[0]! - Math.round(v / steps[0]!)) < 1e-9);
+  return (
+    steps.length > 0 && nice(steps[0]!) && steps.every((s) => Math.abs(s - steps[0]!) < 1e-9 * Math.abs(steps[0]!)) && values.every((v) => Math.abs(v / steps[0]! - Math.round(v / steps[0]!)) < 1e-9)
+  );
 }

@@ -72,7 +72,11 @@ describe('when Morlet power of the demo study is drawn as a heat map', () => {
     const cells = all(byClass(panel, 'heat-map')[0]!, 'rect');
     const power = m.power.Oz!;
     const times = record.result.timeFrequency!.times;
-    for (const [t, k] of [[Math.floor(T / 2), frequencies.findIndex((f) => f > 9.5)], [Math.floor(T / 2), F - 1], [Math.floor(T / 3), 5]] as const) {
+    for (const [t, k] of [
+      [Math.floor(T / 2), frequencies.findIndex((f) => f > 9.5)],
+      [Math.floor(T / 2), F - 1],
+      [Math.floor(T / 3), 5],
+    ] as const) {
       const px = x.pixelOf(times[t]!);
       const py = y.pixelOf(frequencies[k]!);
       const cell = cells.find((c: Element) => attr(c, 'x') <= px && px <= attr(c, 'x') + attr(c, 'width') - 0.3 && attr(c, 'y') <= py && py <= attr(c, 'y') + attr(c, 'height') - 0.3)!;
@@ -105,7 +109,9 @@ describe('when Morlet power of the demo study is drawn as a heat map', () => {
 
 describe('when baseline-normalized power is drawn', () => {
   // At 2 Hz the wavelet overhangs the whole 0.5–1.5 s baseline, so that row has no defined value.
-  const record = timeFrequency(demoRecord({ method: 'morlet', frequencies: { low: 2, high: 30, count: 16 }, decimation: 4, baseline: { start: 0.5, end: 1.5, mode: 'decibel' } }, 'eyes-closed', 'late', 3, 4));
+  const record = timeFrequency(
+    demoRecord({ method: 'morlet', frequencies: { low: 2, high: 30, count: 16 }, decimation: 4, baseline: { start: 0.5, end: 1.5, mode: 'decibel' } }, 'eyes-closed', 'late', 3, 4),
+  );
   const m = matrices(record, ['O1']);
   const doc = parseSvg(timeFrequencyPlot(record, { width: 700, height: 400 }, m));
 
@@ -124,7 +130,9 @@ describe('when baseline-normalized power is drawn', () => {
 });
 
 describe('when some cells have no value', () => {
-  const record = timeFrequency(demoRecord({ method: 'morlet', frequencies: { low: 2, high: 30, count: 16 }, decimation: 4, baseline: { start: 0.5, end: 1.5, mode: 'decibel' } }, 'eyes-closed', 'late', 3, 4));
+  const record = timeFrequency(
+    demoRecord({ method: 'morlet', frequencies: { low: 2, high: 30, count: 16 }, decimation: 4, baseline: { start: 0.5, end: 1.5, mode: 'decibel' } }, 'eyes-closed', 'late', 3, 4),
+  );
   const m = matrices(record, ['O1']);
   const doc = parseSvg(timeFrequencyPlot(record, { width: 700, height: 400 }, m));
 

@@ -33,7 +33,15 @@ describe('normalizeRecipe', () => {
   });
 
   it('should refuse duplicate band names and a ratio of a missing band', () => {
-    expect(() => normalizeRecipe({ method: 'welch', bands: [{ name: 'a', low: 1, high: 2 }, { name: 'a', low: 2, high: 3 }] })).toThrow(/used twice/);
+    expect(() =>
+      normalizeRecipe({
+        method: 'welch',
+        bands: [
+          { name: 'a', low: 1, high: 2 },
+          { name: 'a', low: 2, high: 3 },
+        ],
+      }),
+    ).toThrow(/used twice/);
     expect(() => normalizeRecipe({ method: 'welch', ratios: [{ numerator: 'alpha', denominator: 'mu' }] })).toThrow(/"mu" is not a band/);
   });
 });

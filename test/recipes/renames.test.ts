@@ -9,7 +9,12 @@ describe('when a recipe uses a setting name deprecated in 0.3.0', () => {
     ['perTrial', { method: 'morlet', perTrial: true }, { method: 'morlet', perEpoch: true }, '/perTrial'],
     ['windowSeconds', { method: 'spectrogram', windowSeconds: 0.5 }, { method: 'spectrogram', segmentSeconds: 0.5 }, '/windowSeconds'],
     ['epoching.lengthSeconds', { method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 4 } }, { method: 'welch', epoching: { mode: 'fixed', epochSeconds: 4 } }, '/epoching/lengthSeconds'],
-    ['features.lineNoise.neighbourhoodWidth', { method: 'welch', features: { lineNoise: { neighbourhoodWidth: 3 } } }, { method: 'welch', features: { lineNoise: { neighborhoodWidth: 3 } } }, '/features/lineNoise/neighbourhoodWidth'],
+    [
+      'features.lineNoise.neighbourhoodWidth',
+      { method: 'welch', features: { lineNoise: { neighbourhoodWidth: 3 } } },
+      { method: 'welch', features: { lineNoise: { neighborhoodWidth: 3 } } },
+      '/features/lineNoise/neighbourhoodWidth',
+    ],
   ])('should give %s the same recipe id and hash as its new name, and name it as deprecated', (_name, old, renamed, pointer) => {
     const before = normalizeRecipe(old);
     const after = normalizeRecipe(renamed);
@@ -21,7 +26,7 @@ describe('when a recipe uses a setting name deprecated in 0.3.0', () => {
     expect(renameDeprecated(renamed).deprecations).toEqual([]);
   });
 
-  it('should leave the caller\'s object as it was', () => {
+  it("should leave the caller's object as it was", () => {
     const old = { method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 4 } };
     renameDeprecated(old);
     expect(old).toEqual({ method: 'welch', epoching: { mode: 'fixed', lengthSeconds: 4 } });

@@ -25,7 +25,7 @@ function refusal(run: () => unknown): RecipeInputError {
   throw new Error('expected a RecipeInputError');
 }
 
-describe('when a record\'s recipe is submitted back as it prints it', () => {
+describe("when a record's recipe is submitted back as it prints it", () => {
   const recipes: Record<string, unknown>[] = [
     { method: 'welch', ratios: [{ numerator: 'theta', denominator: 'beta' }], features: { peakFrequency: {} } },
     { method: 'welch', window: 'tukey' },
@@ -77,7 +77,7 @@ describe('when a record\'s recipe is submitted back as it prints it', () => {
   });
 });
 
-describe('when the API receives a record\'s recipe verbatim', () => {
+describe("when the API receives a record's recipe verbatim", () => {
   let api: Awaited<ReturnType<typeof startTestApi>>;
   beforeAll(async () => {
     api = await startTestApi();

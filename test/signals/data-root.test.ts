@@ -142,14 +142,11 @@ describe('when the file system refuses the name', () => {
 });
 
 describe('when nothing usable is at the path', () => {
-  it.each([['missing.edf'], ['a/missing.edf'], ['nowhere/b.edf'], ['top.edf/inner'], ['dangling.edf']])(
-    'should answer not-found for %j',
-    async (requested) => {
-      const error = await failure(requested);
-      expect(error.reason).toBe('not-found');
-      expect(error.pointer).toBe('/file');
-    },
-  );
+  it.each([['missing.edf'], ['a/missing.edf'], ['nowhere/b.edf'], ['top.edf/inner'], ['dangling.edf']])('should answer not-found for %j', async (requested) => {
+    const error = await failure(requested);
+    expect(error.reason).toBe('not-found');
+    expect(error.pointer).toBe('/file');
+  });
 
   it.each([['a'], ['a/deep/'], ['self'], ['self/a']])('should answer not-a-file for the directory %j', async (requested) => {
     const error = await failure(requested);
@@ -196,7 +193,7 @@ describe('when a file is opened under the root', () => {
     try {
       expect(opened.realPath).toBe(join(root, 'a', 'b.edf'));
       expect(opened.size).toBe(1);
-      expect((await opened.handle.readFile('utf8'))).toBe('b');
+      expect(await opened.handle.readFile('utf8')).toBe('b');
     } finally {
       await opened.handle.close();
     }

@@ -26,15 +26,16 @@ const written = writeEdf({
 
 describe('when the bytes are random', () => {
   it('should only ever throw EdfFormatError', () => {
-    fc.assert(fc.property(fc.uint8Array({ maxLength: 2000 }), (bytes) => onlyEdfErrors(() => parseEdf(bytes))), { numRuns: 300 });
+    fc.assert(
+      fc.property(fc.uint8Array({ maxLength: 2000 }), (bytes) => onlyEdfErrors(() => parseEdf(bytes))),
+      { numRuns: 300 },
+    );
   });
 
   it('should only ever throw EdfFormatError from TAL parsing', () => {
     const talByte = fc.constantFrom(0x00, 0x14, 0x15, 0x2b, 0x2d, 0x2e, 0x30, 0x35, 0x41, 0xc3, 0xa9, 0xff);
     fc.assert(
-      fc.property(fc.array(talByte, { maxLength: 64 }), fc.boolean(), (bytes, timekeeping) =>
-        onlyEdfErrors(() => parseTals(Uint8Array.from(bytes), 0, timekeeping)),
-      ),
+      fc.property(fc.array(talByte, { maxLength: 64 }), fc.boolean(), (bytes, timekeeping) => onlyEdfErrors(() => parseTals(Uint8Array.from(bytes), 0, timekeeping))),
       { numRuns: 500 },
     );
   });

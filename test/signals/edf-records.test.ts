@@ -1,11 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  EdfFormatError,
-  decodeEdfRecords,
-  edfRecordByteRange,
-  parseEdf,
-  readEdfHeader,
-} from '../../src/signals/edf/index.js';
+import { EdfFormatError, decodeEdfRecords, edfRecordByteRange, parseEdf, readEdfHeader } from '../../src/signals/edf/index.js';
 import { ascii, concat, headerText, identityFile, int16le, motorNerveFile, motorNerveHeader, talBytes, thrownBy } from '../fixtures/edf/build.js';
 
 function parseError(bytes: Uint8Array): EdfFormatError {
@@ -138,9 +132,7 @@ describe('when decoding records piecewise', () => {
 
   it('should refuse bytes that do not cover the requested records', () => {
     const { start } = edfRecordByteRange(header, 1, 2);
-    expect(() => decodeEdfRecords(header, whole.slice(start, start + 100), { startRecord: 1, bytesOrigin: start })).toThrow(
-      EdfFormatError,
-    );
+    expect(() => decodeEdfRecords(header, whole.slice(start, start + 100), { startRecord: 1, bytesOrigin: start })).toThrow(EdfFormatError);
   });
 
   it('should select channels by label or index and refuse unknown ones', () => {
@@ -177,7 +169,10 @@ describe('when the file is plain EDF', () => {
 
   it('should treat a plain-EDF signal labelled "EDF Annotations" as ordinary', () => {
     const text = headerText({
-      startDate: '05.11.23', startTime: '08.00.00', recordCount: '1', recordDuration: '1',
+      startDate: '05.11.23',
+      startTime: '08.00.00',
+      recordCount: '1',
+      recordDuration: '1',
       signals: [{ label: 'EDF Annotations', physicalMinimum: '-1', physicalMaximum: '1', digitalMinimum: '-32768', digitalMaximum: '32767', samplesPerRecord: '2' }],
     });
     expect(parseEdf(concat(ascii(text), talBytes('+0', 4))).signals).toHaveLength(1);
@@ -196,7 +191,11 @@ describe('when the bytes come from a Node Buffer that does not start at offset 0
 describe('when an EDF+ file holds annotations only, with a record duration of 0 (EDF+ §2.1.3)', () => {
   it('should read the annotations and the record starts without sampling rates', () => {
     const text = headerText({
-      startDate: '02.03.02', startTime: '21.30.00', reserved: 'EDF+C', recordCount: '2', recordDuration: '0',
+      startDate: '02.03.02',
+      startTime: '21.30.00',
+      reserved: 'EDF+C',
+      recordCount: '2',
+      recordDuration: '0',
       signals: [{ label: 'EDF Annotations', physicalMinimum: '-1', physicalMaximum: '1', digitalMinimum: '-32768', digitalMaximum: '32767', samplesPerRecord: '20' }],
     });
     const file = parseEdf(concat(ascii(text), talBytes('+0\x14\x14\x00+30\x14W\x14\x00', 40), talBytes('+60\x14\x14\x00+60\x1530\x14N1\x14\x00', 40)));
@@ -215,7 +214,11 @@ describe('when one data record holds more TALs than a JS call takes arguments', 
     const count = 300_000;
     const bytes = 16 + tal.length * count;
     const text = headerText({
-      startDate: '02.03.02', startTime: '21.30.00', reserved: 'EDF+C', recordCount: '1', recordDuration: '0',
+      startDate: '02.03.02',
+      startTime: '21.30.00',
+      reserved: 'EDF+C',
+      recordCount: '1',
+      recordDuration: '0',
       signals: [{ label: 'EDF Annotations', physicalMinimum: '-1', physicalMaximum: '1', digitalMinimum: '-32768', digitalMaximum: '32767', samplesPerRecord: String(bytes / 2) }],
     });
     const file = parseEdf(concat(ascii(text), talBytes('+0\x14\x14\x00' + tal.repeat(count), bytes)));

@@ -19,9 +19,7 @@ describe('when parsing the TAL examples of EDF+ §2.2.2 (Kemp & Olivan 2003)', (
   });
 
   it('should read the apnea at 1800.2 s lasting 25.5 s', () => {
-    expect(parseTals(bytes('+1800.2\x1525.5\x14Apnea\x14\x00'), 0, false).annotations).toEqual([
-      { onset: 1800.2, duration: 25.5, label: 'Apnea' },
-    ]);
+    expect(parseTals(bytes('+1800.2\x1525.5\x14Apnea\x14\x00'), 0, false).annotations).toEqual([{ onset: 1800.2, duration: 25.5, label: 'Apnea' }]);
   });
 
   it('should read both TALs in sequence and ignore the 0x00 padding after them (EDF+ §2.2.2)', () => {
@@ -60,9 +58,7 @@ describe('when parsing time-keeping TALs (EDF+ §2.2.4)', () => {
 
 describe('when onsets or durations are negative (EDF+ §2.2.2: onset carries a mandatory sign)', () => {
   it('should accept a negative onset: an event before the file start', () => {
-    expect(parseTals(bytes('-0.065\x1510\x14Before start\x14\x00'), 0, false).annotations).toEqual([
-      { onset: -0.065, duration: 10, label: 'Before start' },
-    ]);
+    expect(parseTals(bytes('-0.065\x1510\x14Before start\x14\x00'), 0, false).annotations).toEqual([{ onset: -0.065, duration: 10, label: 'Before start' }]);
     expect(encodeTal(-0.065, 10, ['Before start'])).toEqual(bytes('-0.065\x1510\x14Before start\x14\x00'));
   });
 

@@ -65,12 +65,8 @@ describe('when the same data is stored in mV and in µV', () => {
   // step, so both files hold the same digital codes (writeEdf quantizes through the header's calibration).
   const millivolts = noise(1024, 1, 7).map((x) => Math.round(x * 1e4) / 1e4 + 0.00003);
   const microvolts = millivolts.map((x) => x * 1000);
-  const fromMv = toSignal(
-    edf([{ label: 'Oz', samples: millivolts, samplingRate: 256, physicalDimension: 'mV', physicalMinimum: -3.2768, physicalMaximum: 3.2767 }]),
-  );
-  const fromUv = toSignal(
-    edf([{ label: 'Oz', samples: microvolts, samplingRate: 256, physicalDimension: 'uV', physicalMinimum: -3276.8, physicalMaximum: 3276.7 }]),
-  );
+  const fromMv = toSignal(edf([{ label: 'Oz', samples: millivolts, samplingRate: 256, physicalDimension: 'mV', physicalMinimum: -3.2768, physicalMaximum: 3.2767 }]));
+  const fromUv = toSignal(edf([{ label: 'Oz', samples: microvolts, samplingRate: 256, physicalDimension: 'uV', physicalMinimum: -3276.8, physicalMaximum: 3276.7 }]));
 
   it('should report both in uV with the same shape', () => {
     for (const s of [fromMv, fromUv]) {
@@ -246,12 +242,7 @@ describe('when the file is EDF+ with annotations', () => {
   // EDF+ §2.2.2: "+180\x14Lights off\x14Close door\x14\x00" is one TAL with two annotations at 180 s, and
   // "+1800.2\x1525.5\x14Apnea\x14\x00" an annotation lasting 25.5 s; here scaled down to a 4 s file.
   const bytes = edf([{ label: 'Pz', samples: noise(1024, 15, 9), samplingRate: 256, physicalDimension: 'uV' }], { annotations: roomy });
-  const file = rewriteAnnotations(bytes, [
-    '+0\x14\x14\x00',
-    '+1\x14\x14\x00+1.8\x14Lights off\x14Close door\x14\x00',
-    '+2\x14\x14\x00+2.2\x1525.5\x14Apnea\x14\x00',
-    '+3\x14\x14\x00',
-  ]);
+  const file = rewriteAnnotations(bytes, ['+0\x14\x14\x00', '+1\x14\x14\x00+1.8\x14Lights off\x14Close door\x14\x00', '+2\x14\x14\x00+2.2\x1525.5\x14Apnea\x14\x00', '+3\x14\x14\x00']);
 
   it('should turn TALs into events (onset, duration, label) and leave the time-keeping TALs out', () => {
     const signal = toSignal(file);
@@ -352,10 +343,26 @@ describe('when the server limits are reached', () => {
     // Hand-built EDF+C: one "EDF Annotations" signal, record duration 0, which EDF+ §2.2.4 allows only
     // for annotation-only files; 256 + 256·1 header bytes, one record of 8 two-byte samples.
     const fields = [
-      '0'.padEnd(8), ''.padEnd(80), ''.padEnd(80), '02.11.24', '23.40.00', '512'.padEnd(8), 'EDF+C'.padEnd(44),
-      '1'.padEnd(8), '0'.padEnd(8), '1'.padEnd(4),
-      'EDF Annotations'.padEnd(16), ''.padEnd(80), ''.padEnd(8), '-1'.padEnd(8), '1'.padEnd(8), '-32768'.padEnd(8),
-      '32767'.padEnd(8), ''.padEnd(80), '8'.padEnd(8), ''.padEnd(32),
+      '0'.padEnd(8),
+      ''.padEnd(80),
+      ''.padEnd(80),
+      '02.11.24',
+      '23.40.00',
+      '512'.padEnd(8),
+      'EDF+C'.padEnd(44),
+      '1'.padEnd(8),
+      '0'.padEnd(8),
+      '1'.padEnd(4),
+      'EDF Annotations'.padEnd(16),
+      ''.padEnd(80),
+      ''.padEnd(8),
+      '-1'.padEnd(8),
+      '1'.padEnd(8),
+      '-32768'.padEnd(8),
+      '32767'.padEnd(8),
+      ''.padEnd(80),
+      '8'.padEnd(8),
+      ''.padEnd(32),
       '+0\x14\x14\x00+0\x14Marker\x14\x00',
     ];
     const error = thrown(() => toSignal(ascii(fields.join(''))));

@@ -183,9 +183,7 @@ describe('when the input to writeEdf is wrong', () => {
   });
 
   it('should clip out-of-range samples only when asked', () => {
-    const file = parseEdf(
-      writeEdf({ ...base, clip: true, signals: [{ label: 'Cz', samples: new Float64Array(10).fill(5), samplingRate: 10, physicalMinimum: -1, physicalMaximum: 1 }] }),
-    );
+    const file = parseEdf(writeEdf({ ...base, clip: true, signals: [{ label: 'Cz', samples: new Float64Array(10).fill(5), samplingRate: 10, physicalMinimum: -1, physicalMaximum: 1 }] }));
     expect(file.signals[0]!.samples[0]).toBe(1);
   });
 

@@ -28,12 +28,9 @@ describe('when the dimension is a voltage', () => {
 });
 
 describe('when the dimension is not a voltage or is ambiguous', () => {
-  it.each([[''], ['   '], ['%'], ['degC'], ['Ohm'], ['kOhm'], ['uA'], ['mmHg'], ['MV'], ['kV'], ['uVV'], ['microvolt'], ['µ']])(
-    'should return null for %j',
-    (dimension) => {
-      expect(voltageScaleToMicrovolts(dimension)).toBeNull();
-    },
-  );
+  it.each([[''], ['   '], ['%'], ['degC'], ['Ohm'], ['kOhm'], ['uA'], ['mmHg'], ['MV'], ['kV'], ['uVV'], ['microvolt'], ['µ']])('should return null for %j', (dimension) => {
+    expect(voltageScaleToMicrovolts(dimension)).toBeNull();
+  });
 });
 
 describe('when an upload declares its unit', () => {
@@ -80,9 +77,18 @@ describe('when a channel amplitude is surveyed', () => {
   // Scalp EEG is a few to a few hundred µV (common practice); the survey warns two decades beyond.
   it('should warn for volts sent as µV and nanovolts sent as µV, and not for EEG-sized channels', () => {
     const survey = new AmplitudeSurvey(['Fz', 'Cz', 'Pz', 'Oz']);
-    survey.add(0, Float64Array.from({ length: 512 }, (_, i) => 20e-6 * Math.sin(i / 5))); // volts
-    survey.add(1, Float64Array.from({ length: 512 }, (_, i) => 20 * Math.sin(i / 5)));
-    survey.add(2, Float64Array.from({ length: 512 }, (_, i) => 20_000 * Math.sin(i / 5))); // nV
+    survey.add(
+      0,
+      Float64Array.from({ length: 512 }, (_, i) => 20e-6 * Math.sin(i / 5)),
+    ); // volts
+    survey.add(
+      1,
+      Float64Array.from({ length: 512 }, (_, i) => 20 * Math.sin(i / 5)),
+    );
+    survey.add(
+      2,
+      Float64Array.from({ length: 512 }, (_, i) => 20_000 * Math.sin(i / 5)),
+    ); // nV
     survey.add(3, new Float64Array(512)); // zeros: a matter for the quality flags
     const warnings = survey.warnings('uV');
     expect(warnings).toHaveLength(2);

@@ -19,7 +19,8 @@ async function failingStore() {
   let down = false;
   for (const method of ['getDocument', 'getAttachment'] as const) {
     const original = store[method].bind(store) as (...args: unknown[]) => Promise<unknown>;
-    (store as unknown as Record<string, unknown>)[method] = (...args: unknown[]) => (down ? Promise.reject(Object.assign(new Error('connect ECONNREFUSED'), { code: 'ECONNREFUSED' })) : original(...args));
+    (store as unknown as Record<string, unknown>)[method] = (...args: unknown[]) =>
+      down ? Promise.reject(Object.assign(new Error('connect ECONNREFUSED'), { code: 'ECONNREFUSED' })) : original(...args);
   }
   return { store, setDown: (value: boolean) => (down = value) };
 }

@@ -57,7 +57,13 @@ describe('when a CSV manifest is parsed', () => {
 
 describe('when JSON entries are read', () => {
   it('should refuse reserved, malformed and oversized keys and values, naming the entry and key', () => {
-    const one = (metadata: unknown) => () => readJsonEntries({ entries: [{ signal: 'sig_a', metadata: { subject: 'p1' } }, { signal: 'sig_b', metadata }] });
+    const one = (metadata: unknown) => () =>
+      readJsonEntries({
+        entries: [
+          { signal: 'sig_a', metadata: { subject: 'p1' } },
+          { signal: 'sig_b', metadata },
+        ],
+      });
     expect(refusal(one({ subject: 'p2', resultHash: 'x' }))).toMatchObject({ pointer: '/entries/1/metadata/resultHash', extensions: { reason: 'bad-key', row: 2 } });
     expect(refusal(one({ subject: 'p2', '2nd': 'x' })).extensions).toMatchObject({ reason: 'bad-key', column: '2nd' });
     expect(refusal(one({ subject: 'p2', note: 'x'.repeat(257) })).extensions).toMatchObject({ reason: 'too-large', column: 'note' });

@@ -12,7 +12,9 @@ describe('when the table columns are documented', () => {
   });
 
   it('should give the same list in the OpenAPI description of the table route, with every level', () => {
-    const openapi = JSON.parse(readFileSync(new URL('openapi/openapi.json', root), 'utf8')) as { paths: Record<string, { get: { description: string; parameters: { name: string; schema: { enum?: string[] } }[] } }> };
+    const openapi = JSON.parse(readFileSync(new URL('openapi/openapi.json', root), 'utf8')) as {
+      paths: Record<string, { get: { description: string; parameters: { name: string; schema: { enum?: string[] } }[] } }>;
+    };
     const route = openapi.paths['/v1/jobs/{id}/table']!.get;
     expect(route.description).toContain(tableColumnsMarkdown());
     expect(route.parameters.find((p) => p.name === 'level')!.schema.enum).toEqual([...TABLE_LEVELS]);

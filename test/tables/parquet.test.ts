@@ -12,7 +12,13 @@ import type { FeatureRecord } from '../../src/engine/record.js';
 // Parquet implementation compiled to WebAssembly: an independent reader, sharing no code with the
 // writer. Its Arrow output is decoded with apache-arrow.
 function writeAndRead(record: FeatureRecord, level: TableLevel, rowGroupSize: number) {
-  const layout = createTableLayout(record, level, { entry: true, metadata: [{ name: 'subject', type: 'string' }, { name: 'age', type: 'double' }] });
+  const layout = createTableLayout(record, level, {
+    entry: true,
+    metadata: [
+      { name: 'subject', type: 'string' },
+      { name: 'age', type: 'double' },
+    ],
+  });
   const context = { entryId: 'ent_7', metadata: { subject: 'p07', age: 29.5 } };
   const rows = [...tableRows(layout, record, context)];
   const chunks = [...encodeTable(createParquetWriter(layout.columns, { rowGroupSize }), rows)];

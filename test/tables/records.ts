@@ -49,7 +49,10 @@ export function morletSummaryRecord(): FeatureRecord {
 export function connectivityRecord(): FeatureRecord {
   return recordOf(recording(), {
     method: 'connectivity',
-    pairs: [['O1', 'O2'], ['F3', 'Oz']],
+    pairs: [
+      ['O1', 'O2'],
+      ['F3', 'Oz'],
+    ],
     epoching: { mode: 'fixed', epochSeconds: 2 },
   });
 }

@@ -55,7 +55,16 @@ describe('when a Welch record with label means, per-epoch spectra and confidence
         for (const b of ch.bands) {
           const row = rows[i++]!;
           const where = `${s.scope} ${s.epoch} ${ch.name} ${b.name}`;
-          expect([row.scope, row.epoch, row.label, row.channel, row.band, row.signal, row.recipe, row.resultHash]).toEqual([s.scope, s.epoch, s.label, ch.name, b.name, 'sig_demo', welch.recipe.id, welch.resultHash]);
+          expect([row.scope, row.epoch, row.label, row.channel, row.band, row.signal, row.recipe, row.resultHash]).toEqual([
+            s.scope,
+            s.epoch,
+            s.label,
+            ch.name,
+            b.name,
+            'sig_demo',
+            welch.recipe.id,
+            welch.resultHash,
+          ]);
           expectCell(row.low, b.low, where);
           expectCell(row.high, b.high, where);
           expectCell(row.absolute, b.absolute, where);
@@ -93,7 +102,27 @@ describe('when a Welch record with label means, per-epoch spectra and confidence
   it('should give one features row per spectrum × channel with a column per named feature', () => {
     const { layout, rows } = csvTable(welch, 'features');
     const names = layout.columns.map((c) => c.name);
-    expect(names).toEqual(expect.arrayContaining(['peakFrequency', 'peakPower', 'peakHeight', 'centroid', 'spectralEdge50', 'spectralEdge90', 'spectralEdge97_5', 'entropy', 'powerLawIntercept', 'powerLawSlope', 'lineNoiseRatio', 'lineNoise50Hz', 'lineNoise100Hz', 'lineNoise150Hz', 'flat', 'clipped', 'excessiveAmplitude']));
+    expect(names).toEqual(
+      expect.arrayContaining([
+        'peakFrequency',
+        'peakPower',
+        'peakHeight',
+        'centroid',
+        'spectralEdge50',
+        'spectralEdge90',
+        'spectralEdge97_5',
+        'entropy',
+        'powerLawIntercept',
+        'powerLawSlope',
+        'lineNoiseRatio',
+        'lineNoise50Hz',
+        'lineNoise100Hz',
+        'lineNoise150Hz',
+        'flat',
+        'clipped',
+        'excessiveAmplitude',
+      ]),
+    );
     let i = 0;
     for (const s of spectraByHand(result)) {
       for (const ch of s.channels) {
@@ -144,7 +173,12 @@ describe('when a Welch record with label means, per-epoch spectra and confidence
 
 describe('when epochs are cut inside labelled blocks', () => {
   it('should tile each eyes-closed block with 2-s epochs every 1 s and label every row with its block', () => {
-    const record = recordOf(recording(), { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'blocks', labels: ['eyes-closed/early', 'eyes-closed/late'], epochSeconds: 2, stepSeconds: 1 } });
+    const record = recordOf(recording(), {
+      method: 'welch',
+      segmentSeconds: 1,
+      perEpoch: true,
+      epoching: { mode: 'blocks', labels: ['eyes-closed/early', 'eyes-closed/late'], epochSeconds: 2, stepSeconds: 1 },
+    });
     // demoRecording(6): eyes-closed blocks at 6, 18 (early) and 30, 42 s (late); a 6-s block holds epochs at +0, +1, +2, +3, +4 s.
     const expected = [6, 18, 30, 42].flatMap((onset) => [0, 1, 2, 3, 4].map((k) => [onset + k, `eyes-closed/${onset < 24 ? 'early' : 'late'}`]));
     const { rows } = csvTable(record, 'bands');
@@ -159,7 +193,9 @@ describe('when epochs are cut inside labelled blocks', () => {
 describe('when the record comes from part of a stored signal or from uploaded epochs', () => {
   it('should count epoch starts from the start of the stored signal, not of the view', () => {
     const record = recordOf(recording(), { method: 'welch', segmentSeconds: 1, perEpoch: true, epoching: { mode: 'fixed', epochSeconds: 2 } }, { start: 12, end: 20 });
-    const starts = csvTable(record, 'bands').rows.filter((r) => r.scope === 'epoch' && r.band === 'alpha' && r.channel === 'O1').map((r) => Number(r.epochStart));
+    const starts = csvTable(record, 'bands')
+      .rows.filter((r) => r.scope === 'epoch' && r.band === 'alpha' && r.channel === 'O1')
+      .map((r) => Number(r.epochStart));
     expect(starts).toEqual([12, 14, 16, 18]);
   });
 
@@ -174,8 +210,15 @@ describe('when the record comes from part of a stored signal or from uploaded ep
 
 describe('when rows belong to a study entry', () => {
   it('should carry the entry and its metadata on every row, empty where an entry lacks a key', () => {
-    const metadata = metadataColumns([{ subject: 'p01', age: 31 }, { subject: 'p02', condition: 'late' }]);
-    expect(metadata).toEqual([{ name: 'subject', type: 'string' }, { name: 'age', type: 'double' }, { name: 'condition', type: 'string' }]);
+    const metadata = metadataColumns([
+      { subject: 'p01', age: 31 },
+      { subject: 'p02', condition: 'late' },
+    ]);
+    expect(metadata).toEqual([
+      { name: 'subject', type: 'string' },
+      { name: 'age', type: 'double' },
+      { name: 'condition', type: 'string' },
+    ]);
     const { layout, rows } = csvTable(welch, 'ratios', { entryId: 'ent_1', metadata: { subject: 'p01, "A"', age: 31 } }, { entry: true, metadata });
     expect(layout.columns.slice(0, 5).map((c) => c.name)).toEqual(['entry', 'subject', 'age', 'condition', 'signal']);
     for (const r of rows) expect([r.entry, r.subject, r.age, r.condition]).toEqual(['ent_1', 'p01, "A"', '31', '']);
@@ -221,7 +264,13 @@ describe('when the record is a time–frequency or connectivity record', () => {
   it('should give pair-bands and pair-spectra rows with the record values', () => {
     const record = connectivityRecord();
     expect(tableLevels(record)).toEqual(['pair-bands', 'pair-spectra']);
-    const pairs = (record.result as TimeFrequencyResult).connectivity!.pairs as { channels: [string, string]; coherence: (number | null)[]; imaginaryCoherency: (number | null)[]; phaseLocking?: (number | null)[]; bands: Record<string, number | string | null>[] }[];
+    const pairs = (record.result as TimeFrequencyResult).connectivity!.pairs as {
+      channels: [string, string];
+      coherence: (number | null)[];
+      imaginaryCoherency: (number | null)[];
+      phaseLocking?: (number | null)[];
+      bands: Record<string, number | string | null>[];
+    }[];
     const bands = csvTable(record, 'pair-bands').rows;
     const spectra = csvTable(record, 'pair-spectra').rows;
     let b = 0;

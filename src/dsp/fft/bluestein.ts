@@ -49,12 +49,19 @@ export class BluesteinPlan implements ComplexFftPlan {
     for (let k = 0; k < size; k++) {
       const cr = this.chirpRe[k]!;
       const ci = -this.chirpIm[k]!;
-      this.kernelRe[k] = cr; this.kernelIm[k] = ci;
-      if (k > 0) { this.kernelRe[m - k] = cr; this.kernelIm[m - k] = ci; }
+      this.kernelRe[k] = cr;
+      this.kernelIm[k] = ci;
+      if (k > 0) {
+        this.kernelRe[m - k] = cr;
+        this.kernelIm[m - k] = ci;
+      }
     }
     this.inner.transform(this.kernelRe, this.kernelIm);
     // Fold the 1/m of the inverse transform into the kernel.
-    for (let k = 0; k < m; k++) { this.kernelRe[k] = this.kernelRe[k]! / m; this.kernelIm[k] = this.kernelIm[k]! / m; }
+    for (let k = 0; k < m; k++) {
+      this.kernelRe[k] = this.kernelRe[k]! / m;
+      this.kernelIm[k] = this.kernelIm[k]! / m;
+    }
     this.workRe = new Float64Array(m);
     this.workIm = new Float64Array(m);
   }
@@ -71,10 +78,13 @@ export class BluesteinPlan implements ComplexFftPlan {
   private forward(re: Float64Array, im: Float64Array): void {
     const n = this.size;
     const m = this.inner.size;
-    const wr = this.workRe, wi = this.workIm;
+    const wr = this.workRe,
+      wi = this.workIm;
     for (let k = 0; k < n; k++) {
-      const cr = this.chirpRe[k]!, ci = this.chirpIm[k]!;
-      const xr = re[k]!, xi = im[k]!;
+      const cr = this.chirpRe[k]!,
+        ci = this.chirpIm[k]!;
+      const xr = re[k]!,
+        xi = im[k]!;
       wr[k] = xr * cr - xi * ci;
       wi[k] = xr * ci + xi * cr;
     }
@@ -82,16 +92,20 @@ export class BluesteinPlan implements ComplexFftPlan {
     wi.fill(0, n, m);
     this.inner.transform(wr, wi);
     for (let k = 0; k < m; k++) {
-      const kr = this.kernelRe[k]!, ki = this.kernelIm[k]!;
-      const xr = wr[k]!, xi = wi[k]!;
+      const kr = this.kernelRe[k]!,
+        ki = this.kernelIm[k]!;
+      const xr = wr[k]!,
+        xi = wi[k]!;
       // multiply and conjugate, so the next forward transform acts as an inverse one
       wr[k] = xr * kr - xi * ki;
       wi[k] = -(xr * ki + xi * kr);
     }
     this.inner.transform(wr, wi);
     for (let k = 0; k < n; k++) {
-      const cr = this.chirpRe[k]!, ci = this.chirpIm[k]!;
-      const xr = wr[k]!, xi = -wi[k]!;
+      const cr = this.chirpRe[k]!,
+        ci = this.chirpIm[k]!;
+      const xr = wr[k]!,
+        xi = -wi[k]!;
       re[k] = xr * cr - xi * ci;
       im[k] = xr * ci + xi * cr;
     }

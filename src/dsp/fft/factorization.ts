@@ -10,8 +10,14 @@ export function powerOfTwoRadices(twos: number): number[] {
   if (twos === 2) return [4];
   if (twos === 5) return [8, 4];
   const radices: number[] = [];
-  if (twos % 3 === 1) { radices.push(16); twos -= 4; }
-  if (twos % 3 === 2) { radices.push(16, 16); twos -= 8; }
+  if (twos % 3 === 1) {
+    radices.push(16);
+    twos -= 4;
+  }
+  if (twos % 3 === 2) {
+    radices.push(16, 16);
+    twos -= 8;
+  }
   for (; twos >= 3; twos -= 3) radices.push(8);
   return radices;
 }
@@ -28,17 +34,29 @@ export function powerOfTwoRadices(twos: number): number[] {
 export function factorize(n: number): number[] {
   let rest = n;
   let twos = 0;
-  while (rest % 2 === 0) { twos++; rest /= 2; }
+  while (rest % 2 === 0) {
+    twos++;
+    rest /= 2;
+  }
   let nines = 0;
   // 9 = 3·3 as one radix-9 stage: one pass over the data for two factors of three
-  while (rest % 9 === 0) { nines++; rest /= 9; }
+  while (rest % 9 === 0) {
+    nines++;
+    rest /= 9;
+  }
   const twelve = rest % 3 === 0 && twos >= 2 && powerOfTwoRadices(twos - 2).length < powerOfTwoRadices(twos).length;
-  if (twelve) { twos -= 2; rest /= 3; }
+  if (twelve) {
+    twos -= 2;
+    rest /= 3;
+  }
   const radices = powerOfTwoRadices(twos);
   for (let k = 0; k < nines; k++) radices.push(9);
   if (twelve) radices.push(12);
   for (let p = 3; p * p <= rest; p += 2) {
-    while (rest % p === 0) { radices.push(p); rest /= p; }
+    while (rest % p === 0) {
+      radices.push(p);
+      rest /= p;
+    }
   }
   if (rest > 1) radices.push(rest);
   return radices;

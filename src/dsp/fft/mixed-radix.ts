@@ -39,30 +39,55 @@ export class MixedRadixPlan implements ComplexFftPlan {
   private forwardInPlace(re: Float64Array, im: Float64Array, outputCount: number): void {
     const stages = this.stages;
     const last = stages.length - 1;
-    let xr = re, xi = im, yr = this.scratchRe, yi = this.scratchIm;
+    let xr = re,
+      xi = im,
+      yr = this.scratchRe,
+      yi = this.scratchIm;
     for (let k = 0; k <= last; k++) {
       const stage = stages[k]!;
       // The last stage (span 1) reads and writes the same indices, each butterfly all its inputs before
       // any output, so it runs in place when its input is already the caller's arrays: no copy back.
-      if (k === last) { yr = re; yi = im; }
+      if (k === last) {
+        yr = re;
+        yi = im;
+      }
       const { radix, stride, span, twiddles } = stage;
       // the last stage's output q + stride·t, q < stride: rows t < ceil(outputCount/stride) are needed
       const rows = k === last ? Math.min(radix, Math.ceil(outputCount / stride)) : radix;
       switch (radix) {
-        case 16: radix16(stride, span, xr, xi, yr, yi, twiddles, rows); break;
-        case 8: radix8(stride, span, xr, xi, yr, yi, twiddles, rows); break;
-        case 4: radix4(stride, span, xr, xi, yr, yi, twiddles, rows); break;
-        case 2: radix2(stride, span, xr, xi, yr, yi, twiddles, rows); break;
-        case 3: radix3(stride, span, xr, xi, yr, yi, twiddles, rows); break;
-        case 5: radix5(stride, span, xr, xi, yr, yi, twiddles, rows); break;
-        case 9: radix9(stride, span, xr, xi, yr, yi, twiddles, rows); break;
-        case 12: radix12(stride, span, xr, xi, yr, yi, twiddles, rows); break;
+        case 16:
+          radix16(stride, span, xr, xi, yr, yi, twiddles, rows);
+          break;
+        case 8:
+          radix8(stride, span, xr, xi, yr, yi, twiddles, rows);
+          break;
+        case 4:
+          radix4(stride, span, xr, xi, yr, yi, twiddles, rows);
+          break;
+        case 2:
+          radix2(stride, span, xr, xi, yr, yi, twiddles, rows);
+          break;
+        case 3:
+          radix3(stride, span, xr, xi, yr, yi, twiddles, rows);
+          break;
+        case 5:
+          radix5(stride, span, xr, xi, yr, yi, twiddles, rows);
+          break;
+        case 9:
+          radix9(stride, span, xr, xi, yr, yi, twiddles, rows);
+          break;
+        case 12:
+          radix12(stride, span, xr, xi, yr, yi, twiddles, rows);
+          break;
         default:
-          radixOdd(radix, stride, span, xr, xi, yr, yi, twiddles, stage.rootRe!, stage.rootIm!,
-            this.sumRe, this.sumIm, this.diffRe, this.diffIm, rows);
+          radixOdd(radix, stride, span, xr, xi, yr, yi, twiddles, stage.rootRe!, stage.rootIm!, this.sumRe, this.sumIm, this.diffRe, this.diffIm, rows);
       }
-      const tr = xr, ti = xi;
-      xr = yr; xi = yi; yr = tr; yi = ti;
+      const tr = xr,
+        ti = xi;
+      xr = yr;
+      xi = yi;
+      yr = tr;
+      yi = ti;
     }
   }
 }

@@ -33,7 +33,8 @@ export class EvenRealPlan implements RealFftPlan {
     const h = n / 2;
     checkInput(input, n);
     checkBuffers(re, im, h + 1, 'forward:');
-    const pr = this.packRe, pi = this.packIm;
+    const pr = this.packRe,
+      pi = this.packIm;
     const len = input.length;
     for (let j = 0; j < h; j++) {
       const e = 2 * j;
@@ -44,11 +45,17 @@ export class EvenRealPlan implements RealFftPlan {
     for (let k = 0; k <= h; k++) {
       const a = k === h ? 0 : k;
       const b = k === 0 ? 0 : h - k;
-      const zr = pr[a]!, zi = pi[a]!, yr = pr[b]!, yi = pi[b]!;
+      const zr = pr[a]!,
+        zi = pi[a]!,
+        yr = pr[b]!,
+        yi = pi[b]!;
       // E = (Z_k + conj Z_{h−k})/2, O = (Z_k − conj Z_{h−k})/(2i), X_k = E + ω_n^k·O
-      const er = 0.5 * (zr + yr), ei = 0.5 * (zi - yi);
-      const or = 0.5 * (zi + yi), oi = -0.5 * (zr - yr);
-      const wr = this.rotRe[k]!, wi = this.rotIm[k]!;
+      const er = 0.5 * (zr + yr),
+        ei = 0.5 * (zi - yi);
+      const or = 0.5 * (zi + yi),
+        oi = -0.5 * (zr - yr);
+      const wr = this.rotRe[k]!,
+        wi = this.rotIm[k]!;
       re[k] = er + wr * or - wi * oi;
       im[k] = ei + wr * oi + wi * or;
     }

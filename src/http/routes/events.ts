@@ -27,64 +27,68 @@ function eventStream(ending: string) {
  * every change of a job's state or progress (data: the job, as GET /v1/jobs/:id answers) and ends
  * once every job it watches has finished; a comment line keeps idle proxies from closing it.
  */
-export const eventRoutes = (deps: AppDeps): FastifyPluginAsyncZod => async (app) => {
-  const readAs = (tenant: string) => async (id: string): Promise<JobView | null> => {
-    const job = JOB_ID.test(id) ? await deps.queue.get(id).catch(() => null) : null;
-    return job && job.tenant === tenant ? job : null;
+export const eventRoutes =
+  (deps: AppDeps): FastifyPluginAsyncZod =>
+  async (app) => {
+    const readAs =
+      (tenant: string) =>
+      async (id: string): Promise<JobView | null> => {
+        const job = JOB_ID.test(id) ? await deps.queue.get(id).catch(() => null) : null;
+        return job && job.tenant === tenant ? job : null;
+      };
+
+    app.get(
+      '/v1/jobs/:id/events',
+      {
+        schema: {
+          summary: 'Job state and progress as server-sent events (text/event-stream)',
+          tags: ['jobs'],
+          params: IdParams,
+          response: {
+            200: eventStream('it ends after the finished state'),
+            404: problemResponse('unknown job'),
+          },
+        },
+      },
+      async (request, reply) => {
+        const read = readAs(tenantOf(request));
+        const first = await read(request.params.id);
+        if (!first) throw new ProblemError('job-not-found', `no job with id "${request.params.id}"`);
+        await streamJobs(request, reply, [first], read);
+      },
+    );
+
+    app.get(
+      '/v1/jobs/events',
+      {
+        schema: {
+          summary: 'State and progress of several jobs as one stream of server-sent events (text/event-stream)',
+          description: `One \`state\` event per change of any listed job; the stream ends when all have finished. Unknown ids are left out (listed in the first \`unknown\` event). At most ${MAX_STREAMED_JOBS} ids.`,
+          tags: ['jobs'],
+          querystring: z.strictObject({
+            ids: z
+              .string()
+              .min(1)
+              .transform((s) => [...new Set(s.split(',').map((id) => id.trim()))])
+              .pipe(z.array(z.string().min(1).max(200)).max(MAX_STREAMED_JOBS))
+              .describe('comma-separated job ids'),
+          }),
+          response: {
+            200: eventStream('first, if any id is unknown, one `event: unknown` message whose `data` is `{"ids": [...]}`; it ends once every listed job has finished'),
+            400: problemResponse('no ids, or too many'),
+          },
+        },
+      },
+      async (request, reply) => {
+        const read = readAs(tenantOf(request));
+        const ids = request.query.ids;
+        const first = await Promise.all(ids.map(read));
+        const known = first.filter((j): j is JobView => j !== null);
+        const unknown = ids.filter((_, i) => first[i] === null);
+        await streamJobs(request, reply, known, read, unknown);
+      },
+    );
   };
-
-  app.get(
-    '/v1/jobs/:id/events',
-    {
-      schema: {
-        summary: 'Job state and progress as server-sent events (text/event-stream)',
-        tags: ['jobs'],
-        params: IdParams,
-        response: {
-          200: eventStream('it ends after the finished state'),
-          404: problemResponse('unknown job'),
-        },
-      },
-    },
-    async (request, reply) => {
-      const read = readAs(tenantOf(request));
-      const first = await read(request.params.id);
-      if (!first) throw new ProblemError('job-not-found', `no job with id "${request.params.id}"`);
-      await streamJobs(request, reply, [first], read);
-    },
-  );
-
-  app.get(
-    '/v1/jobs/events',
-    {
-      schema: {
-        summary: 'State and progress of several jobs as one stream of server-sent events (text/event-stream)',
-        description: `One \`state\` event per change of any listed job; the stream ends when all have finished. Unknown ids are left out (listed in the first \`unknown\` event). At most ${MAX_STREAMED_JOBS} ids.`,
-        tags: ['jobs'],
-        querystring: z.strictObject({
-          ids: z
-            .string()
-            .min(1)
-            .transform((s) => [...new Set(s.split(',').map((id) => id.trim()))])
-            .pipe(z.array(z.string().min(1).max(200)).max(MAX_STREAMED_JOBS))
-            .describe('comma-separated job ids'),
-        }),
-        response: {
-          200: eventStream('first, if any id is unknown, one `event: unknown` message whose `data` is `{"ids": [...]}`; it ends once every listed job has finished'),
-          400: problemResponse('no ids, or too many'),
-        },
-      },
-    },
-    async (request, reply) => {
-      const read = readAs(tenantOf(request));
-      const ids = request.query.ids;
-      const first = await Promise.all(ids.map(read));
-      const known = first.filter((j): j is JobView => j !== null);
-      const unknown = ids.filter((_, i) => first[i] === null);
-      await streamJobs(request, reply, known, read, unknown);
-    },
-  );
-};
 
 /** Writes the jobs' states, then every change, until all have finished or the client leaves. */
 async function streamJobs(request: FastifyRequest, reply: FastifyReply, first: JobView[], read: (id: string) => Promise<JobView | null>, unknown: string[] = []): Promise<void> {

@@ -50,23 +50,23 @@ function loadAssets(dir: string): Map<string, Asset> {
 }
 
 /** The dashboard page: static files from web/, at `/` and `/web/<file>`. */
-export const pageRoutes = (dir = WEB_DIR): FastifyPluginAsyncZod => async (app) => {
-  const assets = loadAssets(dir);
+export const pageRoutes =
+  (dir = WEB_DIR): FastifyPluginAsyncZod =>
+  async (app) => {
+    const assets = loadAssets(dir);
 
-  const serve = (name: string) => {
-    const asset = assets.get(name);
-    if (!asset) throw new ProblemError('not-found', `the page has no file "${name}"`);
-    return asset;
+    const serve = (name: string) => {
+      const asset = assets.get(name);
+      if (!asset) throw new ProblemError('not-found', `the page has no file "${name}"`);
+      return asset;
+    };
+
+    app.get('/', { config: { access: 'public' }, schema: { hide: true } }, async (request, reply) => send(serve('index.html'), request.headers['if-none-match'], reply));
+
+    app.get('/web/:file', { config: { access: 'public' }, schema: { hide: true, params: z.object({ file: z.string().max(100) }) } }, async (request, reply) =>
+      send(serve(request.params.file), request.headers['if-none-match'], reply),
+    );
   };
-
-  app.get('/', { config: { access: 'public' }, schema: { hide: true } }, async (request, reply) => send(serve('index.html'), request.headers['if-none-match'], reply));
-
-  app.get(
-    '/web/:file',
-    { config: { access: 'public' }, schema: { hide: true, params: z.object({ file: z.string().max(100) }) } },
-    async (request, reply) => send(serve(request.params.file), request.headers['if-none-match'], reply),
-  );
-};
 
 function send(asset: Asset, ifNoneMatch: string | undefined, reply: import('fastify').FastifyReply) {
   reply.header('content-security-policy', PAGE_CSP).header('cache-control', 'no-cache').header('etag', asset.etag);

@@ -58,18 +58,13 @@ export function readText(bytes: Uint8Array, field: FieldRef, allowNonAscii: bool
   for (let i = 0; i < field.width; i++) {
     const byte = bytes[field.offset + i];
     if (byte === undefined) {
-      throw new EdfFormatError(
-        field.name,
-        field.offset,
-        `${field.name} at offset ${field.offset} is cut off: the file ends at byte ${bytes.length}`,
-      );
+      throw new EdfFormatError(field.name, field.offset, `${field.name} at offset ${field.offset} is cut off: the file ends at byte ${bytes.length}`);
     }
     if ((byte < 32 || byte > 126) && !allowNonAscii) {
       throw new EdfFormatError(
         field.name,
         field.offset,
-        `${field.name} at offset ${field.offset} holds byte 0x${byte.toString(16).padStart(2, '0')} at offset ` +
-          `${field.offset + i}; header fields are printable ASCII`,
+        `${field.name} at offset ${field.offset} holds byte 0x${byte.toString(16).padStart(2, '0')} at offset ` + `${field.offset + i}; header fields are printable ASCII`,
       );
     }
     text += String.fromCharCode(byte);
@@ -85,11 +80,7 @@ function parseNumberField(text: string, field: FieldRef, pattern: RegExp, what: 
   const trimmed = text.trim();
   if (!pattern.test(trimmed)) {
     const shown = trimmed === '' ? 'empty' : `"${trimmed}"`;
-    throw new EdfFormatError(
-      field.name,
-      field.offset,
-      `${field.name} at offset ${field.offset} is ${shown}, not ${what}`,
-    );
+    throw new EdfFormatError(field.name, field.offset, `${field.name} at offset ${field.offset} is ${shown}, not ${what}`);
   }
   return Number(trimmed);
 }

@@ -117,11 +117,7 @@ function parseVariant(reserved: string): EdfVariant {
 
 function requireBytes(bytes: Uint8Array, needed: number, field: FieldRef, why: string): void {
   if (bytes.length < needed) {
-    throw new EdfFormatError(
-      field.name,
-      Math.min(bytes.length, field.offset),
-      `${why}: ${needed} bytes are needed but only ${bytes.length} are present`,
-    );
+    throw new EdfFormatError(field.name, Math.min(bytes.length, field.offset), `${why}: ${needed} bytes are needed but only ${bytes.length} are present`);
   }
 }
 

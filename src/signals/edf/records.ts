@@ -77,8 +77,7 @@ function checkRecordRange(header: EdfHeader, startRecord: number, endRecord: num
 function selectChannels(header: EdfHeader, channels: readonly (number | string)[] | undefined): EdfSignalHeader[] {
   if (channels === undefined) return header.signals.filter((s) => !s.isAnnotation);
   return channels.map((wanted, i) => {
-    const found =
-      typeof wanted === 'number' ? header.signals[wanted] : header.signals.find((s) => s.label === wanted && !s.isAnnotation);
+    const found = typeof wanted === 'number' ? header.signals[wanted] : header.signals.find((s) => s.label === wanted && !s.isAnnotation);
     if (found === undefined || found.isAnnotation) {
       throw new RangeError(`channels[${i}] (${JSON.stringify(wanted)}) is not an ordinary signal of this file`);
     }
@@ -116,8 +115,7 @@ export function decodeEdfRecords(header: EdfHeader, bytes: Uint8Array, options: 
     throw new EdfFormatError(
       'data records',
       at,
-      `data record ${firstMissing + 1} at offset ${at} is cut off: the bytes end at file offset ${origin + bytes.length}, ` +
-        `${endRecord - startRecord} records need up to ${range.end}`,
+      `data record ${firstMissing + 1} at offset ${at} is cut off: the bytes end at file offset ${origin + bytes.length}, ` + `${endRecord - startRecord} records need up to ${range.end}`,
     );
   }
 

@@ -95,9 +95,18 @@ function checkStart(start: EdfDateTime): void {
   const { year, month, day, hour, minute, second } = start;
   const valid =
     [year, month, day, hour, minute, second].every(Number.isInteger) &&
-    year >= 1985 && year <= 2084 && month >= 1 && month <= 12 &&
-    day >= 1 && day <= new Date(Date.UTC(year, month, 0)).getUTCDate() &&
-    hour >= 0 && hour <= 23 && minute >= 0 && minute <= 59 && second >= 0 && second <= 59;
+    year >= 1985 &&
+    year <= 2084 &&
+    month >= 1 &&
+    month <= 12 &&
+    day >= 1 &&
+    day <= new Date(Date.UTC(year, month, 0)).getUTCDate() &&
+    hour >= 0 &&
+    hour <= 23 &&
+    minute >= 0 &&
+    minute <= 59 &&
+    second >= 0 &&
+    second <= 59;
   if (!valid) throw new RangeError(`startDate ${JSON.stringify(start)} is not a date and time in 1985–2084`);
 }
 
@@ -131,20 +140,17 @@ function prepareSignal(signal: EdfWriteSignal, i: number, recordDuration: number
     low -= 1;
     high += 1;
   }
-  const physMinText =
-    signal.physicalMinimum === undefined
-      ? formatEdfNumber(low, 'down', `${what} physical minimum`)
-      : formatEdfNumber(signal.physicalMinimum, 'exact', `${what}.physicalMinimum`);
-  const physMaxText =
-    signal.physicalMaximum === undefined
-      ? formatEdfNumber(high, 'up', `${what} physical maximum`)
-      : formatEdfNumber(signal.physicalMaximum, 'exact', `${what}.physicalMaximum`);
+  const physMinText = signal.physicalMinimum === undefined ? formatEdfNumber(low, 'down', `${what} physical minimum`) : formatEdfNumber(signal.physicalMinimum, 'exact', `${what}.physicalMinimum`);
+  const physMaxText = signal.physicalMaximum === undefined ? formatEdfNumber(high, 'up', `${what} physical maximum`) : formatEdfNumber(signal.physicalMaximum, 'exact', `${what}.physicalMaximum`);
   const physMin = Number(physMinText);
   const physMax = Number(physMaxText);
   if (physMin === physMax) throw new RangeError(`${what}.physicalMaximum must differ from physicalMinimum (${physMin})`);
   const digMin = signal.digitalMinimum ?? -32768;
   const digMax = signal.digitalMaximum ?? 32767;
-  for (const [name, v] of [['digitalMinimum', digMin], ['digitalMaximum', digMax]] as const) {
+  for (const [name, v] of [
+    ['digitalMinimum', digMin],
+    ['digitalMaximum', digMax],
+  ] as const) {
     if (!Number.isInteger(v) || v < -32768 || v > 32767) throw new RangeError(`${what}.${name} must be an integer in −32768..32767, got ${v}`);
   }
   if (digMax <= digMin) throw new RangeError(`${what}.digitalMaximum ${digMax} must exceed digitalMinimum ${digMin}`);
@@ -221,8 +227,7 @@ export function writeEdf(input: WriteEdfInput): Uint8Array {
     const records = p.digital.length / p.samplesPerRecord;
     if (!Number.isInteger(records) || records !== recordCount || records < 1) {
       throw new RangeError(
-        `signals[${i}] has ${p.digital.length} samples = ${records} records of ${p.samplesPerRecord}; ` +
-          `every signal must fill the same whole number (≥ 1) of records (signals[0]: ${recordCount})`,
+        `signals[${i}] has ${p.digital.length} samples = ${records} records of ${p.samplesPerRecord}; ` + `every signal must fill the same whole number (≥ 1) of records (signals[0]: ${recordCount})`,
       );
     }
   });
@@ -233,7 +238,11 @@ export function writeEdf(input: WriteEdfInput): Uint8Array {
     tals = annotationRecords(input.annotations!, recordCount, duration);
     // A loop, not Math.max(...): an overnight file can have more records than a call has arguments.
     let most = 0;
-    for (const list of tals) most = Math.max(most, list.reduce((n, t) => n + t.length, 0));
+    for (const list of tals)
+      most = Math.max(
+        most,
+        list.reduce((n, t) => n + t.length, 0),
+      );
     const samplesPerRecord = Math.ceil(most / 2);
     const fields: Record<string, string> = {
       label: ANNOTATION_LABEL.padEnd(16, ' '),
@@ -264,8 +273,7 @@ export function writeEdf(input: WriteEdfInput): Uint8Array {
     String(recordCount).padEnd(8, ' ') +
     durationText.padEnd(8, ' ') +
     String(ns).padEnd(4, ' ');
-  for (const key of ['label', 'transducer', 'physicalDimension', 'physicalMinimum', 'physicalMaximum',
-    'digitalMinimum', 'digitalMaximum', 'prefiltering', 'samplesPerRecord', 'reserved']) {
+  for (const key of ['label', 'transducer', 'physicalDimension', 'physicalMinimum', 'physicalMaximum', 'digitalMinimum', 'digitalMaximum', 'prefiltering', 'samplesPerRecord', 'reserved']) {
     for (const p of prepared) header += p.fields[key]!;
   }
 
@@ -291,4 +299,3 @@ export function writeEdf(input: WriteEdfInput): Uint8Array {
   }
   return out;
 }
-
