@@ -11,10 +11,11 @@ export default defineConfig({
       include: ['src/**/*.ts'],
       reporter: ['text-summary', 'json-summary'],
       reportsDirectory: 'coverage',
-      // Measured on the whole suite; the floors sit a little under today's figures, so a change that
-      // drops tests shows, and they are raised as coverage grows. Worker threads and child processes
-      // report nothing to v8 coverage, so code that only runs there counts as uncovered.
-      thresholds: { statements: 80, branches: 75, functions: 80, lines: 80 },
+      // Measured on the whole suite with Redis and Chromium present (2026-12-04: statements 89.2 %,
+      // branches 79.7 %, functions 87.5 %, lines 91.7 %). The floors leave room for the suites that
+      // skip without Redis or Chromium outside CI; raise them as coverage grows. Worker threads and
+      // child processes report nothing to v8 coverage, so code that only runs there counts as uncovered.
+      thresholds: { statements: 85, branches: 75, functions: 83, lines: 87 },
     },
   },
 });
