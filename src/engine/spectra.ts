@@ -73,7 +73,8 @@ export function computeSpectra(
     groupCount: groupNames.length,
   };
   const estimator = createSpectrumEstimator(setup);
-  const runner = context.channels ?? createLocalRunner();
+  // Only methods whose channels are worth the copies go to helper threads (MethodModule.spreadsChannels).
+  const runner = (methodOf(recipe).spreadsChannels ? context.channels : undefined) ?? createLocalRunner();
   const run = runner.run({ kind: 'spectrum', setup }, signal, context, estimator);
   const outcomes = run.outcomes as SpectrumOutcome[];
   // The first epoch (then channel) with no segment left names the refusal, as when epochs came first.

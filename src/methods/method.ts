@@ -80,6 +80,13 @@ export interface MethodModule<R extends { method: string }, S = z.ZodType<R>> {
    * spans, amplitude) rather than whole epochs.
    */
   readonly leavesOutSegments?: boolean;
+  /**
+   * `spectrum` path: whether the job's channels are worth spreading over helper threads. Welch and
+   * periodogram cost little per sample, and copying the signal into shared memory and each channel
+   * out of it cost more than a second thread saves (a 64-channel, 600-s Welch job took 0.65 s on
+   * two threads against 0.31 s on one, bench/welch.ts); multitaper ran 1.3–1.8× faster on two.
+   */
+  readonly spreadsChannels?: boolean;
 }
 
 /** Declares a method module, keeping the concrete schema type for the recipe union. */

@@ -35,6 +35,7 @@ export const multitaper = defineMethod({
   name: 'multitaper',
   schema: MultitaperRecipeSchema,
   path: 'spectrum',
+  spreadsChannels: true,
   check(recipe) {
     checkSpectrumSettings(recipe);
     if (recipe.taperCount !== null && recipe.taperCount > 2 * recipe.timeBandwidth) {
