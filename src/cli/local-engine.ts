@@ -8,7 +8,7 @@ import { planJob } from '../jobs/plan.js';
 import { storeSignal } from '../stores/signals.js';
 import { createComputePool, type ComputePool } from '../jobs/compute-pool.js';
 import { normalizeRecipe } from '../recipes/normalize.js';
-import { RecipeInputError } from '../recipes/errors.js';
+import { isRecipeRefusal } from '../recipes/errors.js';
 import { decodeJsonSignal, type JsonSignalBody } from '../signals/decode-json.js';
 import { SignalInputError } from '../signals/errors.js';
 import type { SignalView } from '../signals/view.js';
@@ -124,7 +124,7 @@ export type LocalEngine = Awaited<ReturnType<typeof createLocalEngine>>;
 /** The errors the API would answer with a 4xx become input errors that name the file and the place. */
 function asInputError(error: unknown, path: string): unknown {
   if (error instanceof SignalInputError) return new LocalInputError(`${path}: ${error.message}`, error.pointer);
-  if (error instanceof RecipeInputError) return new LocalInputError(`recipe: ${error.message}`, error.pointer);
+  if (isRecipeRefusal(error)) return new LocalInputError(`recipe: ${error.detail}`, error.pointer);
   if (error instanceof DomainError && error.status < 500) return new LocalInputError(error.detail, error.pointer);
   if ((error as NodeJS.ErrnoException).code === 'ENOENT') return new LocalInputError(`${path}: no such file`);
   return error;

@@ -5,7 +5,7 @@ import { ApiProblemError, type RhythmetricClient } from '../client/index.js';
 import { DomainError } from '../common/errors.js';
 import { hashCanonical } from '../common/hash.js';
 import { ENGINE_VERSION } from '../engine/version.js';
-import { RecipeInputError } from '../recipes/errors.js';
+import { isRecipeRefusal } from '../recipes/errors.js';
 import { normalizeRecipe } from '../recipes/normalize.js';
 import { parseCsv, readCsvManifest, type EntryInput } from '../studies/entries.js';
 import type { TableLevel } from '../tables/columns.js';
@@ -108,7 +108,7 @@ export async function runStudy(manifestPath: string, options: StudyRunOptions, t
   try {
     hash = normalizeRecipe(recipe.recipe).hash;
   } catch (error) {
-    if (error instanceof RecipeInputError) throw new UsageError(`recipe: ${error.message} (at ${error.pointer})`);
+    if (isRecipeRefusal(error)) throw new UsageError(`recipe: ${error.detail} (at ${error.pointer ?? '/'})`);
     throw error;
   }
   const analyzer = await createAnalyzer(recipe, options, abort);

@@ -1,24 +1,16 @@
-import { DomainError, type ProblemCode } from '../common/errors.js';
+import { DomainError } from '../common/errors.js';
 
-export type RecipeErrorKind = 'invalid' | 'unfit-for-signal' | 'limit';
-
-const RECIPE_PROBLEM: Record<RecipeErrorKind, ProblemCode> = { invalid: 'invalid-recipe', 'unfit-for-signal': 'recipe-unfit', limit: 'limit-exceeded' };
+/** The problem codes a recipe's refusal carries, over HTTP and from a worker alike. */
+const RECIPE_CODES = new Set(['invalid-recipe', 'recipe-unfit', 'limit-exceeded']);
 
 /**
- * A recipe that cannot be used, located by an RFC 6901 JSON pointer relative to the recipe
- * (callers that know where the recipe sat locate it with `under('/recipe')`). The kind decides the
- * problem code, the same over HTTP and from a worker.
+ * A refusal of normalize or resolve: a {@link DomainError} with a recipe problem code, its pointer
+ * relative to the recipe (callers that know where the recipe sat locate it with `locatedUnder`).
+ * The recipe layer and the method modules throw the same errors (`invalid`, `unfit`, `overLimit`
+ * in src/methods/fit.ts), so nothing translates between them.
  */
-export class RecipeInputError extends DomainError {
-  override readonly name = 'RecipeInputError';
-  constructor(
-    readonly kind: RecipeErrorKind,
-    message: string,
-    pointer: string,
-    extensions?: Record<string, unknown>,
-  ) {
-    super(RECIPE_PROBLEM[kind], message, { pointer, ...(extensions ? { extensions } : {}) });
-  }
+export function isRecipeRefusal(error: unknown): error is DomainError {
+  return error instanceof DomainError && RECIPE_CODES.has(error.code);
 }
 
 /** Turns a zod issue path into an RFC 6901 JSON pointer. */

@@ -1,11 +1,12 @@
 import type { z } from 'zod';
 import { CanonicalJsonError } from '../common/canonical-json.js';
+import type { DomainError } from '../common/errors.js';
 import { deepFreeze } from '../common/freeze.js';
 import { hashCanonical } from '../common/hash.js';
 import { explainIssue, type SchemaIssue } from '../common/issue-text.js';
 import { methodOf } from '../methods/registry.js';
-import { pointerOf, RecipeInputError } from './errors.js';
-import { asRecipeError } from './method-errors.js';
+import { pointerOf } from './errors.js';
+import { invalid } from '../methods/fit.js';
 import { checkRecipeEcho, splitRecipeEcho } from './round-trip.js';
 import { renameDeprecated } from './renames.js';
 import { RecipeSchema, type Recipe } from './schema.js';
@@ -42,24 +43,20 @@ function normalizeSettings(input: unknown): PinnedRecipe {
   const parsed = RecipeSchema.safeParse(renamed);
   if (!parsed.success) throw fromZod(parsed.error, renamed);
   const recipe = parsed.data;
-  try {
-    methodOf(recipe).check(recipe);
-  } catch (error) {
-    throw asRecipeError(error);
-  }
+  methodOf(recipe).check(recipe);
   let hash: string;
   try {
     hash = hashCanonical(recipe);
   } catch (error) {
-    if (error instanceof CanonicalJsonError) throw new RecipeInputError('invalid', error.message, error.pointer || '/');
+    if (error instanceof CanonicalJsonError) throw invalid(error.message, error.pointer || '/');
     throw error;
   }
   return { id: recipeIdFromHash(hash), hash, recipe: deepFreeze(recipe) };
 }
 
 /** A recipe's first schema violation in words people can act on; `input` is the recipe as sent. */
-export function fromZod(error: z.ZodError, input?: unknown): RecipeInputError {
+export function fromZod(error: z.ZodError, input?: unknown): DomainError {
   const { path, text } = explainIssue(error.issues[0]! as SchemaIssue, input);
   const pointer = pointerOf(path);
-  return new RecipeInputError('invalid', `${pointer ? `${pointer.slice(1)} ` : ''}${text}`, pointer || '/');
+  return invalid(`${pointer ? `${pointer.slice(1)} ` : ''}${text}`, pointer || '/');
 }

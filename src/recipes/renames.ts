@@ -3,7 +3,7 @@
  * names are accepted for one version and rewritten to the new ones before the recipe is parsed and
  * hashed, so both spellings give the same recipe, hash and id, and the same records.
  */
-import { RecipeInputError } from './errors.js';
+import { invalid } from '../methods/fit.js';
 
 /** A deprecated setting found in a recipe: where it was and what to write instead. */
 export interface Deprecation {
@@ -39,7 +39,7 @@ export function renameDeprecated(input: unknown): { input: unknown; deprecations
     if (!holder || !Object.hasOwn(holder, rename.from)) continue;
     const where = ['', ...rename.at].join('/');
     if (Object.hasOwn(holder, rename.to)) {
-      throw new RecipeInputError('invalid', `"${rename.from}" is the deprecated name of "${rename.to}"; give only "${rename.to}"`, `${where}/${rename.from}`);
+      throw invalid(`"${rename.from}" is the deprecated name of "${rename.to}"; give only "${rename.to}"`, `${where}/${rename.from}`);
     }
     const { [rename.from]: value, ...rest } = holder;
     root = replaceAt(root, rename.at, { ...rest, [rename.to]: value });

@@ -1,7 +1,6 @@
 import { methodOf } from '../methods/registry.js';
 import type { CostEstimate, DerivedSettings, RecipeLimits, SignalShape } from '../methods/fit.js';
 import { DEFAULT_RECIPE_LIMITS as DEFAULTS, overLimit, unfit } from '../methods/fit.js';
-import { asRecipeError } from './method-errors.js';
 import type { Recipe } from './schema.js';
 
 export { binFrequency, countBins, DEFAULT_MAX_JOB_BYTES, DEFAULT_RECIPE_LIMITS, type CostEstimate, type DerivedSettings, type RecipeLimits, type SignalShape } from '../methods/fit.js';
@@ -23,16 +22,12 @@ export interface ResolvedRecipe<R extends Recipe = Recipe> {
  */
 export function resolveRecipe<R extends Recipe>(recipe: R, hash: string, shape: SignalShape, limits: Partial<RecipeLimits> = {}): ResolvedRecipe<R> {
   const bounds: RecipeLimits = { ...DEFAULTS, ...limits };
-  try {
-    const method = methodOf(recipe);
-    checkGapPolicy(recipe, shape, method.leavesOutSegments === true);
-    const { derived, warnings } = method.fit(recipe, shape, bounds);
-    const cost = method.cost(recipe, derived, shape);
-    checkCost(cost, bounds);
-    return { recipe, hash, derived, warnings, cost };
-  } catch (error) {
-    throw asRecipeError(error);
-  }
+  const method = methodOf(recipe);
+  checkGapPolicy(recipe, shape, method.leavesOutSegments === true);
+  const { derived, warnings } = method.fit(recipe, shape, bounds);
+  const cost = method.cost(recipe, derived, shape);
+  checkCost(cost, bounds);
+  return { recipe, hash, derived, warnings, cost };
 }
 
 /**

@@ -1,5 +1,5 @@
 import { canonicalJson } from '../common/canonical-json.js';
-import { RecipeInputError } from './errors.js';
+import { invalid, unfit } from '../methods/fit.js';
 import type { DerivedSettings } from './resolve.js';
 
 /**
@@ -23,7 +23,7 @@ export function splitRecipeEcho(input: unknown): { settings: unknown; echo: Reci
   if (id !== undefined) echo.id = id;
   if (hash !== undefined) echo.hash = hash;
   if (derived !== undefined) {
-    if (derived === null || typeof derived !== 'object' || Array.isArray(derived)) throw new RecipeInputError('invalid', 'derived must be an object, as a record prints it', '/derived');
+    if (derived === null || typeof derived !== 'object' || Array.isArray(derived)) throw invalid('derived must be an object, as a record prints it', '/derived');
     echo.derived = derived;
   }
   return { settings, echo };
@@ -32,14 +32,10 @@ export function splitRecipeEcho(input: unknown): { settings: unknown; echo: Reci
 /** The echoed hash and id must be those the settings hash to (SHA-256 of their canonical JSON). */
 export function checkRecipeEcho(echo: RecipeEcho, pinned: { id: string; hash: string }): void {
   if (echo.hash !== undefined && echo.hash !== pinned.hash) {
-    throw new RecipeInputError(
-      'invalid',
-      `hash ${JSON.stringify(echo.hash)} is not the hash of this recipe's settings, ${pinned.hash}; a setting was changed after the record was made, or the hash was`,
-      '/hash',
-    );
+    throw invalid(`hash ${JSON.stringify(echo.hash)} is not the hash of this recipe's settings, ${pinned.hash}; a setting was changed after the record was made, or the hash was`, '/hash');
   }
   if (echo.id !== undefined && echo.id !== pinned.id) {
-    throw new RecipeInputError('invalid', `id ${JSON.stringify(echo.id)} is not the id of this recipe's settings, ${pinned.id}`, '/id');
+    throw invalid(`id ${JSON.stringify(echo.id)} is not the id of this recipe's settings, ${pinned.id}`, '/id');
   }
 }
 
@@ -52,13 +48,9 @@ export function checkDerivedEcho(claimed: unknown, derived: DerivedSettings): vo
   const actual = derived as unknown as Record<string, unknown>;
   for (const [name, value] of Object.entries(claimed as Record<string, unknown>)) {
     const pointer = `/derived/${name.replaceAll('~', '~0').replaceAll('/', '~1')}`;
-    if (!(name in actual)) throw new RecipeInputError('unfit-for-signal', `derived.${name} is not a value this recipe derives on this signal`, pointer);
+    if (!(name in actual)) throw unfit(`derived.${name} is not a value this recipe derives on this signal`, pointer);
     if (!sameJson(value, actual[name])) {
-      throw new RecipeInputError(
-        'unfit-for-signal',
-        `derived.${name} is ${JSON.stringify(value)}, but this recipe on this signal gives ${JSON.stringify(actual[name])}; the record was made on a signal of another shape`,
-        pointer,
-      );
+      throw unfit(`derived.${name} is ${JSON.stringify(value)}, but this recipe on this signal gives ${JSON.stringify(actual[name])}; the record was made on a signal of another shape`, pointer);
     }
   }
 }

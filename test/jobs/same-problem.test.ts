@@ -1,11 +1,11 @@
 import Fastify from 'fastify';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DomainError } from '../../src/common/errors.js';
+import type { DomainError } from '../../src/common/errors.js';
 import { EngineInputError } from '../../src/engine/errors.js';
 import { errorHandler } from '../../src/http/error-handler.js';
 import { refusalOf } from '../../src/jobs/failure.js';
 import { normalizeRecipe } from '../../src/recipes/normalize.js';
-import { RecipeInputError } from '../../src/recipes/errors.js';
+import { invalid, overLimit, unfit } from '../../src/methods/fit.js';
 import { jobIdOf, recordKeyOf, type JobSpec } from '../../src/jobs/spec.js';
 import type { SignalView } from '../../src/signals/view.js';
 import { SignalInputError } from '../../src/signals/errors.js';
@@ -18,9 +18,9 @@ import { startTestApi } from '../helpers/app.js';
 const thrown: [string, () => DomainError, string][] = [
   ['a signal over a size limit', () => new SignalInputError('limit', 'too many channels', '/channels'), 'limit-exceeded'],
   ['a malformed signal', () => new SignalInputError('shape', 'ragged rows', '/data/1'), 'invalid-signal'],
-  ['an invalid recipe', () => new RecipeInputError('invalid', 'frequencyRange must be [low, high]', '/frequencyRange/1'), 'invalid-recipe'],
-  ['a recipe that does not fit', () => new RecipeInputError('unfit-for-signal', 'segment longer than the epoch', '/segmentSeconds'), 'recipe-unfit'],
-  ['a recipe over a limit', () => new RecipeInputError('limit', 'fftLength above the limit', '/fftLength'), 'limit-exceeded'],
+  ['an invalid recipe', () => invalid('frequencyRange must be [low, high]', '/frequencyRange/1'), 'invalid-recipe'],
+  ['a recipe that does not fit', () => unfit('segment longer than the epoch', '/segmentSeconds'), 'recipe-unfit'],
+  ['a recipe over a limit', () => overLimit('fftLength above the limit', '/fftLength'), 'limit-exceeded'],
   ['an epoch of non-finite samples', () => new EngineInputError('non-finite', 'epoch 0 holds NaN', '/recipe/nonFinite'), 'non-finite'],
   ['a full store', () => new StorageFullError(10, 5, 12), 'storage-full'],
 ];

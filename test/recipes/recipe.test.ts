@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { RecipeInputError } from '../../src/recipes/errors.js';
+import type { DomainError } from '../../src/common/errors.js';
+import { isRecipeRefusal } from '../../src/recipes/errors.js';
 import { normalizeRecipe } from '../../src/recipes/normalize.js';
 import { resolveRecipe } from '../../src/recipes/resolve.js';
 
@@ -23,13 +24,13 @@ describe('normalizeRecipe', () => {
       normalizeRecipe({ method: 'welch', overlapp: 0.25 });
       expect.unreachable();
     } catch (error) {
-      expect(error).toBeInstanceOf(RecipeInputError);
+      expect(isRecipeRefusal(error)).toBe(true);
       expect((error as Error).message).toContain('"overlapp"');
     }
   });
 
   it('should refuse a recipe of another format version', () => {
-    expect(() => normalizeRecipe({ method: 'welch', schema: 'rhythmetric.recipe/2' })).toThrow(RecipeInputError);
+    expect(() => normalizeRecipe({ method: 'welch', schema: 'rhythmetric.recipe/2' })).toThrow(expect.objectContaining({ code: 'invalid-recipe', pointer: '/schema' }));
   });
 
   it('should refuse duplicate band names and a ratio of a missing band', () => {
@@ -92,8 +93,8 @@ describe('when a recipe holds text that canonical JSON (RFC 8785) cannot write',
       normalizeRecipe({ method: 'welch', bands: [{ name: 'a\ud800', low: 1, high: 4 }] });
       expect.unreachable();
     } catch (error) {
-      expect(error).toBeInstanceOf(RecipeInputError);
-      expect((error as RecipeInputError).pointer).toBe('/bands/0/name');
+      expect(isRecipeRefusal(error)).toBe(true);
+      expect((error as DomainError).pointer).toBe('/bands/0/name');
     }
   });
 });

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { RecipeInputError } from '../../src/recipes/errors.js';
+import type { DomainError } from '../../src/common/errors.js';
+import { isRecipeRefusal } from '../../src/recipes/errors.js';
 import { normalizeRecipe } from '../../src/recipes/normalize.js';
 import { resolveRecipe, type SignalShape } from '../../src/recipes/resolve.js';
 import { checkDerivedEcho } from '../../src/recipes/round-trip.js';
@@ -15,14 +16,14 @@ function asRecordPrintsIt(input: Record<string, unknown>, shape = SHAPE) {
   return JSON.parse(JSON.stringify({ ...pinned.recipe, id: pinned.id, hash: pinned.hash, derived })) as Record<string, unknown>;
 }
 
-function refusal(run: () => unknown): RecipeInputError {
+function refusal(run: () => unknown): DomainError {
   try {
     run();
   } catch (error) {
-    if (error instanceof RecipeInputError) return error;
+    if (isRecipeRefusal(error)) return error;
     throw error;
   }
-  throw new Error('expected a RecipeInputError');
+  throw new Error('expected a refusal of the recipe');
 }
 
 describe("when a record's recipe is submitted back as it prints it", () => {
