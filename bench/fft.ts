@@ -5,13 +5,16 @@
  * timed on its own and subtracted, and the best of several rounds is kept, since the machine is shared.
  * fft.js (radix 4, interleaved arrays, out of place) is timed beside ours for powers of two as a yardstick.
  * "inverse[:1000]" is the inverse asked for its first 1000 outputs only (outputCount), as the Morlet
- * kernel asks of its 1000-sample epochs.
+ * kernel asks of its 1000-sample epochs. "scipy inverse" is scipy.fft.ifft (workers=1) per row of a
+ * 32-row call, as bench/scipy-morlet.py uses it over an epoch's channels (bench/scipy-fft.py; the best of
+ * 7 rounds there too): the Morlet kernel's reference does one such full inverse per trial and frequency.
  *
  * Standalone: `npx tsx bench/fft.ts`. Prints figures; never fails on time.
  */
 import FFT from 'fft.js';
+import { spawnSync } from 'node:child_process';
 import { performance } from 'node:perf_hooks';
-import { pathToFileURL } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createRandom } from '../src/common/random.js';
 import { complexFftPlan } from '../src/dsp/fft.js';
 
@@ -95,18 +98,38 @@ function timeSize(n: number): { forward: number; inverse: number; prefix: number
   return { forward, inverse, prefix, copy, fftJs };
 }
 
+const SCIPY_ROWS = 32;
+
+/** µs per row of scipy.fft.ifft at `n`, or a note when the reference cannot run. */
+function timeScipy(n: number): { micros: Record<string, number>; versions: string } | string {
+  const script = fileURLToPath(new URL('./scipy-fft.py', import.meta.url));
+  const run = spawnSync('/usr/bin/python3', [script, String(SCIPY_ROWS), String(n)], { encoding: 'utf8', timeout: 600_000 });
+  if (run.error !== undefined || run.status !== 0) {
+    return `note: scipy reference unavailable (${run.error?.message ?? run.stderr.trim().split('\n').at(-1) ?? `exit ${run.status}`})`;
+  }
+  const parsed = JSON.parse(run.stdout) as { micros: Record<string, number>; numpy: string; scipy: string };
+  return { micros: parsed.micros, versions: `numpy ${parsed.numpy}, scipy ${parsed.scipy}` };
+}
+
 /** Runs the FFT micro-benchmark and returns printable lines. */
 export async function benchFft(): Promise<string[]> {
   const lines = [
     `fft: µs per complex transform (best of ${ROUNDS} rounds; the input refill, column copy, is subtracted), single thread`,
-    `      n   inverse   inverse[:${PREFIX}]   forward   copy   fft.js inverse`,
+    `      n   inverse   inverse[:${PREFIX}]   forward   copy   scipy inverse   fft.js inverse`,
   ];
   for (const n of SIZES) timeSize(n); // warm-up for the JIT, every size once
+  let scipy: ReturnType<typeof timeScipy> = 'note: scipy reference not run';
   for (const n of SIZES) {
     const t = timeSize(n);
-    const js = t.fftJs === undefined ? '' : t.fftJs.toFixed(2).padStart(10);
-    lines.push(`  ${String(n).padStart(5)} ${t.inverse.toFixed(2).padStart(9)} ${t.prefix.toFixed(2).padStart(15)} ${t.forward.toFixed(2).padStart(9)} ${t.copy.toFixed(2).padStart(6)} ${js}`);
+    // right after ours at the same size, so that both see about the same load on the shared machine
+    if (typeof scipy !== 'string' || n === SIZES[0]) scipy = timeScipy(n);
+    const reference = typeof scipy === 'string' ? '' : scipy.micros[String(n)]!.toFixed(2);
+    const js = t.fftJs === undefined ? '' : t.fftJs.toFixed(2);
+    lines.push(
+      `  ${String(n).padStart(5)} ${t.inverse.toFixed(2).padStart(9)} ${t.prefix.toFixed(2).padStart(15)} ${t.forward.toFixed(2).padStart(9)} ${t.copy.toFixed(2).padStart(6)} ${reference.padStart(15)} ${js.padStart(16)}`,
+    );
   }
+  lines.push(typeof scipy === 'string' ? `  ${scipy}` : `  scipy inverse: ${scipy.versions} via /usr/bin/python3, per row of a ${SCIPY_ROWS}-row call`);
   return lines;
 }
 

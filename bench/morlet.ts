@@ -1,7 +1,8 @@
 /**
  * Morlet wavelet power: 100 epochs × 32 channels × 2 s at 500 Hz, 40 log-spaced frequencies 2–45 Hz,
  * 7 cycles, beside the same FFT convolution in numpy/scipy (bench/scipy-morlet.py):
- * - the kernel (createMorletPlan) on one thread;
+ * - the kernel (createMorletPlan) on one thread, and, to show where its time goes, its inverse
+ *   transforms alone (the same lengths and output prefixes, one per signal and frequency);
  * - whole `morlet` jobs through analyze() on 1 and 2 threads (JOB_THREADS), which also average the
  *   trials and hash the matrices;
  * - scipy with workers = 1 and 2.
@@ -10,6 +11,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath, pathToFileURL } from 'node:url';
+import { complexFftPlan } from '../src/dsp/fft.js';
 import { createMorletPlan } from '../src/dsp/morlet.js';
 import { packSignal, timeEngineMorlet, type MorletWorkload } from './morlet-engine.js';
 import { sineHashSignals } from './sine-hash.js';
@@ -27,32 +29,72 @@ function makeData(): Float64Array[] {
   return sineHashSignals(EPOCHS * CHANNELS, SAMPLES);
 }
 
-function timeOurs(data: Float64Array[]): { seconds: number; totals: Float64Array } {
+/** CPU seconds of this process (user + system) since `from`: less moved than the wall clock by other work on the machine. */
+function cpuSeconds(from?: NodeJS.CpuUsage): number {
+  const used = process.cpuUsage(from);
+  return (used.user + used.system) / 1e6;
+}
+
+const PLAN_OPTIONS = { samplingRate: SAMPLING_RATE, frequencies: { low: F_LOW, high: F_HIGH, count: COUNT }, cycles: CYCLES };
+
+function timeOurs(data: Float64Array[]): { seconds: number; cpu: number; totals: Float64Array } {
+  const cpu = process.cpuUsage();
   const start = performance.now();
   // the plan (wavelet spectra, FFT plans, scratch) is built inside the timed region, once
-  const plan = createMorletPlan(SAMPLES, {
-    samplingRate: SAMPLING_RATE,
-    frequencies: { low: F_LOW, high: F_HIGH, count: COUNT },
-    cycles: CYCLES,
-  });
+  const plan = createMorletPlan(SAMPLES, PLAN_OPTIONS);
   const out = new Float64Array(plan.timeCount * plan.frequencyCount);
   const totals = new Float64Array(COUNT);
   for (const x of data) {
     plan.power(x, out);
     for (let i = 0; i < out.length; i++) totals[i % COUNT] = totals[i % COUNT]! + out[i]!;
   }
-  return { seconds: (performance.now() - start) / 1000, totals };
+  return { seconds: (performance.now() - start) / 1000, cpu: cpuSeconds(cpu), totals };
 }
 
-function timeScipy(workers: number): { seconds: number; totals: number[]; versions: string } | string {
+/**
+ * The kernel's inverse transforms alone for `signals` signals: per signal and frequency, one in-place
+ * inverse of the plan's length for that frequency, asked for the plan's output prefix. Each call first
+ * refills the arrays (an unscaled inverse grows the values); the refills are timed on their own and
+ * subtracted. CPU seconds and wall seconds.
+ */
+function timeInverses(signals: number): { seconds: number; cpu: number } {
+  const plan = createMorletPlan(SAMPLES, PLAN_OPTIONS);
+  const lengths = plan.inverseLengths;
+  const longest = Math.max(...lengths);
+  const source = sineHashSignals(2, longest);
+  const re = new Float64Array(longest),
+    im = new Float64Array(longest);
+  const run = (transform: boolean): { seconds: number; cpu: number } => {
+    const cpu = process.cpuUsage();
+    const start = performance.now();
+    for (let s = 0; s < signals; s++) {
+      for (const n of lengths) {
+        re.set(source[0]!.subarray(0, n));
+        im.set(source[1]!.subarray(0, n));
+        if (transform) complexFftPlan(n).transform(re, im, true, Math.min(n, plan.timeCount));
+      }
+    }
+    return { seconds: (performance.now() - start) / 1000, cpu: cpuSeconds(cpu) };
+  };
+  run(true); // warm-up
+  const refill = run(false);
+  const both = run(true);
+  return { seconds: both.seconds - refill.seconds, cpu: both.cpu - refill.cpu };
+}
+
+function timeScipy(workers: number): { seconds: number; cpu: number; totals: number[]; versions: string } | string {
   const script = fileURLToPath(new URL('./scipy-morlet.py', import.meta.url));
   const args = [EPOCHS, CHANNELS, SAMPLES, SAMPLING_RATE, F_LOW, F_HIGH, COUNT, CYCLES, workers].map(String);
   const run = spawnSync('/usr/bin/python3', [script, ...args], { encoding: 'utf8', timeout: 900_000 });
   if (run.error !== undefined || run.status !== 0) {
     return `note: scipy reference unavailable (${run.error?.message ?? run.stderr.trim().split('\n').at(-1) ?? `exit ${run.status}`})`;
   }
-  const parsed = JSON.parse(run.stdout) as { seconds: number; totals: number[]; numpy: string; scipy: string };
-  return { seconds: parsed.seconds, totals: parsed.totals, versions: `numpy ${parsed.numpy}, scipy ${parsed.scipy}` };
+  const parsed = JSON.parse(run.stdout) as { seconds: number; cpu: number; totals: number[]; numpy: string; scipy: string };
+  return { seconds: parsed.seconds, cpu: parsed.cpu, totals: parsed.totals, versions: `numpy ${parsed.numpy}, scipy ${parsed.scipy}` };
+}
+
+function plan0Lengths(): number[] {
+  return [...createMorletPlan(SAMPLES, PLAN_OPTIONS).inverseLengths].sort((p, q) => p - q);
 }
 
 const WORKLOAD: MorletWorkload = {
@@ -91,7 +133,8 @@ export async function benchMorlet(): Promise<string[]> {
   const data = makeData();
   const signals = EPOCHS * CHANNELS;
   timeOurs(data.slice(0, 64)); // warm-up for the JIT
-  const { seconds, totals } = timeOurs(data);
+  const { seconds, cpu, totals } = timeOurs(data);
+  const inverses = timeInverses(signals);
   const signal = packSignal(data, WORKLOAD);
   // Warm-up for the job path, and a helper thread started (it stays up 30 s between jobs).
   const small = { ...WORKLOAD, epochs: 4, channels: 8 };
@@ -101,6 +144,7 @@ export async function benchMorlet(): Promise<string[]> {
   const job1: number[] = [],
     job2: number[] = [],
     scipy1: number[] = [],
+    scipy1Cpu: number[] = [],
     scipy2: number[] = [];
   let threads = 0;
   let jobTotals: Float64Array = new Float64Array(0);
@@ -120,12 +164,14 @@ export async function benchMorlet(): Promise<string[]> {
     }
     reference = one;
     scipy1.push(one.seconds);
+    scipy1Cpu.push(one.cpu);
     const both = timeScipy(2);
     if (typeof both !== 'string') scipy2.push(both.seconds);
   }
   const lines = [
     `morlet: ${EPOCHS} epochs × ${CHANNELS} channels × ${SAMPLES} samples at ${SAMPLING_RATE} Hz, ${COUNT} frequencies ${F_LOW}–${F_HIGH} Hz (log), ${CYCLES} cycles; median of ${RUNS} (min–max)`,
-    `  rhythmetric kernel, 1 thread    ${seconds.toFixed(3)} s  (one run; ${((seconds / signals) * 1e3).toFixed(2)} ms per channel-epoch)`,
+    `  rhythmetric kernel, 1 thread    ${seconds.toFixed(3)} s  (one run; ${((seconds / signals) * 1e3).toFixed(2)} ms per channel-epoch; CPU ${cpu.toFixed(3)} s)`,
+    `    of which inverse FFTs          ${inverses.seconds.toFixed(3)} s  (CPU ${inverses.cpu.toFixed(3)} s, ${Math.round((100 * inverses.cpu) / cpu)} % of the kernel's CPU: ${signals}×${COUNT} inverses of lengths ${[...new Set(plan0Lengths())].join('/')}, timed alone)`,
     `  rhythmetric job, 1 thread       ${spread(job1)}`,
     `  rhythmetric job, 2 threads      ${spread(job2)}  (${threads} threads computed channels)`,
   ];
@@ -133,10 +179,10 @@ export async function benchMorlet(): Promise<string[]> {
     lines.push(`  ${missing ?? 'note: scipy reference unavailable'}`);
     return lines;
   }
-  lines.push(`  scipy/numpy, workers=1         ${spread(scipy1)}`);
+  lines.push(`  scipy/numpy, workers=1         ${spread(scipy1)}  (CPU median ${median(scipy1Cpu).toFixed(3)} s)`);
   if (scipy2.length > 0) lines.push(`  scipy/numpy, workers=2         ${spread(scipy2)}`);
-  lines.push(`  ratio kernel 1 thread / scipy workers=1: ${(seconds / median(scipy1)).toFixed(2)}`);
-  lines.push(`  ratio job 2 threads / scipy workers=1:   ${(median(job2) / median(scipy1)).toFixed(2)}  (target ≤ 1)`);
+  lines.push(`  ratio kernel 1 thread / scipy workers=1: ${(seconds / median(scipy1)).toFixed(2)}  (target ≤ 1; CPU seconds: ${(cpu / median(scipy1Cpu)).toFixed(2)})`);
+  lines.push(`  ratio job 2 threads / scipy workers=1:   ${(median(job2) / median(scipy1)).toFixed(2)}  (target ≤ 0.6)`);
   if (scipy2.length > 0) lines.push(`  ratio job 2 threads / scipy workers=2:   ${(median(job2) / median(scipy2)).toFixed(2)}`);
   lines.push(
     `  reference: ${reference.versions} via /usr/bin/python3, vectorised over channels; per-frequency power sums agree to ${worstRelative(totals, reference.totals).toExponential(1)} (kernel), ${worstRelative(jobTotals, reference.totals).toExponential(1)} (job) relative`,

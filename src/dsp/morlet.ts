@@ -96,6 +96,11 @@ export interface MorletPlan {
   /** 1 where the wavelet's ±edgeSigmas·σ_t overhangs the epoch, [time][frequency] */
   readonly edgeMask: Uint8Array;
   /**
+   * per frequency, the length of its inverse transform (L, or L/d when the decimation d folds the
+   * product): each call does one such transform per frequency, most of its cost (bench/morlet.ts)
+   */
+  readonly inverseLengths: Int32Array;
+  /**
    * P = 2·|w|², unit², [time][frequency]: power[i·frequencyCount + j]. With `accumulate`, P is
    * added to what `out` holds (out[k] + P, the same addition a separate sum of trials makes).
    * @throws RangeError when `out` has fewer than timeCount·frequencyCount elements; TypeError when
@@ -138,7 +143,7 @@ export function logFrequencies(low: number, high: number, count: number): Float6
   if (!Number.isInteger(count) || count < 1) throw new RangeError(`frequencies.count must be an integer ≥ 1, got ${count}`);
   if (count > 1 && high === low) throw new RangeError('frequencies.high must exceed low when count > 1');
   const f = new Float64Array(count);
-  for (let i = 0; i < count; i++) f[i] = i === count - 1 && count > 1 ? high : low * Math.pow(high / low, count > 1 ? i / (count - 1) : 0);
+  for (let i = 0; i < count; i++) f[i] = i === count - 1 && count > 1 ? high : low * (high / low) ** (count > 1 ? i / (count - 1) : 0);
   return f;
 }
 
@@ -326,6 +331,7 @@ class MorletPlanImpl implements MorletPlan {
   readonly decimation: number;
   readonly edgeSigmas: number;
   readonly edgeMask: Uint8Array;
+  readonly inverseLengths: Int32Array;
   private readonly work: FrequencyWork[] = [];
   /**
    * distinct transform lengths, each with its real plan and bins 0..floor(L/2) of the signal's
@@ -364,6 +370,7 @@ class MorletPlanImpl implements MorletPlan {
     this.times = new Float64Array(this.timeCount);
     for (let i = 0; i < this.timeCount; i++) this.times[i] = (i * decimation) / samplingRate;
     this.edgeMask = new Uint8Array(this.timeCount * F);
+    this.inverseLengths = new Int32Array(F);
     let longest = 0,
       longestFolded = 0;
     for (let j = 0; j < F; j++) {
@@ -394,6 +401,7 @@ class MorletPlanImpl implements MorletPlan {
         inverse: complexFftPlan(size / fold),
         step: decimation / fold,
       });
+      this.inverseLengths[j] = size / fold;
       longest = Math.max(longest, size / fold);
       if (fold > 1) longestFolded = Math.max(longestFolded, size);
       const reach = edgeSigmas * sigma * samplingRate;

@@ -356,7 +356,7 @@ describe('morletPower', () => {
       const f = logFrequencies(2, 45, 40);
       expect(f[0]).toBe(2);
       expect(f[39]).toBe(45);
-      const ratio = Math.pow(45 / 2, 1 / 39);
+      const ratio = (45 / 2) ** (1 / 39);
       for (let i = 1; i < 40; i++) expect(Math.abs(f[i]! / f[i - 1]! - ratio)).toBeLessThan(1e-13);
     });
 
@@ -430,6 +430,33 @@ describe('morletPower', () => {
       expect(Array.from(both.power)).toEqual(Array.from(plan.power(x)));
       expect(Array.from(both.re)).toEqual(Array.from(w.re));
       expect(Array.from(both.im)).toEqual(Array.from(w.im));
+    });
+  });
+
+  describe('when the plan reports its inverse-transform lengths (the cost bench/morlet.ts times)', () => {
+    // Module note (common practice: a circular convolution of period L ≥ N + R, R = min(M, N − 1),
+    // has no aliases in outputs 0..N − 1); the lengths are the smallest m·2^a ≥ N + R, m ∈ {1, 3, 5, 9},
+    // cut to L/d when the decimation d divides L. Checked here from that rule, not from the module's code.
+    const smallest = (n: number): number => Math.min(...[1, 3, 5, 9].map((m) => m * 2 ** Math.max(0, Math.ceil(Math.log2(n / m)))));
+    it('should report, per frequency, the smallest alias-free length of the kinds the FFT does fastest', () => {
+      const fs = 500,
+        length = 1000;
+      const plan = createMorletPlan(length, { samplingRate: fs, frequencies: { low: 2, high: 45, count: 40 }, cycles: 7 });
+      expect(plan.inverseLengths).toHaveLength(40);
+      plan.frequencies.forEach((f, j) => {
+        const reach = Math.min(Math.ceil((6 * 7 * fs) / (2 * Math.PI * f)), length - 1);
+        expect(plan.inverseLengths[j]).toBe(smallest(length + reach));
+        expect(plan.inverseLengths[j]).toBeGreaterThanOrEqual(length + reach);
+      });
+      // 2 Hz: the wavelet (M = 1672) outlasts the epoch, R = 999 and L = 2048; 45 Hz: M = 75, L = 1152 = 9·2^7
+      expect(plan.inverseLengths[0]).toBe(2048);
+      expect(plan.inverseLengths[39]).toBe(1152);
+    });
+
+    it('should report L/d when the decimation d divides L', () => {
+      const plan = createMorletPlan(1000, { samplingRate: 500, frequencies: [45], cycles: 7, decimation: 4 });
+      // 1152 = 4·288: the product folds onto 288 bins
+      expect(plan.inverseLengths[0]).toBe(smallest(1000 + 75) / 4);
     });
   });
 
