@@ -229,7 +229,8 @@ export async function benchRecording(): Promise<string[]> {
       `  upload: 201 after ${(sent.answeredMs / 1000).toFixed(1)} s (${rate(size, sent.answeredMs)} MiB/s end to end, body sent in ${(sent.sentMs / 1000).toFixed(1)} s); ` +
         `stored ${signal.channels.length} ch × ${signal.samplesPerEpoch} samples at ${signal.samplingRate} Hz, ${signal.events?.length ?? 0} events, ${mib(signal.bytes)} MiB as float64; server peak VmRSS ${mib(server.peakRss())} MiB`,
     );
-    for (const { name, recipe } of RECIPES) lines.push(`  job, ${name}: ${await runJob(server, signal.id, recipe, remaining)}`);
+    // RECORDING_UPLOAD_ONLY=1 stops after the upload, for measuring the upload alone.
+    if (process.env.RECORDING_UPLOAD_ONLY !== '1') for (const { name, recipe } of RECIPES) lines.push(`  job, ${name}: ${await runJob(server, signal.id, recipe, remaining)}`);
     lines.push(`  server VmHWM at the end ${mib(readVm(server.pid, 'VmHWM') ?? 0)} MiB; total ${((performance.now() - began) / 1000).toFixed(1)} s`);
   } catch (error) {
     if (!(error instanceof Bound || (error instanceof Error && /took longer than|TimeoutError/.test(`${error.name} ${error.message}`)))) {
