@@ -51,6 +51,12 @@ const RECIPES = [
 
 class Bound extends Error {}
 
+const exists = (path: string) =>
+  stat(path).then(
+    () => true,
+    () => false,
+  );
+
 /** One record of one channel, physical µV; the generators carry on from record to record. */
 function recordSamples(random: Random, channel: number, record: number, out: Float64Array): void {
   const alpha = 15 * (0.5 + channel / CHANNELS);
@@ -208,13 +214,16 @@ export async function benchRecording(): Promise<string[]> {
   const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-recording-'));
   let server: ChildServer | null = null;
   try {
-    const path = join(dir, 'recording.edf');
+    // RECORDING_EDF=<path> keeps the built file there and reuses it on later runs (it is seeded, so the same).
+    const kept = process.env.RECORDING_EDF;
+    const path = kept ?? join(dir, 'recording.edf');
     const t0 = performance.now();
-    const size = await writeRecording(path, lines);
+    const reused = kept !== undefined && (await exists(kept));
+    const size = reused ? (await stat(kept)).size : await writeRecording(path, lines);
     const buildMs = performance.now() - t0;
     const samples = RECORDS * CHANNELS * SAMPLING_RATE;
     lines.push(
-      `  file ${(size / 1e6).toFixed(1)} MB (${mib(size)} MiB, ${samples.toLocaleString('en')} samples), built in ${(buildMs / 1000).toFixed(1)} s; VmHWM of this process so far ${mib(readVm(process.pid, 'VmHWM') ?? 0)} MiB (earlier benchmarks in the same process count too)`,
+      `  file ${(size / 1e6).toFixed(1)} MB (${mib(size)} MiB, ${samples.toLocaleString('en')} samples), ${reused ? 'reused' : `built in ${(buildMs / 1000).toFixed(1)} s`}; VmHWM of this process so far ${mib(readVm(process.pid, 'VmHWM') ?? 0)} MiB (earlier benchmarks in the same process count too)`,
     );
     server = await startChildServer({
       BODY_LIMIT_BYTES: String(2 * size),

@@ -34,6 +34,8 @@ export interface IngestOptions {
 
 /** Bytes read or written per step: memory stays bounded by a few of these, whatever the file size. */
 const CHUNK = 8 * 1024 * 1024;
+/** Stored bytes converted and hashed per step of the second pass over an EDF's codes (a multiple of 8). */
+const HASH_BLOCK_BYTES = 512 * 1024;
 
 /**
  * Turns a raw upload already on disk (float32 or EDF/EDF+) into a stored signal without holding the
@@ -169,8 +171,8 @@ function surveyChunk(survey: AmplitudeSurvey, samples: Float64Array, first: numb
 
 async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Extract<IngestDescription, { format: 'edf' }>, limits: SignalLimits): Promise<Decoded> {
   const output = await open(out, 'w');
-  let description: Decoded['description'];
-  let encoding: SampleEncoding;
+  let flushed: Promise<void> | null = null;
+  let reading: Promise<void> | null = null;
   try {
     const header = await readHeader(input, size);
     const expected = header.headerBytes + header.recordCount * header.recordBytes;
@@ -186,7 +188,7 @@ async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Ex
     // The 16-bit codes are stored with each channel's calibration, unless a calibration would not
     // come back from the meta's JSON exactly (then the calibrated float64 values are stored).
     const calibration = selected.map(({ digitalMinimum, gain, physicalMinimum }) => ({ digitalMinimum, gain, physicalMinimum }));
-    encoding = calibration.every(survivesJson) ? { kind: 'int16', calibration } : FLOAT64;
+    const encoding: SampleEncoding = calibration.every(survivesJson) ? { kind: 'int16', calibration } : FLOAT64;
     const width = bytesPerSample(encoding);
     const perRecord = plan.samplesPerEpoch / Math.max(1, header.recordCount);
     const batch = Math.max(1, Math.floor(CHUNK / header.recordBytes));
@@ -194,22 +196,26 @@ async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Ex
     let firstStart: number | null = null;
     let previousStart: number | undefined;
     const gaps: EdfGap[] = [];
-    const buffer = Buffer.alloc(batch * header.recordBytes);
-    const digital = new Int16Array(batch * perRecord);
-    const physical = encoding.kind === 'float64' ? new Float64Array(batch * perRecord) : null;
-    for (let r0 = 0; r0 < header.recordCount; r0 += batch) {
+    // Two read buffers: the next batch is read while this one's codes are written, channel by
+    // channel, each to its place in the [channel][sample] file, all at once.
+    const buffers = [Buffer.alloc(batch * header.recordBytes), Buffer.alloc(batch * header.recordBytes)] as const;
+    const digital = new Int16Array(selected.length * batch * perRecord);
+    const physical = encoding.kind === 'float64' ? new Float64Array(selected.length * batch * perRecord) : null;
+    const readBatch = (r0: number, buffer: Buffer) => readAll(input, buffer, (Math.min(header.recordCount, r0 + batch) - r0) * header.recordBytes, header.headerBytes + r0 * header.recordBytes);
+    reading = header.recordCount > 0 ? readBatch(0, buffers[0]) : null;
+    for (let r0 = 0, n = 0; r0 < header.recordCount; r0 += batch, n++) {
       const r1 = Math.min(header.recordCount, r0 + batch);
-      const origin = header.headerBytes + r0 * header.recordBytes;
-      const length = (r1 - r0) * header.recordBytes;
-      await readAll(input, buffer, length, origin);
+      const buffer = buffers[n % 2]!;
+      await reading;
+      reading = r1 < header.recordCount ? readBatch(r1, buffers[(n + 1) % 2]!) : null;
       let records;
       try {
         // Timing and annotations only: the samples are copied below as codes.
-        records = decodeEdfRecords(plan.header, buffer.subarray(0, length), {
+        records = decodeEdfRecords(plan.header, buffer.subarray(0, (r1 - r0) * header.recordBytes), {
           channels: [],
           startRecord: r0,
           endRecord: r1,
-          bytesOrigin: origin,
+          bytesOrigin: header.headerBytes + r0 * header.recordBytes,
           annotations: true,
           // The decoder checks each record against the one before, across batches too.
           ...(previousStart === undefined ? {} : { previousRecordStart: previousStart }),
@@ -222,29 +228,45 @@ async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Ex
       for (const gap of records.gaps) gaps.push(gap);
       for (const a of records.annotations) events.push({ onset: a.onset, duration: a.duration, label: a.label });
       const count = (r1 - r0) * perRecord;
-      for (let c = 0; c < selected.length; c++) {
-        const codes = digital.subarray(0, count);
-        copyDigital(plan.header, selected[c]!, buffer, 0, r1 - r0, codes);
+      const writes = selected.map((s, c) => {
+        const codes = digital.subarray(c * count, (c + 1) * count);
+        copyDigital(plan.header, s, buffer, 0, r1 - r0, codes);
         let bytes: Uint8Array;
         if (physical) {
-          calibrate(codes, selected[c]!, physical, count);
-          bytes = sampleBytes(physical.subarray(0, count));
+          const values = physical.subarray(c * count, (c + 1) * count);
+          calibrate(codes, s, values);
+          bytes = sampleBytes(values);
         } else bytes = encodedBytes(codes);
-        await writeAll(output, bytes, (c * plan.samplesPerEpoch + r0 * perRecord) * width);
-      }
+        return writeAll(output, bytes, (c * plan.samplesPerEpoch + r0 * perRecord) * width);
+      });
+      await Promise.all(writes);
     }
     if (gaps.length > 0) throw discontinuityError(gaps);
     const offset = firstStart ?? 0;
     const shifted = events.map((ev) => ({ ...ev, onset: ev.onset - offset }));
-    description = { samplingRate: plan.samplingRate, channels: plan.channels, unit: plan.unit, epochCount: 1, samplesPerEpoch: plan.samplesPerEpoch, ...(shifted.length ? { events: shifted } : {}) };
+    const description = {
+      samplingRate: plan.samplingRate,
+      channels: plan.channels,
+      unit: plan.unit,
+      epochCount: 1,
+      samplesPerEpoch: plan.samplesPerEpoch,
+      ...(shifted.length ? { events: shifted } : {}),
+    };
+    // The file is flushed to disk while it is hashed, so the store's own flush finds little left to do.
+    flushed = output.sync();
+    // The codes were written channel by channel; the content hash runs over the float64 values in
+    // [channel][sample] order, so it is taken in a second pass over the stored file.
+    const survey = new AmplitudeSurvey(description.channels);
+    const channelCount = description.channels.length;
+    const samplesSha256 = await hashStored(out, description, encoding, (row, values) => survey.add(row % channelCount, values));
+    await flushed;
+    return { description, encoding, nonFinite: 0, warnings: survey.warnings(description.unit), samplesSha256 };
   } finally {
+    // Nothing may still be in flight on the handles when they close (after a failure).
+    await reading?.catch(() => undefined);
+    await flushed?.catch(() => undefined);
     await output.close();
   }
-  // The codes were written channel by channel; the content hash runs over the float64 values in
-  // [channel][sample] order, so it is taken in a second pass over the stored file.
-  const survey = new AmplitudeSurvey(description.channels);
-  const samplesSha256 = await hashStored(out, description, encoding, (row, values) => survey.add(row % description.channels.length, values));
-  return { description, encoding, nonFinite: 0, warnings: survey.warnings(description.unit), samplesSha256 };
 }
 
 /**
@@ -258,16 +280,22 @@ async function hashStored(
   visit: (row: number, values: Float64Array) => void,
 ): Promise<string> {
   const width = bytesPerSample(encoding);
-  const rows = shape.epochCount * shape.channels.length;
-  const total = rows * shape.samplesPerEpoch;
+  const total = shape.epochCount * shape.channels.length * shape.samplesPerEpoch;
   const hash = createHash('sha256');
-  const raw = Buffer.alloc(CHUNK);
-  const wide = new Float64Array(CHUNK / width);
+  // Small blocks, so that the float64 values are still in the CPU's cache when they are surveyed
+  // and hashed; the next block is read while one is converted.
+  const perBlock = HASH_BLOCK_BYTES / width;
+  const buffers = [Buffer.alloc(HASH_BLOCK_BYTES), Buffer.alloc(HASH_BLOCK_BYTES)] as const;
+  const wide = new Float64Array(perBlock);
   const handle = await open(path, 'r');
+  const readBlock = (index: number, buffer: Buffer) => readSome(handle, buffer, Math.min(perBlock, total - index) * width, index * width);
+  let next = total > 0 ? readBlock(0, buffers[0]) : null;
   try {
-    for (let index = 0; index < total; ) {
-      const count = (await readSome(handle, raw, Math.min(CHUNK, (total - index) * width), index * width)) / width;
-      // A chunk may span rows; each row's part is converted with that row's channel.
+    for (let index = 0, n = 0; next !== null; n++) {
+      const raw = buffers[n % 2]!;
+      const count = (await next) / width;
+      next = index + count < total ? readBlock(index + count, buffers[(n + 1) % 2]!) : null;
+      // A block may span rows; each row's part is converted with that row's channel.
       for (let at = 0; at < count; ) {
         const row = Math.floor((index + at) / shape.samplesPerEpoch);
         const end = Math.min(count, (row + 1) * shape.samplesPerEpoch - index);
@@ -280,6 +308,7 @@ async function hashStored(
       index += count;
     }
   } finally {
+    await next?.catch(() => 0);
     await handle.close();
   }
   return hash.digest('hex');

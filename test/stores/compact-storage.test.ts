@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import { afterAll, describe, expect, it } from 'vitest';
 import { signalSha256 } from '../../src/signals/content-hash.js';
+import { writeEdf } from '../../src/signals/edf/index.js';
 import { edfToSignal } from '../../src/signals/edf-to-signal.js';
 import { DEFAULT_SIGNAL_LIMITS } from '../../src/signals/limits.js';
 import { materialize } from '../../src/signals/sample-source.js';
@@ -92,6 +93,29 @@ describe.each(stores)('%s store, samples kept at their source precision', (_name
     expect(back.events).toEqual(meta.events);
     const whole = await store.getSignal(meta.id);
     expect(bitsOf(whole!.signal.data).equals(bitsOf(decoded.data))).toBe(true);
+  });
+
+  it.skipIf(!enabled)('should store an EDF larger than one read batch, rows larger than one block, as the values decoding it in memory gives', async () => {
+    const store = await create();
+    // Plain EDF, 2 channels × 200 Hz × 11 000 one-second records: 8.8 MB, more than the 8 MiB read
+    // per batch, and each row (4.4 MB of codes) spans many blocks of the hash pass and Redis chunks.
+    const fs = 200;
+    const records = 11_000;
+    const wave = (phase: number, scale: number) => Float64Array.from({ length: fs * records }, (_, i) => scale * (80 * Math.sin(i / 7 + phase) + 20 * Math.sin(i / 1013)));
+    const edf = writeEdf({
+      signals: [
+        { label: 'O1', samples: wave(0, 1), samplingRate: fs, physicalDimension: 'uV', physicalMinimum: -100, physicalMaximum: 100 },
+        { label: 'O2', samples: wave(1, 1e-3), samplingRate: fs, physicalDimension: 'mV', physicalMinimum: -0.1, physicalMaximum: 0.1 },
+      ],
+      recordDuration: 1,
+      startDate: { year: 2026, month: 12, day: 2, hour: 1, minute: 0, second: 0 },
+    });
+    const meta = await ingestFile(store, await fileOf('long.edf', edf), { format: 'edf' }, options());
+    const decoded = edfToSignal(edf, {}, DEFAULT_SIGNAL_LIMITS);
+    expect(meta.sha256).toBe(signalSha256(decoded));
+    expect(meta.bytes).toBe(2 * fs * records * 2);
+    const back = await readBack(store, meta.id);
+    expect(bitsOf(back.data).equals(bitsOf(decoded.data))).toBe(true);
   });
 
   it.skipIf(!enabled)('should store float32 uploads as float32 and read back v·10^k with one rounding, under the ids pinned before', async () => {
