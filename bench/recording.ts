@@ -9,8 +9,9 @@
  * (so its fields are the project's own), the two fields that depend on the length are patched (the
  * number of data records at offset 236 and the annotation signal's samples per record), and the
  * 7200 one-second records are appended as int16 with the same calibration, in batches.
- * The server, by contrast, holds the whole recording as float64 while a job runs (64 × 3 686 400 × 8
- * bytes ≈ 1.8 GiB); that is acceptable on this 24 GiB machine and is what the RSS figure shows.
+ * The server stores the int16 codes as they are (450 MiB), but a job still holds the whole
+ * recording as float64 (64 × 3 686 400 × 8 bytes ≈ 1.8 GiB); that is acceptable on this 24 GiB
+ * machine and is what the RSS figure shows.
  *
  * Bounded: 10 minutes in all, whatever happens; the child is killed and the temp files removed.
  * Prints figures, never asserts. Run: npx tsx bench/recording.ts
@@ -236,7 +237,7 @@ export async function benchRecording(): Promise<string[]> {
     const signal = JSON.parse(sent.body) as { id: string; channels: string[]; samplesPerEpoch: number; samplingRate: number; events?: unknown[]; bytes: number };
     lines.push(
       `  upload: 201 after ${(sent.answeredMs / 1000).toFixed(1)} s (${rate(size, sent.answeredMs)} MiB/s end to end, body sent in ${(sent.sentMs / 1000).toFixed(1)} s); ` +
-        `stored ${signal.channels.length} ch × ${signal.samplesPerEpoch} samples at ${signal.samplingRate} Hz, ${signal.events?.length ?? 0} events, ${mib(signal.bytes)} MiB as float64; server peak VmRSS ${mib(server.peakRss())} MiB`,
+        `stored ${signal.channels.length} ch × ${signal.samplesPerEpoch} samples at ${signal.samplingRate} Hz, ${signal.events?.length ?? 0} events, ${mib(signal.bytes)} MiB as stored (${mib(signal.channels.length * signal.samplesPerEpoch * 8)} MiB as float64); server peak VmRSS ${mib(server.peakRss())} MiB`,
     );
     // RECORDING_UPLOAD_ONLY=1 stops after the upload, for measuring the upload alone.
     if (process.env.RECORDING_UPLOAD_ONLY !== '1') for (const { name, recipe } of RECIPES) lines.push(`  job, ${name}: ${await runJob(server, signal.id, recipe, remaining)}`);
