@@ -118,7 +118,7 @@ async function decodeFloat32File(input: FileHandle, size: number, out: string, d
     const wide = new Float64Array(CHUNK / 4);
     let index = 0;
     for (let position = 0; position < size; ) {
-      const bytesRead = await readSome(input, raw, Math.min(CHUNK, size - position), position);
+      const bytesRead = await readExactly(input, raw, Math.min(CHUNK, size - position), position);
       const count = bytesRead / 4;
       decodeSamples(encoding, 0, raw, count, wide);
       for (let i = 0; i < count; i++) {
@@ -202,12 +202,12 @@ async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Ex
     const digital = new Int16Array(selected.length * batch * perRecord);
     const physical = encoding.kind === 'float64' ? new Float64Array(selected.length * batch * perRecord) : null;
     const readBatch = (r0: number, buffer: Buffer) => readAll(input, buffer, (Math.min(header.recordCount, r0 + batch) - r0) * header.recordBytes, header.headerBytes + r0 * header.recordBytes);
-    reading = header.recordCount > 0 ? readBatch(0, buffers[0]) : null;
+    reading = header.recordCount > 0 ? handled(readBatch(0, buffers[0])) : null;
     for (let r0 = 0, n = 0; r0 < header.recordCount; r0 += batch, n++) {
       const r1 = Math.min(header.recordCount, r0 + batch);
       const buffer = buffers[n % 2]!;
       await reading;
-      reading = r1 < header.recordCount ? readBatch(r1, buffers[(n + 1) % 2]!) : null;
+      reading = r1 < header.recordCount ? handled(readBatch(r1, buffers[(n + 1) % 2]!)) : null;
       let records;
       try {
         // Timing and annotations only: the samples are copied below as codes.
@@ -253,7 +253,7 @@ async function decodeEdfFile(input: FileHandle, size: number, out: string, d: Ex
       ...(shifted.length ? { events: shifted } : {}),
     };
     // The file is flushed to disk while it is hashed, so the store's own flush finds little left to do.
-    flushed = output.sync();
+    flushed = handled(output.sync());
     // The codes were written channel by channel; the content hash runs over the float64 values in
     // [channel][sample] order, so it is taken in a second pass over the stored file.
     const survey = new AmplitudeSurvey(description.channels);
@@ -288,13 +288,13 @@ async function hashStored(
   const buffers = [Buffer.alloc(HASH_BLOCK_BYTES), Buffer.alloc(HASH_BLOCK_BYTES)] as const;
   const wide = new Float64Array(perBlock);
   const handle = await open(path, 'r');
-  const readBlock = (index: number, buffer: Buffer) => readSome(handle, buffer, Math.min(perBlock, total - index) * width, index * width);
-  let next = total > 0 ? readBlock(0, buffers[0]) : null;
+  const readBlock = (index: number, buffer: Buffer) => readExactly(handle, buffer, Math.min(perBlock, total - index) * width, index * width);
+  let next = total > 0 ? handled(readBlock(0, buffers[0])) : null;
   try {
     for (let index = 0, n = 0; next !== null; n++) {
       const raw = buffers[n % 2]!;
       const count = (await next) / width;
-      next = index + count < total ? readBlock(index + count, buffers[(n + 1) % 2]!) : null;
+      next = index + count < total ? handled(readBlock(index + count, buffers[(n + 1) % 2]!)) : null;
       // A block may span rows; each row's part is converted with that row's channel.
       for (let at = 0; at < count; ) {
         const row = Math.floor((index + at) / shape.samplesPerEpoch);
@@ -314,10 +314,18 @@ async function hashStored(
   return hash.digest('hex');
 }
 
-/** Reads up to `length` bytes at `position`, at least one whole sample's worth; throws at the end of the file. */
-async function readSome(handle: FileHandle, buffer: Uint8Array, length: number, position: number): Promise<number> {
+/**
+ * A read or flush started now and awaited later: a failure meanwhile is not an unhandled rejection
+ * (which would end the process); it is thrown where the promise is awaited.
+ */
+function handled<T>(promise: Promise<T>): Promise<T> {
+  promise.catch(() => undefined);
+  return promise;
+}
+
+/** Reads exactly `length` bytes at `position` (completing short reads, so chunks stay whole samples); throws at the end of the file. */
+async function readExactly(handle: FileHandle, buffer: Uint8Array, length: number, position: number): Promise<number> {
   let done = 0;
-  // A short read is completed so that chunks stay whole samples.
   while (done < length) {
     const { bytesRead } = await handle.read(buffer, done, length - done, position + done);
     if (bytesRead === 0) throw new Error(`file ended after ${position + done} bytes, ${length - done} bytes short`);

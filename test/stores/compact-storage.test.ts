@@ -256,6 +256,37 @@ describe.skipIf(!stores[1]![1])('redis store, rows on demand', () => {
   });
 });
 
+describe('an EDF refused in its second read batch', () => {
+  it('should store nothing and leave no samples file behind', async () => {
+    const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-compact-bad-'));
+    cleanups.push(() => rm(dir, { recursive: true, force: true }));
+    const store = new FilesystemStore(dir);
+    const fs = 200;
+    const records = 22_000;
+    const edf = writeEdf({
+      signals: [
+        { label: 'Cz', samples: Float64Array.from({ length: fs * records }, (_, i) => 50 * Math.sin(i / 9)), samplingRate: fs, physicalDimension: 'uV', physicalMinimum: -60, physicalMaximum: 60 },
+      ],
+      recordDuration: 1,
+      startDate: { year: 2026, month: 12, day: 2, hour: 3, minute: 0, second: 0 },
+      annotations: [],
+    });
+    // The last record's time-keeping TAL says +29999 s instead of +21999 s: an EDF+C file must be
+    // contiguous (EDF+ §2.2.4), and this record lies beyond the first 8 MiB batch.
+    const text = Buffer.from(edf.buffer, edf.byteOffset, edf.byteLength);
+    const at = text.lastIndexOf('+21999\x14\x14', undefined, 'latin1');
+    expect(at).toBeGreaterThan(8 * 1024 * 1024);
+    text.write('+29999', at, 'latin1');
+    await expect(ingestFile(store, await fileOf('gap.edf', edf), { format: 'edf' }, options())).rejects.toMatchObject({
+      kind: 'format',
+      code: 'invalid-signal',
+      message: expect.stringMatching(/record 22000/),
+    });
+    expect(await store.listSignals()).toEqual([]);
+    expect((await readdir(await store.tempDir())).filter((n) => n.endsWith('.part'))).toEqual([]);
+  });
+});
+
 describe('an EDF whose calibration would not survive the meta as JSON', () => {
   it('should be stored as float64 and read back exactly what decoding gives', async () => {
     const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-compact-neg0-'));
