@@ -162,7 +162,8 @@ export class RedisStore implements Store {
   async openSamples(id: string) {
     const meta = await this.getSignalMeta(id);
     if (meta === null) return null;
-    const path = join(await this.tempDir(), `${randomBytes(8).toString('hex')}.spool`);
+    // Named after the store's prefix: the temp directory is shared by every Redis store on the machine.
+    const path = join(await this.tempDir(), `${this.prefix.replace(/[^A-Za-z0-9_-]/g, '_')}-${randomBytes(8).toString('hex')}.spool`);
     let complete = false;
     try {
       const file = await open(path, 'w');

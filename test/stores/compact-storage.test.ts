@@ -243,7 +243,8 @@ describe.skipIf(!stores[1]![1])('redis store, rows on demand', () => {
     };
     await store.redis.set(`${store.prefix}:signal:${id}:samples`, Buffer.from(data.buffer));
     await store.redis.set(`${store.prefix}:signal:${id}:meta`, JSON.stringify(meta));
-    const spools = async () => (await readdir(await store.tempDir())).filter((n) => n.endsWith('.spool')).length;
+    // Only this store's spooled copies: other tests' Redis stores share the temp directory.
+    const spools = async () => (await readdir(await store.tempDir())).filter((n) => n.startsWith(`${store.prefix}-`) && n.endsWith('.spool')).length;
     const before = await spools();
     const opened = (await store.openSamples(id))!;
     expect(await spools()).toBe(before + 1);
@@ -253,6 +254,17 @@ describe.skipIf(!stores[1]![1])('redis store, rows on demand', () => {
     opened.source.close();
     expect(await spools()).toBe(before);
     expect(bitsOf((await store.getSignal(id))!.signal.data).equals(bitsOf(data))).toBe(true);
+  });
+
+  it('should answer null, and keep no spooled copy, when a chunk is gone (the signal deleted while it is read)', async () => {
+    const store = (await stores[1]![2]()) as RedisStore;
+    const meta = await ingestFile(store, await fileOf('gone.edf', pinnedEdf()), { format: 'edf' }, options());
+    await store.redis.del(`${store.prefix}:signal:${meta.id}:samples:0`);
+    // Only this store's spooled copies: other tests' Redis stores share the temp directory.
+    const spools = async () => (await readdir(await store.tempDir())).filter((n) => n.startsWith(`${store.prefix}-`) && n.endsWith('.spool')).length;
+    const before = await spools();
+    expect(await store.openSamples(meta.id)).toBeNull();
+    expect(await spools()).toBe(before);
   });
 });
 
