@@ -251,7 +251,7 @@ interface SignalInfo {
 }
 
 const describe = (s: SignalInfo): string =>
-  `${s.id}: ${s.channels.length} ch (${s.channels[0]}…${s.channels.at(-1)}), ${s.epochCount} epoch × ${s.samplesPerEpoch} samples at ${s.samplingRate} Hz, ${mib(s.bytes)} MiB stored as float64`;
+  `${s.id}: ${s.channels.length} ch (${s.channels[0]}…${s.channels.at(-1)}), ${s.epochCount} epoch × ${s.samplesPerEpoch} samples at ${s.samplingRate} Hz, ${mib(s.bytes)} MiB stored (float32 as uploaded)`;
 
 const memory = (server: ChildServer): string => {
   const hwm = readVm(server.pid, 'VmHWM');
@@ -267,7 +267,7 @@ export async function benchUpload(): Promise<string[]> {
   const free = fs.bavail * fs.bsize;
   lines.push(`upload: 1 GiB float32 body (${CHANNELS} ch × ${CHANNEL_SAMPLES} samples, 1 epoch, ${SAMPLING_RATE} Hz), generated in 1 MiB chunks, node:http over loopback to a child server`);
   if (free < MIN_FREE_BYTES) {
-    lines.push(`  skipped: ${(free / 2 ** 30).toFixed(1)} GiB free under ${tmpdir()}, below the 8 GiB a run needs (raw upload + float64 copy + stored signal)`);
+    lines.push(`  skipped: ${(free / 2 ** 30).toFixed(1)} GiB free under ${tmpdir()}, below the 8 GiB a run needs (raw upload + stored copy + stored signal, with room to spare)`);
     return lines;
   }
   if (new Uint8Array(Float32Array.of(1).buffer)[3] !== 0x3f) {

@@ -2473,6 +2473,7 @@ export interface components {
         Recipe: components["schemas"]["WelchRecipe"] | components["schemas"]["MultitaperRecipe"] | components["schemas"]["PeriodogramRecipe"] | components["schemas"]["SpectrogramRecipe"] | components["schemas"]["MorletRecipe"] | components["schemas"]["ConnectivityRecipe"];
         RecipeInput: components["schemas"]["WelchRecipeInput"] | components["schemas"]["MultitaperRecipeInput"] | components["schemas"]["PeriodogramRecipeInput"] | components["schemas"]["SpectrogramRecipeInput"] | components["schemas"]["MorletRecipeInput"] | components["schemas"]["ConnectivityRecipeInput"];
         SignalInfo: {
+            /** @description size of the samples as stored, what MAX_STORE_BYTES counts: 2 bytes a sample for EDF uploads, 4 for float32, 8 for JSON */
             bytes: number;
             channels: string[];
             epochCount: number;

@@ -1,4 +1,5 @@
 import { jobIdOf } from '../jobs/spec.js';
+import type { SampleSource } from '../signals/sample-source.js';
 import type { Signal } from '../signals/signal.js';
 import type { Collection, SignalMeta, Store } from '../stores/store.js';
 
@@ -127,6 +128,9 @@ export class RecordCachingStore implements Store {
   }
   getSignal(id: string): Promise<{ meta: SignalMeta; signal: Signal } | null> {
     return this.store.getSignal(id);
+  }
+  openSamples(id: string): Promise<{ meta: SignalMeta; source: SampleSource } | null> {
+    return this.store.openSamples(id);
   }
   putDocument(collection: Collection, key: string, text: string, options?: { durable?: boolean }): Promise<void> {
     return this.store.putDocument(collection, key, text, options);

@@ -125,7 +125,7 @@ export const SignalInfoSchema = z
     samplesPerEpoch: z.number().int(),
     nonFiniteSamples: z.number().int(),
     events: z.array(EventSchema),
-    bytes: z.number().int(),
+    bytes: z.number().int().describe('size of the samples as stored, what MAX_STORE_BYTES counts: 2 bytes a sample for EDF uploads, 4 for float32, 8 for JSON'),
     storedAt: z.string(),
     warnings: z.array(z.string()).optional().describe('what the upload checks noticed but let through, e.g. an amplitude far outside the EEG range for the unit'),
   })

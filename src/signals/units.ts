@@ -38,6 +38,19 @@ export function shiftDecimal(value: number, exponent: number): number {
   return Number(`${mantissa}e${Number(power) + exponent}`);
 }
 
+/**
+ * Takes float32 samples to the stored unit: `values[i]·10^exponent` into `out[i]` for i < count.
+ * float32 values are exact in float64; one multiplication (or, for a negative exponent, one
+ * division — 1e-3 is not exact) takes each there with a single rounding. The one place this is
+ * written: ingest and the reader of samples stored as float32 both call it, so both give the same bits.
+ */
+export function scaleFloat32(values: Float32Array, exponent: number, out: Float64Array, count = values.length): void {
+  const factor = 10 ** Math.abs(exponent);
+  if (exponent === 0) for (let i = 0; i < count; i++) out[i] = values[i]!;
+  else if (exponent > 0) for (let i = 0; i < count; i++) out[i] = values[i]! * factor;
+  else for (let i = 0; i < count; i++) out[i] = values[i]! / factor;
+}
+
 /** The unit a signal is stored in, and the decimal exponent that takes its samples there. */
 export interface StoredUnit {
   /** 'uV' for any voltage; the declared unit otherwise */

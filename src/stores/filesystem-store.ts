@@ -1,12 +1,17 @@
 import { randomBytes } from 'node:crypto';
 import { link, mkdir, open, readFile, readdir, rename, rm, stat } from 'node:fs/promises';
 import { join } from 'node:path';
-import { checkKey, signalFromParts, type Collection, type SignalMeta, type Store } from './store.js';
+import { openSampleFile } from './sample-file.js';
+import { checkKey, readWholeSignal, type Collection, type SignalMeta, type Store } from './store.js';
+
+/** The samples file's extension for each encoding; signals stored before encodings are float64. */
+const EXTENSIONS = { float64: 'f64', float32: 'f32', int16: 'i16' } as const;
 
 /**
  * Everything under one data directory:
- * `signals/<id>.f64` (little-endian float64 samples), `signals/<id>.json` (meta, written last, so a
- * signal exists only once both are complete), and `<collection>/<key>.json`.
+ * `signals/<id>.f64`, `.f32` or `.i16` (little-endian samples in the meta's encoding),
+ * `signals/<id>.json` (meta, written last, so a signal exists only once both are complete), and
+ * `<collection>/<key>.json`.
  */
 export class FilesystemStore implements Store {
   readonly kind = 'filesystem' as const;
@@ -59,7 +64,7 @@ export class FilesystemStore implements Store {
     // Both files are written and flushed at once; the samples are renamed into place before the
     // meta, so a signal exists for readers only once both are complete.
     const [samplesTemp, metaTemp] = await Promise.all([this.writeTemp(samples, true), this.writeTemp(JSON.stringify(meta), true)]);
-    await this.commitTemp(samplesTemp, join(this.dataDir, 'signals', `${id}.f64`));
+    await this.commitTemp(samplesTemp, this.samplesPath(meta));
     await this.publishMeta(metaTemp, meta);
   }
 
@@ -90,7 +95,7 @@ export class FilesystemStore implements Store {
     } finally {
       await handle.close();
     }
-    await rename(path, join(this.dataDir, 'signals', `${id}.f64`));
+    await rename(path, this.samplesPath(meta));
     await this.publishMeta(await this.writeTemp(JSON.stringify(meta), true), meta);
   }
 
@@ -132,7 +137,7 @@ export class FilesystemStore implements Store {
     if (!meta) return false;
     // Meta first: once it is gone the signal no longer exists for readers, whatever happens next.
     await rm(join(this.dataDir, 'signals', `${checkKey(id)}.json`), { force: true });
-    await rm(join(this.dataDir, 'signals', `${id}.f64`), { force: true });
+    await rm(this.samplesPath(meta), { force: true });
     await this.adjustUsage(-1, -meta.bytes);
     return true;
   }
@@ -166,24 +171,24 @@ export class FilesystemStore implements Store {
     return text === null ? null : (JSON.parse(text) as SignalMeta);
   }
 
-  async getSignal(id: string) {
+  private samplesPath(meta: SignalMeta): string {
+    return join(this.dataDir, 'signals', `${checkKey(meta.id)}.${EXTENSIONS[meta.encoding ?? 'float64']}`);
+  }
+
+  getSignal(id: string) {
+    return readWholeSignal(this, id);
+  }
+
+  async openSamples(id: string) {
     const meta = await this.getSignalMeta(id);
     if (!meta) return null;
-    // Read straight into the Float64Array's memory: a large recording is held once, not twice.
-    const data = new Float64Array(meta.bytes / 8);
-    const bytes = new Uint8Array(data.buffer);
-    const handle = await open(join(this.dataDir, 'signals', `${checkKey(id)}.f64`), 'r');
     try {
-      let offset = 0;
-      while (offset < bytes.length) {
-        const { bytesRead } = await handle.read(bytes, offset, Math.min(bytes.length - offset, 1 << 26), offset);
-        if (bytesRead === 0) throw new Error(`stored samples of ${id} end after ${offset} of ${meta.bytes} bytes`);
-        offset += bytesRead;
-      }
-    } finally {
-      await handle.close();
+      return { meta, source: openSampleFile(this.samplesPath(meta), meta) };
+    } catch (error) {
+      // Deleted between the meta and the samples: as if it had not been there.
+      if ((error as NodeJS.ErrnoException).code === 'ENOENT' && !(await this.getSignalMeta(id))) return null;
+      throw error;
     }
-    return { meta, signal: signalFromParts(meta, bytes) };
   }
 
   async putDocument(collection: Collection, key: string, text: string, options: { durable?: boolean } = {}): Promise<void> {

@@ -1,3 +1,5 @@
+import { randomBytes } from 'node:crypto';
+import { rmSync } from 'node:fs';
 import { mkdir, open, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -20,7 +22,8 @@ if redis.call('SETNX', KEYS[1], ARGV[1]) == 0 then return 0 end
 redis.call('INCRBY', KEYS[2], ARGV[2])
 redis.call('INCR', KEYS[3])
 return 1`;
-import { checkKey, signalFromParts, type Collection, type SignalMeta, type Store } from './store.js';
+import { openSampleFile } from './sample-file.js';
+import { checkKey, readWholeSignal, type Collection, type SignalMeta, type Store } from './store.js';
 
 /**
  * Signals and documents in Redis, for workers on machines without a shared disk. A signal's meta
@@ -147,19 +150,55 @@ export class RedisStore implements Store {
     return text === null ? null : (JSON.parse(text) as SignalMeta);
   }
 
-  async getSignal(id: string) {
+  getSignal(id: string) {
+    return readWholeSignal(this, id);
+  }
+
+  /**
+   * Reads must be synchronous (the engine is) and Redis answers asynchronously, so the samples are
+   * first copied, one chunk at a time, into a file under tempDir(), which the source reads and
+   * removes when it is closed: memory holds one chunk, the disk one copy of the stored bytes.
+   */
+  async openSamples(id: string) {
     const meta = await this.getSignalMeta(id);
     if (meta === null) return null;
-    // Signals stored before chunks hold their samples in one value.
-    const whole = await this.redis.getBuffer(this.key('signal', id, 'samples'));
-    if (whole !== null) return { meta, signal: signalFromParts(meta, whole) };
-    const samples = new Uint8Array(new ArrayBuffer(meta.bytes));
-    for (const [n, key] of this.chunkKeys(id, meta.bytes).entries()) {
-      const chunk = await this.redis.getBuffer(key);
-      if (chunk === null) return null; // deleted while it was read
-      samples.set(chunk, n * SAMPLE_CHUNK_BYTES);
+    // Named after the store's prefix: the temp directory is shared by every Redis store on the machine.
+    const path = join(await this.tempDir(), `${this.prefix.replace(/[^A-Za-z0-9_-]/g, '_')}-${randomBytes(8).toString('hex')}.spool`);
+    let complete = false;
+    try {
+      const file = await open(path, 'w');
+      try {
+        complete = await this.spoolSamples(meta, async (chunk, position) => {
+          for (let done = 0; done < chunk.length; ) done += (await file.write(chunk, done, chunk.length - done, position + done)).bytesWritten;
+        });
+      } finally {
+        await file.close();
+      }
+      if (!complete) return null;
+      return { meta, source: openSampleFile(path, meta, () => rmSync(path, { force: true })) };
+    } finally {
+      if (!complete) await rm(path, { force: true });
     }
-    return { meta, signal: signalFromParts(meta, samples) };
+  }
+
+  /** Hands every stored chunk of a signal's samples to `write` in order; false when the signal was deleted meanwhile. */
+  private async spoolSamples(meta: SignalMeta, write: (chunk: Buffer, position: number) => Promise<void>): Promise<boolean> {
+    // Signals stored before chunks hold their samples in one value: read in chunk-sized ranges.
+    const whole = this.key('signal', meta.id, 'samples');
+    if ((await this.redis.exists(whole)) === 1) {
+      for (let position = 0; position < meta.bytes; position += SAMPLE_CHUNK_BYTES) {
+        const chunk = await this.redis.getrangeBuffer(whole, position, Math.min(meta.bytes, position + SAMPLE_CHUNK_BYTES) - 1);
+        if (chunk.length === 0) return false;
+        await write(chunk, position);
+      }
+      return true;
+    }
+    for (const [n, key] of this.chunkKeys(meta.id, meta.bytes).entries()) {
+      const chunk = await this.redis.getBuffer(key);
+      if (chunk === null) return false; // deleted while it was read
+      await write(chunk, n * SAMPLE_CHUNK_BYTES);
+    }
+    return true;
   }
 
   async putDocument(collection: Collection, key: string, text: string): Promise<void> {

@@ -1,5 +1,6 @@
 import { DomainError } from '../common/errors.js';
 import { sampleBytes, signalIdFromHash, signalSha256 } from '../signals/content-hash.js';
+import { FLOAT64, encodingFields } from '../signals/sample-encoding.js';
 import { findNonFinite, type Signal } from '../signals/signal.js';
 import { amplitudeWarnings } from '../signals/units.js';
 import { withStorageReservation, type SignalMeta, type Store } from './store.js';
@@ -21,7 +22,9 @@ export async function storeSignal(store: Store, signal: Signal, tenant: string, 
     samplesPerEpoch: signal.samplesPerEpoch,
     nonFiniteSamples: findNonFinite(signal).count,
     events: signal.events ?? [],
+    // Values given as JSON numbers are kept as float64.
     bytes: signal.data.byteLength,
+    ...encodingFields(FLOAT64),
     storedAt: new Date().toISOString(),
     warnings: amplitudeWarnings(signal),
   };

@@ -1,15 +1,20 @@
 import { DomainError } from '../common/errors.js';
+import { materialize, type SampleSource } from '../signals/sample-source.js';
+import type { EncodingFields } from '../signals/sample-encoding.js';
 import type { Signal, SignalDescription, SignalEvent } from '../signals/signal.js';
 
-/** What is kept about a stored signal besides its samples. */
-export interface SignalMeta extends SignalDescription {
+/**
+ * What is kept about a stored signal besides its samples. The encoding fields say how the samples
+ * are kept (absent: float64); reads give the same float64 values whatever it is.
+ */
+export interface SignalMeta extends SignalDescription, EncodingFields {
   id: string;
   sha256: string;
   /** the tenant that uploaded it; only that tenant's keys can see or use it */
   tenant: string;
   nonFiniteSamples: number;
   events: SignalEvent[];
-  /** bytes of float64 samples */
+  /** bytes of the samples as stored (what MAX_STORE_BYTES counts): 2, 4 or 8 a sample by encoding */
   bytes: number;
   /** what the upload's checks noticed but let through (e.g. an implausible amplitude for the unit) */
   warnings?: string[];
@@ -25,13 +30,21 @@ export type Collection = 'recipes' | 'records' | 'jobs' | 'job-index' | 'studies
  */
 export interface Store {
   readonly kind: 'filesystem' | 'redis';
+  /** Stores `meta.bytes` bytes of samples, little-endian in the meta's encoding, [epoch][channel][sample]. */
   putSignal(meta: SignalMeta, samples: Uint8Array): Promise<void>;
-  /** Stores samples already written (little-endian float64) to `path` under tempDir(); the file is moved or consumed. */
+  /** Stores samples already written (little-endian, in the meta's encoding) to `path` under tempDir(); the file is moved or consumed. */
   putSignalFile(meta: SignalMeta, path: string): Promise<void>;
   /** A directory for files on their way into the store (same file system for filesystem stores). */
   tempDir(): Promise<string>;
   getSignalMeta(id: string): Promise<SignalMeta | null>;
+  /** The whole signal as float64 in memory: {@link readWholeSignal} over {@link Store.openSamples}. */
   getSignal(id: string): Promise<{ meta: SignalMeta; signal: Signal } | null>;
+  /**
+   * The signal's samples, read a row span at a time as float64 (converted from the stored
+   * encoding), holding a bounded buffer instead of the whole recording; null when there is no such
+   * signal. The caller closes the source.
+   */
+  openSamples(id: string): Promise<{ meta: SignalMeta; source: SampleSource } | null>;
   /**
    * `durable: false` skips the flush to disk: the write is still atomic (a crash leaves the old or
    * the new text), but a power loss may lose it. Used for job states that can be recovered.
@@ -56,23 +69,15 @@ export interface Store {
 /** How a worker thread or process reaches the same store as the API. */
 export type StoreConfig = { kind: 'filesystem'; dataDir: string } | { kind: 'redis'; url: string; prefix: string };
 
-export function signalFromParts(meta: SignalMeta, samples: Uint8Array): Signal {
-  if (samples.byteLength !== meta.bytes) {
-    throw new Error(`stored samples of ${meta.id} have ${samples.byteLength} bytes, expected ${meta.bytes}`);
+/** Every sample of a stored signal in one Float64Array: the one way stores implement getSignal. */
+export async function readWholeSignal(store: Pick<Store, 'openSamples'>, id: string): Promise<{ meta: SignalMeta; signal: Signal } | null> {
+  const opened = await store.openSamples(id);
+  if (opened === null) return null;
+  try {
+    return { meta: opened.meta, signal: materialize(opened.source) };
+  } finally {
+    opened.source.close();
   }
-  const aligned = samples.byteOffset % 8 === 0 && samples.buffer instanceof ArrayBuffer;
-  const copy = aligned ? new Float64Array(samples.buffer, samples.byteOffset, meta.bytes / 8) : new Float64Array(meta.bytes / 8);
-  if (!aligned) new Uint8Array(copy.buffer).set(samples);
-  const signal: Signal = {
-    samplingRate: meta.samplingRate,
-    channels: meta.channels,
-    unit: meta.unit,
-    epochCount: meta.epochCount,
-    samplesPerEpoch: meta.samplesPerEpoch,
-    data: copy,
-  };
-  if (meta.events.length > 0) signal.events = meta.events;
-  return signal;
 }
 
 /** Too little room under the configured store limit; nothing was stored. */

@@ -60,15 +60,15 @@ describe('when resumable upload parts fill the store limit', () => {
   });
 
   it('should let an upload complete when its signal fits, its own parts not counted twice', async () => {
-    // 400 000 raw float32 bytes become 800 000 float64 bytes: parts + signal would be 1.2 MB.
-    const api = await limited(1_000_000);
+    // 400 000 raw float32 bytes are stored as float32 (400 000 bytes): parts + signal would be 800 000, over the limit.
+    const api = await limited(700_000);
     const id = await startUpload(api);
     const raw = Buffer.from(new Float32Array(100_000).map((_, i) => Math.sin(i / 11)).buffer);
     expect((await api.app.inject({ method: 'PUT', url: `/v1/uploads/${id}/parts/1`, headers: octet, payload: raw })).statusCode).toBe(200);
     const done = await api.app.inject({ method: 'POST', url: `/v1/uploads/${id}/complete`, payload: { parts: 1 } });
     expect(done.statusCode).toBe(201);
-    expect((await api.store.usage()).bytes).toBe(800_000);
-    // The parts' room is free again: a 160 000-byte signal fits beside the 800 000.
+    expect((await api.store.usage()).bytes).toBe(400_000);
+    // The parts' room is free again: a 160 000-byte signal fits beside the 400 000.
     expect((await api.app.inject({ method: 'POST', url: '/v1/signals', payload: signal(Array.from({ length: 20 }, (_, c) => `E${c + 1}`)) })).statusCode).toBe(201);
   });
 

@@ -1,17 +1,6 @@
-import { mkdtemp, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { afterAll, describe, expect, it } from 'vitest';
-import { FilesystemStore } from '../../src/stores/filesystem-store.js';
-import { RedisStore } from '../../src/stores/redis-store.js';
-import type { SignalMeta, Store } from '../../src/stores/store.js';
-import { redisForTests, TEST_REDIS_URL, uniqueName } from '../helpers/redis.js';
-
-const withRedis = await redisForTests();
-const cleanups: (() => Promise<void>)[] = [];
-afterAll(async () => {
-  for (const cleanup of cleanups) await cleanup();
-});
+import { describe, expect, it } from 'vitest';
+import type { SignalMeta } from '../../src/stores/store.js';
+import { storeKinds } from './store-kinds.js';
 
 const samples = new Uint8Array(new Float64Array([1, 2, 3, 4]).buffer);
 const meta: SignalMeta = {
@@ -29,31 +18,7 @@ const meta: SignalMeta = {
   storedAt: '2026-12-01T00:00:00.000Z',
 };
 
-const stores: [string, boolean, () => Promise<Store>][] = [
-  [
-    'filesystem',
-    true,
-    async () => {
-      const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-usage-'));
-      cleanups.push(() => rm(dir, { recursive: true, force: true }));
-      return new FilesystemStore(dir);
-    },
-  ],
-  [
-    'redis',
-    withRedis,
-    async () => {
-      const prefix = uniqueName('rm-usage');
-      const store = new RedisStore(TEST_REDIS_URL, prefix);
-      cleanups.push(async () => {
-        const keys = await store.redis.keys(`${prefix}:*`);
-        if (keys.length > 0) await store.redis.del(...keys);
-        await store.close();
-      });
-      return store;
-    },
-  ],
-];
+const stores = await storeKinds('usage');
 
 describe.each(stores)('%s store', (_name, enabled, create) => {
   it.skipIf(!enabled)('should count a signal stored twice at once only once (storing the same content is harmless)', async () => {

@@ -9,9 +9,12 @@ export {
   type ReadEdfHeaderOptions,
 } from './header.js';
 export {
+  calibrate,
+  copyDigital,
   decodeEdfRecords,
   edfRecordByteRange,
   type DecodeEdfRecordsOptions,
+  type EdfCalibration,
   type EdfGap,
   type EdfRecords,
   type EdfSignalData,

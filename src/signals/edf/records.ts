@@ -1,3 +1,4 @@
+import { endianness } from 'node:os';
 import { EdfFormatError } from './errors.js';
 import type { EdfHeader, EdfSignalHeader } from './header.js';
 import { parseTals, type EdfAnnotation } from './tal.js';
@@ -120,17 +121,12 @@ export function decodeEdfRecords(header: EdfHeader, bytes: Uint8Array, options: 
   }
 
   const count = endRecord - startRecord;
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   const selected = selectChannels(header, options.channels);
   const signals: EdfSignalData[] = selected.map((s) => {
-    const samples = new Float64Array(count * s.samplesPerRecord);
-    for (let r = 0; r < count; r++) {
-      let at = range.start - origin + r * header.recordBytes + s.recordByteOffset;
-      const base = r * s.samplesPerRecord;
-      for (let k = 0; k < s.samplesPerRecord; k++, at += 2) {
-        samples[base + k] = (view.getInt16(at, true) - s.digitalMinimum) * s.gain + s.physicalMinimum;
-      }
-    }
+    const digital = new Int16Array(count * s.samplesPerRecord);
+    copyDigital(header, s, bytes, range.start - origin, count, digital);
+    const samples = new Float64Array(digital.length);
+    calibrate(digital, s, samples);
     return { ...s, samplingRate: s.samplingRate!, samples };
   });
 
@@ -155,6 +151,51 @@ export function decodeEdfRecords(header: EdfHeader, bytes: Uint8Array, options: 
     }
   }
   return { startRecord, endRecord, signals, annotations, recordStarts, gaps: checkTimekeeping(header, startRecord, recordStarts, options.previousRecordStart) };
+}
+
+/** The linear map from a signal's digital codes to physical values (EDF §2.1.3; Kemp et al. 1992). */
+export interface EdfCalibration {
+  digitalMinimum: number;
+  /** (physmax − physmin)/(digmax − digmin) */
+  gain: number;
+  physicalMinimum: number;
+}
+
+/**
+ * physical = (digital − digmin)·gain + physmin for `digital[0 … count)` into `out[0 … count)`. The
+ * one place this expression is written: decoding an upload and reading back samples stored as
+ * 16-bit codes both call it, so both give the same float64 bits.
+ */
+export function calibrate(digital: Int16Array, calibration: EdfCalibration, out: Float64Array, count = digital.length): void {
+  const { digitalMinimum, gain, physicalMinimum } = calibration;
+  for (let i = 0; i < count; i++) out[i] = (digital[i]! - digitalMinimum) * gain + physicalMinimum;
+}
+
+const LITTLE_ENDIAN = endianness() === 'LE';
+
+/**
+ * Copies the 16-bit little-endian digital codes of signal `s` in `count` consecutive data records
+ * into `into`, record after record. `first` is the offset in `bytes` of the first record.
+ */
+export function copyDigital(header: EdfHeader, s: EdfSignalHeader, bytes: Uint8Array, first: number, count: number, into: Int16Array): void {
+  const perRecord = s.samplesPerRecord;
+  if (count === 0) return;
+  if (LITTLE_ENDIAN && (bytes.byteOffset + first) % 2 === 0) {
+    // Record and signal offsets are even (every field is a whole number of 2-byte samples), so
+    // one Int16Array view from the first record to this signal's last code in the last one serves.
+    const codes = new Int16Array(bytes.buffer, bytes.byteOffset + first, ((count - 1) * header.recordBytes + s.recordByteOffset) / 2 + perRecord);
+    // A plain loop: a subarray per record cost more in allocations than the copy itself.
+    const stride = header.recordBytes / 2;
+    for (let r = 0, out = 0; r < count; r++) {
+      for (let at = r * stride + s.recordByteOffset / 2, end = at + perRecord; at < end; at++, out++) into[out] = codes[at]!;
+    }
+    return;
+  }
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  for (let r = 0; r < count; r++) {
+    let at = first + r * header.recordBytes + s.recordByteOffset;
+    for (let k = 0; k < perRecord; k++, at += 2) into[r * perRecord + k] = view.getInt16(at, true);
+  }
 }
 
 function checkTimekeeping(header: EdfHeader, startRecord: number, recordStarts: Float64Array, previousRecordStart?: number): EdfGap[] {
