@@ -1,4 +1,5 @@
 import { MessageChannel } from 'node:worker_threads';
+import type { Signal } from '../signals/signal.js';
 import type { StoreConfig } from '../stores/store.js';
 import { createThreadBudget, defaultThreadCount, type ThreadBudget } from '../threads/budget.js';
 import { threadEntry } from '../threads/entry.js';
@@ -9,7 +10,11 @@ import type { JobSpec, RunMode } from './spec.js';
 export interface ComputePool {
   /** jobs computed at once */
   readonly threads: number;
-  run(spec: JobSpec, store: StoreConfig, mode: RunMode, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<PoolTaskOutput>;
+  /**
+   * Computes one job on a job thread. `samples`, the job's signal as the store holds it, is copied
+   * to the thread with the task (for a small upload a copy costs less than reading the file back).
+   */
+  run(spec: JobSpec, store: StoreConfig, mode: RunMode, onProgress: (fraction: number) => void, signal?: AbortSignal, samples?: Signal): Promise<PoolTaskOutput>;
   close(): Promise<void>;
 }
 
@@ -33,11 +38,11 @@ export function createComputePool(
   const pool = createThreadPool(threadEntry(import.meta.url, 'pool-task'), size);
   return {
     threads: size,
-    async run(spec, store, mode, onProgress, signal) {
+    async run(spec, store, mode, onProgress, signal, samples) {
       const { port1, port2 } = new MessageChannel();
       port1.on('message', (fraction: number) => onProgress(fraction));
       try {
-        const input: PoolTaskInput = { spec, store, mode, jobThreads, budget, port: port2 };
+        const input: PoolTaskInput = { spec, store, mode, jobThreads, budget, port: port2, ...(samples ? { signal: samples } : {}) };
         return (await pool.run(input, { transferList: [port2], ...(signal ? { signal } : {}) })) as PoolTaskOutput;
       } finally {
         port1.close();

@@ -34,7 +34,8 @@ export class FilesystemStore implements Store {
     const handle = await open(temp, 'w');
     try {
       await handle.writeFile(data);
-      if (durable) await handle.sync();
+      // fdatasync: the data and the size a reader needs, without the file times a full fsync also writes.
+      if (durable) await handle.datasync();
     } catch (error) {
       await handle.close();
       await rm(temp, { force: true });
