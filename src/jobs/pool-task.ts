@@ -17,7 +17,8 @@ export interface PoolTaskInput {
   jobThreads: number;
   /** the process's thread budget (shared memory): helpers take only free slots */
   budget: ThreadBudget;
-  port: MessagePort;
+  /** absent for a job too small to report progress (QUIET_JOB_WORK) */
+  port?: MessagePort;
   /** the job's signal, copied in with the task, when the queue still held the upload in memory */
   signal?: Signal;
 }
@@ -49,7 +50,7 @@ export default async function poolTask({ spec, store, mode, jobThreads, budget, 
         const step = Math.floor(fraction * 100);
         if (step > sent) {
           sent = step;
-          port.postMessage(fraction);
+          port?.postMessage(fraction);
         }
       },
       { channels: createChannelRunner({ threads: jobThreads, budget }), ...(signal ? { signal } : {}) },
@@ -61,6 +62,6 @@ export default async function poolTask({ spec, store, mode, jobThreads, budget, 
     throw error;
   } finally {
     release();
-    port.close();
+    port?.close();
   }
 }
