@@ -1,4 +1,4 @@
-import { mkdtemp, rm } from 'node:fs/promises';
+import { mkdtemp, readdir, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -31,17 +31,21 @@ async function job(signal: Signal) {
   const store = new FilesystemStore(dataDir);
   const meta = await storeSignal(store, signal, 'lab');
   const { spec } = planJob(recipeLimits, meta, normalizeRecipe({ method: 'welch', segmentSeconds: 1 }));
-  return { spec, storeConfig: { kind: 'filesystem' as const, dataDir } };
+  return { spec, store, storeConfig: { kind: 'filesystem' as const, dataDir } };
 }
 
 describe('when the compute pool runs a job', () => {
   it(`should report no progress for a job estimated at most ${QUIET_JOB_WORK} work, and succeed`, async () => {
-    const { spec, storeConfig } = await job(noise(4, 512, 1));
+    const { spec, store, storeConfig } = await job(noise(4, 512, 1));
     expect(spec.resolved!.cost.work).toBeLessThanOrEqual(QUIET_JOB_WORK);
     const progress: number[] = [];
     const output = await pool.run(spec, storeConfig, 'embedded', (f) => progress.push(f));
     expect(output.ok).toBe(true);
     expect(progress).toEqual([]);
+    // The thread wrote the record synchronously: in place, whole, and no temp file left behind.
+    const record = JSON.parse((await store.getDocument('records', spec.recordKey))!) as { resultHash: string };
+    expect(output.ok && record.resultHash).toBe(output.ok && output.outcome.resultHash);
+    expect(await readdir(join(storeConfig.dataDir, 'tmp'))).toEqual([]);
   });
 
   it('should report rising progress ending at 1 for a larger job', async () => {
