@@ -96,7 +96,7 @@ function recordingPool(threads = 1) {
     close: async () => {},
   };
   const finishNext = async (output: PoolTaskOutput | Error = succeeded) => {
-    for (let i = 0; i < 200 && finishers.length === 0; i++) await new Promise((r) => setTimeout(r, 5));
+    for (let i = 0; i < 2000 && finishers.length === 0; i++) await new Promise((r) => setTimeout(r, 5));
     finishers.shift()!(output);
   };
   return { pool, given, finishNext };
@@ -111,7 +111,7 @@ describe('when the embedded queue is given an upload with a job', () => {
     await queue.submit(spec('a'), 'job_a', { signal });
     await finishNext(new Error('the thread died'));
     await finishNext();
-    expect(await queue.waitFor('job_a', 2000)).toMatchObject({ state: 'succeeded', attempts: 2 });
+    expect(await queue.waitFor('job_a', 10_000)).toMatchObject({ state: 'succeeded', attempts: 2 });
     expect(given).toEqual([signal, undefined]);
     await queue.close();
   });
@@ -127,7 +127,7 @@ describe('when the embedded queue is given an upload with a job', () => {
     await queue.submit(spec('d'), 'job_d', { signal: signalOf(8) }); // fits beside b
     for (const id of ['job_a', 'job_b', 'job_c', 'job_d']) {
       await finishNext();
-      expect((await queue.waitFor(id, 2000)).state).toBe('succeeded');
+      expect((await queue.waitFor(id, 10_000)).state).toBe('succeeded');
     }
     expect(given.map((s) => s?.data.byteLength)).toEqual([8, half, undefined, 8]);
     await queue.close();
@@ -160,7 +160,7 @@ describe('when a job computes while its acceptance is being written', () => {
     expect((await queue.get('job_a'))?.state).toBe('running');
     release();
     expect((await submitting).job.state).toBe('running');
-    expect((await queue.waitFor('job_a', 2000)).state).toBe('succeeded');
+    expect((await queue.waitFor('job_a', 10_000)).state).toBe('succeeded');
     await queue.close();
     expect(written).toEqual(['running', 'succeeded']);
   });
@@ -170,7 +170,7 @@ describe('when a job computes while its acceptance is being written', () => {
     const { pool, given, finishNext } = recordingPool();
     const queue = await EmbeddedQueue.open({ store, storeConfig: { kind: 'filesystem', dataDir }, pool });
     const submitting = queue.submit(spec('a'), 'job_a');
-    for (let i = 0; i < 200 && given.length === 0; i++) await new Promise((r) => setTimeout(r, 5));
+    for (let i = 0; i < 2000 && given.length === 0; i++) await new Promise((r) => setTimeout(r, 5));
     release(new Error('disk full'));
     await expect(submitting).rejects.toThrow('disk full');
     expect(await queue.get('job_a')).toBeNull();
@@ -180,7 +180,7 @@ describe('when a job computes while its acceptance is being written', () => {
     store.putDocument = FilesystemStore.prototype.putDocument.bind(store);
     expect((await queue.submit(spec('b'), 'job_b')).job.state).toBe('running');
     await finishNext();
-    expect((await queue.waitFor('job_b', 2000)).state).toBe('succeeded');
+    expect((await queue.waitFor('job_b', 10_000)).state).toBe('succeeded');
     await queue.close();
     expect(written).toEqual([]);
   });
