@@ -54,7 +54,10 @@ describe('when a job is given the samples of its upload', () => {
     const { spec } = planJob(recipeLimits, meta, pinned);
     let reads = 0;
     const getSignal = handed.store.getSignal.bind(handed.store);
-    handed.store.getSignal = (id) => (reads++, getSignal(id));
+    handed.store.getSignal = (id) => {
+      reads++;
+      return getSignal(id);
+    };
     const outcome = await runJob(spec, handed.store, 'embedded', undefined, { signal: signalFromParts(meta, sampleBytes(decoded.data)) });
     expect(reads).toBe(0);
 
