@@ -60,7 +60,7 @@ const LABELS: Record<number, string> = { 50: 'median', 100: 'max' };
 
 function summary(samples: readonly number[], which: readonly number[]): string {
   const sorted = [...samples].sort((a, b) => a - b);
-  return which.map((p) => `${LABELS[p] ?? `p${p}`} ${percentile(sorted, p).toFixed(2)}`).join(', ') + ' ms';
+  return `${which.map((p) => `${LABELS[p] ?? `p${p}`} ${percentile(sorted, p).toFixed(2)}`).join(', ')} ms`;
 }
 
 class Bound extends Error {}

@@ -255,7 +255,7 @@ export class EmbeddedQueue implements JobQueue {
     while (!this.closed && this.running < this.concurrency && this.pending.length > 0) {
       const id = this.pending.shift()!;
       const entry = this.entries.get(id);
-      if (!entry || entry.view.state !== 'queued') continue;
+      if (entry?.view.state !== 'queued') continue;
       this.begin(entry);
       this.launch(entry, null);
     }
