@@ -4,7 +4,7 @@
  *
  * - the parts of the server's work, called in this process: decoding and hashing the upload,
  *   storing the signal, a job-state write durable and not, the worker's part (read the signal,
- *   analyze, write the record) and the analysis alone;
+ *   analyze, write the record), the same given the upload's samples, and the analysis alone;
  * - the thread hand-off: a pool task whose record already exists (read, no computation);
  * - end to end over loopback HTTP: POST → 202, 202 → finished (the queue's own notification) and
  *   finished → seen by a client polling every 1 ms.
@@ -85,6 +85,10 @@ export async function benchSmallJobBreakdown(): Promise<string[]> {
       stats('analyze() alone', await timed(ROUNDS, (i) => analyze(signals[i]!, plans[i]!.spec.resolved!, { signalId: metas[i]!.id, sha256: metas[i]!.sha256, recipeId: pinned.id, mode: 'embedded' }))),
     );
     lines.push(stats('runJob in this thread (read signal, analyze, write record)', await timed(ROUNDS, (i) => runJob(plans[i]!.spec, store, 'embedded'))));
+    // The same jobs again in a fresh directory, given the upload's samples as the route now does.
+    const handed = new FilesystemStore(join(dataDir, 'handed'));
+    for (let i = 0; i < ROUNDS; i++) await storeSignal(handed, signals[i]!, 'default');
+    lines.push(stats('runJob given the upload (analyze, write record)', await timed(ROUNDS, (i) => runJob(plans[i]!.spec, handed, 'embedded', undefined, { signal: signals[i]! }))));
     const pool = createComputePool(1, 1);
     try {
       const storeConfig = { kind: 'filesystem' as const, dataDir: join(dataDir, 'parts') };

@@ -58,12 +58,18 @@ export const SignalUploadSchema = z
   .meta({ id: 'SignalUpload' });
 
 /**
+ * One channel's samples, checked only for being an array: an element-wise zod pass over a small
+ * job's 16 000 samples cost more than a millisecond per request, and the decoder checks them all.
+ */
+const SampleRowEnvelope = z.custom<unknown[]>((row) => Array.isArray(row), 'Invalid input: expected array (one channel of samples)');
+
+/**
  * What the upload route validates with zod: everything but the sample arrays, which can hold
  * millions of numbers and are checked element by element by the decoder instead.
  */
 export const SignalUploadEnvelope = SignalUploadSchema.extend({
-  data: z.array(z.array(z.unknown())).optional(),
-  epochs: z.array(z.array(z.array(z.unknown()))).optional(),
+  data: z.array(SampleRowEnvelope).optional(),
+  epochs: z.array(z.array(SampleRowEnvelope)).optional(),
 });
 
 export const BinaryUploadQuery = z.strictObject({

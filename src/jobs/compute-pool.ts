@@ -1,4 +1,5 @@
-import { MessageChannel } from 'node:worker_threads';
+import { MessageChannel, receiveMessageOnPort } from 'node:worker_threads';
+import type { Signal } from '../signals/signal.js';
 import type { StoreConfig } from '../stores/store.js';
 import { createThreadBudget, defaultThreadCount, type ThreadBudget } from '../threads/budget.js';
 import { threadEntry } from '../threads/entry.js';
@@ -6,10 +7,21 @@ import { createThreadPool } from '../threads/pool.js';
 import type { PoolTaskInput, PoolTaskOutput } from './pool-task.js';
 import type { JobSpec, RunMode } from './spec.js';
 
+/**
+ * Estimated work (the methods' `cost().work`) up to which a job reports no progress: such a job takes
+ * a few milliseconds (the API latency benchmark's job, 32 ch × 2 s × 256 Hz Welch, is about 5·10^5),
+ * and a progress channel would add a port to set up and a message per channel to its round trip.
+ */
+export const QUIET_JOB_WORK = 2e6;
+
 export interface ComputePool {
   /** jobs computed at once */
   readonly threads: number;
-  run(spec: JobSpec, store: StoreConfig, mode: RunMode, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<PoolTaskOutput>;
+  /**
+   * Computes one job on a job thread. `samples`, the job's signal as the store holds it, is copied
+   * to the thread with the task (for a small upload a copy costs less than reading the file back).
+   */
+  run(spec: JobSpec, store: StoreConfig, mode: RunMode, onProgress: (fraction: number) => void, signal?: AbortSignal, samples?: Signal): Promise<PoolTaskOutput>;
   close(): Promise<void>;
 }
 
@@ -33,13 +45,19 @@ export function createComputePool(
   const pool = createThreadPool(threadEntry(import.meta.url, 'pool-task'), size);
   return {
     threads: size,
-    async run(spec, store, mode, onProgress, signal) {
+    async run(spec, store, mode, onProgress, signal, samples) {
+      const base: PoolTaskInput = { spec, store, mode, jobThreads, budget, ...(samples ? { signal: samples } : {}) };
+      const abort = signal ? { signal } : {};
+      // The queue sets a succeeded job's progress to 1 itself.
+      if ((spec.resolved?.cost.work ?? Number.POSITIVE_INFINITY) <= QUIET_JOB_WORK) return (await pool.run(base, abort)) as PoolTaskOutput;
       const { port1, port2 } = new MessageChannel();
       port1.on('message', (fraction: number) => onProgress(fraction));
       try {
-        const input: PoolTaskInput = { spec, store, mode, jobThreads, budget, port: port2 };
-        return (await pool.run(input, { transferList: [port2], ...(signal ? { signal } : {}) })) as PoolTaskOutput;
+        return (await pool.run({ ...base, port: port2 }, { transferList: [port2], ...abort })) as PoolTaskOutput;
       } finally {
+        // The answer comes over another port and may overtake the last progress messages: they are
+        // queued on port1 by then, so take them before closing it.
+        for (let queued = receiveMessageOnPort(port1); queued; queued = receiveMessageOnPort(port1)) onProgress(queued.message as number);
         port1.close();
       }
     },

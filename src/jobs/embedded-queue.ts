@@ -1,9 +1,10 @@
 import { DomainError, toProblem } from '../common/errors.js';
+import type { Signal } from '../signals/signal.js';
 import type { Store, StoreConfig } from '../stores/store.js';
 import type { ComputePool } from './compute-pool.js';
 import { crashProblem } from './failure.js';
 import { newestFirst, positionMatches, specMatches, stateMatches, type JobListFilter } from './list.js';
-import type { JobQueue } from './queue.js';
+import type { JobQueue, SubmitOptions } from './queue.js';
 import { isFinished, newJobView, type JobSpec, type JobState, type JobView } from './spec.js';
 import { waitForJob } from './wait.js';
 
@@ -17,7 +18,15 @@ interface Entry {
   crashes: number;
   /** true while the last persisted 'running' state was written by close() */
   stopped: boolean;
+  /** the uploaded signal, held until the job's first start hands it to the thread */
+  signal: Signal | null;
 }
+
+/**
+ * Upper bound of the uploaded samples held in memory for jobs not yet started. Beyond it a job's
+ * thread reads its signal back from the store, as after a restart or a retry.
+ */
+export const HANDOFF_BYTES = 64 * 1024 * 1024;
 
 /** A job's document in the store. */
 interface StoredJob {
@@ -54,6 +63,8 @@ export class EmbeddedQueue implements JobQueue {
   private readonly maxAttempts: number;
   /** job-state writes not yet finished; close() waits for them */
   private readonly writes = new Set<Promise<void>>();
+  /** bytes of the signals held by entries (`Entry.signal`) */
+  private heldBytes = 0;
 
   private constructor(private readonly options: EmbeddedQueueOptions) {
     this.concurrency = options.concurrency ?? options.pool.threads;
@@ -80,7 +91,7 @@ export class EmbeddedQueue implements JobQueue {
       // Jobs stored before views carried method and labels.
       view.method ??= spec.recipe.method;
       view.labels ??= { ...spec.labels };
-      const entry: Entry = { view, spec, abort: null, shutdowns, crashes, stopped };
+      const entry: Entry = { view, spec, abort: null, shutdowns, crashes, stopped, signal: null };
       this.entries.set(view.id, entry);
       if (isFinished(view.state)) continue;
       if (view.state === 'running' && !stopped) {
@@ -105,33 +116,62 @@ export class EmbeddedQueue implements JobQueue {
     return entry.view.attempts - entry.shutdowns;
   }
 
-  async submit(spec: JobSpec, jobId: string): Promise<{ job: JobView; created: boolean }> {
+  /**
+   * A job that finds a free thread starts computing at once, while one flushed write accepts it and
+   * counts its start; it cannot finish before that write has landed, and it is abandoned (never
+   * finished or persisted again) when the write fails. `options.signal` is held, within
+   * `HANDOFF_BYTES`, until the job's first start copies it to the thread.
+   */
+  async submit(spec: JobSpec, jobId: string, options: SubmitOptions = {}): Promise<{ job: JobView; created: boolean }> {
     const existing = this.entries.get(jobId);
     if (existing && existing.view.state !== 'failed' && existing.view.state !== 'canceled') {
       return { job: { ...existing.view }, created: false };
     }
     const view = newJobView(jobId, spec, new Date().toISOString());
-    const entry: Entry = { view, spec, abort: null, shutdowns: 0, crashes: 0, stopped: false };
+    const entry: Entry = { view, spec, abort: null, shutdowns: 0, crashes: 0, stopped: false, signal: null };
+    this.hold(entry, options.signal);
     this.entries.set(jobId, entry);
+    const abandon = () => {
+      this.release(entry);
+      if (this.entries.get(jobId) !== entry) return;
+      if (existing) this.entries.set(jobId, existing);
+      else this.entries.delete(jobId);
+    };
     if (!this.closed && this.running < this.concurrency && this.pending.length === 0) {
-      // A free thread: one flushed write both accepts the job and counts its start.
       this.begin(entry);
+      const accepted = this.persist(entry, true);
+      this.launch(entry, accepted);
       try {
-        await this.persist(entry, true);
+        await accepted;
       } catch (error) {
-        this.running--;
-        entry.abort = null;
-        if (existing) this.entries.set(jobId, existing);
-        else this.entries.delete(jobId);
+        entry.abort?.abort();
+        abandon();
         throw error;
       }
-      this.launch(entry, true);
       return { job: { ...view }, created: true };
     }
-    await this.persist(entry);
+    try {
+      await this.persist(entry);
+    } catch (error) {
+      abandon();
+      throw error;
+    }
     this.pending.push(jobId);
     this.pump();
     return { job: { ...view }, created: true };
+  }
+
+  private hold(entry: Entry, signal: Signal | undefined): void {
+    if (!signal || this.heldBytes + signal.data.byteLength > HANDOFF_BYTES) return;
+    entry.signal = signal;
+    this.heldBytes += signal.data.byteLength;
+  }
+
+  private release(entry: Entry): Signal | null {
+    const { signal } = entry;
+    if (signal) this.heldBytes -= signal.data.byteLength;
+    entry.signal = null;
+    return signal;
   }
 
   async get(jobId: string): Promise<JobView | null> {
@@ -215,9 +255,9 @@ export class EmbeddedQueue implements JobQueue {
     while (!this.closed && this.running < this.concurrency && this.pending.length > 0) {
       const id = this.pending.shift()!;
       const entry = this.entries.get(id);
-      if (!entry || entry.view.state !== 'queued') continue;
+      if (entry?.view.state !== 'queued') continue;
       this.begin(entry);
-      this.launch(entry, false);
+      this.launch(entry, null);
     }
   }
 
@@ -232,24 +272,41 @@ export class EmbeddedQueue implements JobQueue {
     entry.abort = new AbortController();
   }
 
-  private launch(entry: Entry, startWritten: boolean): void {
-    void this.execute(entry, startWritten).finally(() => {
+  /** `accepted`: the flushed write of the job's acceptance and start, still under way, or null. */
+  private launch(entry: Entry, accepted: Promise<void> | null): void {
+    void this.execute(entry, accepted).finally(() => {
       this.running--;
       this.pump();
     });
   }
 
-  private async execute(entry: Entry, startWritten: boolean): Promise<void> {
+  private async execute(entry: Entry, accepted: Promise<void> | null): Promise<void> {
     const { view } = entry;
     const abort = entry.abort!;
-    // Written before the computation begins, so that a restart counts this start if the
-    // computation takes the process down. Not flushed: a process that dies leaves its written
+    // A queued job's start is written before the computation begins, so that a restart counts it if
+    // the computation takes the process down. Not flushed: a process that dies leaves its written
     // files to the kernel, and only a power loss could drop the mark (the job then runs once more).
-    if (!startWritten) await this.persist(entry, false);
+    // A job accepted and started at once computes while that write is under way: until it lands the
+    // job is not accepted, and a process that dies leaves nothing a client was told of.
+    if (!accepted) await this.persist(entry, false);
     try {
       // Closed or canceled while the start was being written.
       abort.signal.throwIfAborted();
-      const output = await this.options.pool.run(entry.spec, this.options.storeConfig, 'embedded', (f) => (view.progress = f), abort.signal);
+      const samples = this.release(entry) ?? undefined;
+      const computing = this.options.pool.run(entry.spec, this.options.storeConfig, 'embedded', (f) => (view.progress = f), abort.signal, samples);
+      if (accepted) {
+        // It may reject (aborted) while the acceptance is still being written: handled below, not unhandled.
+        computing.catch(() => undefined);
+        try {
+          await accepted;
+        } catch {
+          // Never accepted: submit answers the write's error, and nothing more is written for it.
+          abort.abort();
+          await computing.catch(() => undefined);
+          return;
+        }
+      }
+      const output = await computing;
       if (output.ok) {
         view.resultHash = output.outcome.resultHash;
         view.progress = 1;
@@ -280,6 +337,7 @@ export class EmbeddedQueue implements JobQueue {
   }
 
   private async finish(entry: Entry, state: 'succeeded' | 'failed' | 'canceled'): Promise<void> {
+    this.release(entry);
     entry.view.state = state;
     entry.view.finishedAt = new Date().toISOString();
     // Listeners first: a poller can see the finished state as soon as it is set in memory.

@@ -1,4 +1,5 @@
 import type { MessagePort } from 'node:worker_threads';
+import type { Signal } from '../signals/signal.js';
 import { takeJobSlot, type ThreadBudget } from '../threads/budget.js';
 import { createChannelRunner } from '../threads/channel-runner.js';
 import { createStore } from '../stores/create-store.js';
@@ -16,7 +17,10 @@ export interface PoolTaskInput {
   jobThreads: number;
   /** the process's thread budget (shared memory): helpers take only free slots */
   budget: ThreadBudget;
-  port: MessagePort;
+  /** absent for a job too small to report progress (QUIET_JOB_WORK) */
+  port?: MessagePort;
+  /** the job's signal, copied in with the task, when the queue still held the upload in memory */
+  signal?: Signal;
 }
 
 export type PoolTaskOutput = { ok: true; outcome: JobOutcome } | { ok: false; problem: JobProblem };
@@ -34,7 +38,7 @@ function storeFor(config: StoreConfig): Store {
 }
 
 /** Progress is sent at most every 1 % so that many-channel jobs do not flood the port. */
-export default async function poolTask({ spec, store, mode, jobThreads, budget, port }: PoolTaskInput): Promise<PoolTaskOutput> {
+export default async function poolTask({ spec, store, mode, jobThreads, budget, port, signal }: PoolTaskInput): Promise<PoolTaskOutput> {
   let sent = -1;
   const release = takeJobSlot(budget);
   try {
@@ -46,10 +50,10 @@ export default async function poolTask({ spec, store, mode, jobThreads, budget, 
         const step = Math.floor(fraction * 100);
         if (step > sent) {
           sent = step;
-          port.postMessage(fraction);
+          port?.postMessage(fraction);
         }
       },
-      { channels: createChannelRunner({ threads: jobThreads, budget }) },
+      { channels: createChannelRunner({ threads: jobThreads, budget }), ...(signal ? { signal } : {}) },
     );
     return { ok: true, outcome };
   } catch (error) {
@@ -58,6 +62,6 @@ export default async function poolTask({ spec, store, mode, jobThreads, budget, 
     throw error;
   } finally {
     release();
-    port.close();
+    port?.close();
   }
 }

@@ -28,21 +28,23 @@ export interface JobOutcome {
 
 /**
  * Computes one job and stores its record under its key. The same function runs in the embedded
- * worker threads and in BullMQ workers, so both modes produce the same bytes.
+ * worker threads and in BullMQ workers, so both modes produce the same bytes. `options.signal`, when
+ * given, must be the job's signal as `store.getSignal` would return it; it saves reading it back.
  */
 export async function runJob(
   spec: JobSpec,
   store: Store,
   mode: RunMode,
   onProgress: ProgressListener = () => {},
-  options: { checkpoint?: () => void; channels?: ChannelRunner } = {},
+  options: { checkpoint?: () => void; channels?: ChannelRunner; signal?: Signal } = {},
 ): Promise<JobOutcome> {
   const existing = await store.getDocument('records', spec.recordKey);
   if (existing !== null) {
     onProgress(1);
     return { recordKey: spec.recordKey, resultHash: (JSON.parse(existing) as { resultHash: string }).resultHash, computed: false };
   }
-  const loaded = await store.getSignal(spec.signalId);
+  // A signal handed over with the job (an upload kept in memory) is the stored one: same content hash.
+  const loaded = options.signal ? { signal: options.signal } : await store.getSignal(spec.signalId);
   if (!loaded) throw new DomainError('signal-not-found', `signal ${spec.signalId} is not in the store`, { pointer: '/signal' });
   const queued = spec.resolved ?? (await resolveLegacy(spec, loaded.signal));
   // A job queued before the 0.3.0 renames carries the old setting names.

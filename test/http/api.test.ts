@@ -114,6 +114,9 @@ describe('when the input is wrong', () => {
       'invalid-signal',
       '/data/0/0',
     ],
+    // The envelope checks only that each row is an array; the decoder checks the samples.
+    ['a row that is not an array', '/v1/signals', { ...good, data: [1, [1, 2]] }, 422, 'invalid-signal', '/data/0'],
+    ['an epoch row that is not an array', '/v1/signals', { ...good, data: undefined, epochs: [[[1, 2], 'x']] }, 422, 'invalid-signal', '/epochs/0/1'],
     ['both data and epochs', '/v1/signals', { ...good, epochs: [good.data] }, 422, 'invalid-signal', '/epochs'],
     ['a misspelt recipe setting', '/v1/recipes', { method: 'welch', segmentSecond: 2 }, 422, 'invalid-recipe', '/'],
     ['an unknown method', '/v1/recipes', { method: 'wavelet-soup' }, 422, 'invalid-recipe', '/method'],
@@ -146,6 +149,7 @@ describe('when the input is wrong', () => {
       'invalid-signal',
       '/signal/data/1',
     ],
+    ['an inline row that is not an array', '/v1/jobs', { signal: { ...good, data: [[1, 2], 3] }, recipe: { method: 'welch' } }, 400, 'invalid-request', '/signal/data/1'],
     ['an unknown job field', '/v1/jobs', { signal: good, recipe: { method: 'welch' }, priority: 1 }, 400, 'invalid-request', '/'],
   ];
   it.each(cases)('should answer %s with a problem naming where', async (_name, url, payload, status, code, pointer) => {

@@ -16,6 +16,7 @@ import { warnDeprecated } from '../deprecations.js';
 import { indexedRecordKey, indexJob } from '../../jobs/retention.js';
 import { getSignalMeta, storeSignal } from '../../stores/signals.js';
 import type { SignalMeta } from '../../stores/store.js';
+import type { Signal } from '../../signals/signal.js';
 import { FeatureRecordSchema, IdParams, JobRequestEnvelope, JobRequestSchema, JobViewSchema, problemResponse, type JobRequest } from '../schemas.js';
 import { zodValidator } from '../validation.js';
 import { presentJob } from './present.js';
@@ -142,6 +143,7 @@ export const jobRoutes =
         const tenant = tenantOf(request);
         let view: SignalView | null = null;
         let meta: SignalMeta;
+        let uploaded: Signal | undefined;
         switch (signal.kind) {
           case 'stored':
             meta = await getSignalMeta(store, signal.id, tenant, '/signal');
@@ -154,9 +156,14 @@ export const jobRoutes =
             meta = await importSignal(config, store, signal.source, tenant, '/signal');
             break;
           case 'upload':
-            meta = await locatedUnder('/signal', () =>
-              storeSignal(store, decodeJsonSignal(signal.upload as Parameters<typeof decodeJsonSignal>[0], config.signalLimits), tenant, config.maxStoreBytes),
-            );
+            meta = await locatedUnder('/signal', async () => {
+              const decoded = decodeJsonSignal(signal.upload as Parameters<typeof decodeJsonSignal>[0], config.signalLimits);
+              const stored = await storeSignal(store, decoded, tenant, config.maxStoreBytes);
+              // The samples just stored: the same content hash makes them the values the store gives back, so
+              // the job's thread need not read them.
+              uploaded = decoded;
+              return stored;
+            });
             break;
         }
         const pinned = typeof recipe === 'string' ? await getRecipe(store, recipe, '/recipe') : await locatedUnder('/recipe', () => pinRecipe(store, recipe));
@@ -164,7 +171,7 @@ export const jobRoutes =
         const { jobId, spec } = planJob(config.recipeLimits, meta, pinned, view, labels);
         let submitted;
         try {
-          submitted = await queue.submit(spec, jobId);
+          submitted = await queue.submit(spec, jobId, uploaded ? { signal: uploaded } : {});
         } catch (error) {
           request.log.warn({ err: error, jobId }, 'queue unavailable');
           throw unavailable(error, 'nothing was queued');
