@@ -5,7 +5,8 @@ import type { ChannelRunner } from '../engine/channel-runner.js';
 import type { FeatureRecord } from '../engine/record.js';
 import { renameDeprecated } from '../recipes/renames.js';
 import { resolveRecipe, type ResolvedRecipe } from '../recipes/resolve.js';
-import type { Signal } from '../signals/signal.js';
+import type { SignalDescription, SignalEvent } from '../signals/signal.js';
+import { openSource } from './open-source.js';
 import type { Store } from '../stores/store.js';
 import { viewedShape, type JobSpec, type RunMode } from './spec.js';
 
@@ -42,21 +43,26 @@ export async function runJob(
     onProgress(1);
     return { recordKey: spec.recordKey, resultHash: (JSON.parse(existing) as { resultHash: string }).resultHash, computed: false };
   }
-  const loaded = await store.getSignal(spec.signalId);
-  if (!loaded) throw new DomainError('signal-not-found', `signal ${spec.signalId} is not in the store`, { pointer: '/signal' });
-  const queued = spec.resolved ?? (await resolveLegacy(spec, loaded.signal));
-  // A job queued before the 0.3.0 renames carries the old setting names.
-  const resolved = { ...queued, recipe: renameDeprecated(queued.recipe).input as ResolvedRecipe['recipe'] };
-  const record = analyze(loaded.signal, resolved, {
-    view: spec.view ?? null,
-    signalId: spec.signalId,
-    sha256: spec.sha256,
-    recipeId: spec.recipeId,
-    mode,
-    onProgress,
-    ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
-    ...(options.channels ? { channels: options.channels } : {}),
-  });
+  const opened = await openSource(store, spec.signalId);
+  if (!opened) throw new DomainError('signal-not-found', `signal ${spec.signalId} is not in the store`, { pointer: '/signal' });
+  let record: FeatureRecord;
+  try {
+    const queued = spec.resolved ?? (await resolveLegacy(spec, opened.source));
+    // A job queued before the 0.3.0 renames carries the old setting names.
+    const resolved = { ...queued, recipe: renameDeprecated(queued.recipe).input as ResolvedRecipe['recipe'] };
+    record = analyze(opened.source, resolved, {
+      view: spec.view ?? null,
+      signalId: spec.signalId,
+      sha256: spec.sha256,
+      recipeId: spec.recipeId,
+      mode,
+      onProgress,
+      ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
+      ...(options.channels ? { channels: options.channels } : {}),
+    });
+  } finally {
+    opened.close();
+  }
   // Attachments first: once the record exists, everything it names can be fetched.
   for (const a of record.attachments ?? []) {
     const data = a.data!;
@@ -68,7 +74,7 @@ export async function runJob(
 }
 
 /** Jobs queued before the resolved recipe travelled with the spec are resolved here, as then. */
-async function resolveLegacy(spec: JobSpec, signal: Signal): Promise<ResolvedRecipe> {
+async function resolveLegacy(spec: JobSpec, signal: SignalDescription & { events?: SignalEvent[] | undefined }): Promise<ResolvedRecipe> {
   const shape = await locatedUnder('/signal', () => viewedShape(signal, spec.view ?? null));
   return locatedUnder('/recipe', () => resolveRecipe(spec.recipe, spec.recipeHash, shape));
 }
