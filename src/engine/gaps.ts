@@ -49,6 +49,43 @@ export function scanChannels(source: ChannelSource, policy: GapHandling, visit?:
 }
 
 /**
+ * Under `reject` with no other screening every epoch is used, unless a sample is non-finite, which
+ * refuses the job. Then no pass of its own is needed: the returned source looks for gaps in each
+ * channel as the computation reads it, and `check()`, called after the computation and before
+ * anything reads its outcome, refuses the job naming the same first gap (epoch, then channel) as
+ * {@link scanChannels} and {@link screenEpochs} would. A channel with a gap is handed out as zeros,
+ * so that no estimator meets a NaN whose outcome will be thrown away.
+ */
+export function watchGaps(source: ChannelSource): { source: ChannelSource; check(): void } {
+  const n = source.samplesPerEpoch;
+  const gaps: (EpochGap | null)[] = new Array(source.epochCount).fill(null);
+  return {
+    source: {
+      ...source,
+      channel(c) {
+        const rows = source.channel(c);
+        let found = false;
+        for (let e = 0; e < source.epochCount; e++) {
+          const base = e * n;
+          for (let i = 0; i < n; i++) {
+            if (Number.isFinite(rows[base + i]!)) continue;
+            // Channels may be read in any order; the lowest channel names the epoch's gap.
+            const seen = gaps[e];
+            if (!seen || seen.channel > c) gaps[e] = { channel: c, sample: i };
+            found = true;
+            break;
+          }
+        }
+        return found ? new Float64Array(rows.length) : rows;
+      },
+    },
+    check() {
+      screenEpochs(source, gaps, 'reject');
+    },
+  };
+}
+
+/**
  * The recipe's `nonFinite` policy for one epoch: null when it holds only finite samples (or when its
  * gaps are left to the segment filter), the entry that leaves it out under `skip-epoch`; under
  * `reject` the job is refused, naming the first gap.

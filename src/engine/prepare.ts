@@ -49,11 +49,14 @@ export function prepareInput(original: SampleSource, recipe: Recipe, view: Signa
     samplesPerEpoch: length,
     ...(original.events ? { events: view ? original.events.map((ev) => ({ ...ev, onset: ev.onset - offset })) : original.events } : {}),
   };
-  /** Channel c of the viewed, re-referenced signal in epoch 0 (a continuous signal's row). */
+  // Rows read only to be screened or cut share one buffer: a fresh row-sized array per read cost
+  // more in page faults than the reading itself.
+  let scratch: Float64Array | null = null;
+  /** Channel c of the viewed, re-referenced signal in epoch 0 (a continuous signal's row), valid until the next call. */
   const row = (c: number): Float64Array => {
-    const out = new Float64Array(length);
-    read(0, c, out);
-    return out;
+    scratch ??= new Float64Array(length);
+    read(0, c, scratch);
+    return scratch;
   };
   const labelled = new Set(recipe.badSpans.labels);
   const eventSpans = (signal.events ?? []).filter((ev) => labelled.has(ev.label)).map((ev): [number, number] => [ev.onset, ev.onset + (ev.duration ?? 0)]);

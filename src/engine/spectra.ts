@@ -7,7 +7,7 @@ import type { SignalDescription } from '../signals/signal.js';
 import { createLocalRunner, type ChannelRunContext, type ChannelRunner, type ChannelSource } from './channel-runner.js';
 import { EngineInputError } from './errors.js';
 import { createSpectrumEstimator, peakToPeak, type SpectrumOutcome, type SpectrumSetup } from './spectrum-channels.js';
-import { gapHandling, scanChannels, screenEpochs } from './gaps.js';
+import { gapHandling, scanChannels, screenEpochs, watchGaps } from './gaps.js';
 import { methodOf } from '../methods/registry.js';
 import type { PreparedInput } from './prepare.js';
 import type { ChannelFeatures, ChannelQuality, FeatureResult, SkippedEpoch } from './record.js';
@@ -58,7 +58,7 @@ export function computeSpectra(
   prepared: Pick<PreparedInput, 'badSpans' | 'labels'> = { badSpans: [], labels: null },
 ): Spectra {
   const { recipe } = resolved;
-  const { usedEpochs, skipped, quality } = selectEpochs(signal, resolved);
+  const { usedEpochs, skipped, quality, source, check } = selectEpochs(signal, resolved);
   const labels = prepared.labels ? usedEpochs.map((e) => prepared.labels![e]!) : null;
   const groupNames = labels ? [...new Set(labels)] : [];
   const setup: SpectrumSetup = {
@@ -75,7 +75,8 @@ export function computeSpectra(
   const estimator = createSpectrumEstimator(setup);
   // Only methods whose channels are worth the copies go to helper threads (MethodModule.spreadsChannels).
   const runner = (methodOf(recipe).spreadsChannels ? context.channels : undefined) ?? createLocalRunner();
-  const run = runner.run({ kind: 'spectrum', setup }, signal, context, estimator);
+  const run = runner.run({ kind: 'spectrum', setup }, source, context, estimator);
+  check();
   const outcomes = run.outcomes as SpectrumOutcome[];
   // The first epoch (then channel) with no segment left names the refusal, as when epochs came first.
   let empty: { i: number; c: number } | null = null;
@@ -131,6 +132,11 @@ function selectEpochs(signal: ChannelSource, resolved: ResolvedRecipe<SpectrumRe
   const policy = gapHandling(recipe.nonFinite, segmentsAvoidGaps);
   // Without recipe epoching, Welch drops segments (see segmentFilterFor); the other methods drop epochs.
   const amplitudeLimit = limit !== null && recipe.epoching === null && !segmentsLeftOut ? limit : null;
+  if (policy === 'reject' && amplitudeLimit === null && !qualityOptions) {
+    // Every epoch is used unless a gap refuses the job: looked for as the channels are computed.
+    const watched = watchGaps(signal);
+    return { usedEpochs: Array.from({ length: signal.epochCount }, (_, e) => e), skipped: [], quality, ...watched };
+  }
   const C = signal.channels.length;
   const n = signal.samplesPerEpoch;
   const amplitudes = amplitudeLimit !== null ? new Float64Array(signal.epochCount * C) : null;
@@ -170,7 +176,7 @@ function selectEpochs(signal: ChannelSource, resolved: ResolvedRecipe<SpectrumRe
     }
     return null;
   });
-  return { usedEpochs: used, skipped, quality };
+  return { usedEpochs: used, skipped, quality, source: signal, check: () => {} };
 }
 
 /** Turns spectra into the deterministic result: range-limited PSDs, band powers, ratios and features. */

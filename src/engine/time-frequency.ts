@@ -4,7 +4,7 @@ import type { ConnectivityRecipe, TimeFrequencyRecipe } from '../recipes/schema.
 import type { SignalDescription } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
 import { createLocalRunner, type ChannelRunContext, type ChannelRunner, type ChannelSource } from './channel-runner.js';
-import { gapHandling, scanChannels, screenEpochs } from './gaps.js';
+import { gapHandling, scanChannels, screenEpochs, watchGaps } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
 import type { Attachment, TimeFrequencyResult } from './record.js';
 import { taperOptions } from '../methods/settings.js';
@@ -29,8 +29,10 @@ export function analyzeTimeFrequency(
   const policy = gapHandling(recipe.nonFinite, false);
   // Connectivity needs channel pairs, so it keeps the selected channels' rows from this pass.
   const kept: Float64Array[] | null = recipe.method === 'connectivity' ? [] : null;
-  const gaps = scanChannels(signal, policy, kept ? (_c, rows) => kept.push(rows) : undefined);
-  const { used, skipped } = screenEpochs(signal, gaps, policy);
+  // Under `reject` every epoch is used unless a gap refuses the job: looked for as the channels are computed.
+  const watched = policy === 'reject' && !kept ? watchGaps(signal) : null;
+  const gaps = watched ? [] : scanChannels(signal, policy, kept ? (_c, rows) => kept.push(rows) : undefined);
+  const { used, skipped } = watched ? { used: Array.from({ length: signal.epochCount }, (_, e) => e), skipped: [] } : screenEpochs(signal, gaps, policy);
   const warnings = [...resolved.warnings, ...prepared.warnings];
   const base = { estimate: { method: recipe.method, epochsUsed: used.length, epochsSkipped: skipped }, warnings };
   if (recipe.method === 'connectivity') {
@@ -54,7 +56,8 @@ export function analyzeTimeFrequency(
   const F = frequencies.length;
   const attachments: Attachment[] = [];
   if (edgeMask && recipe.output === 'matrix') attachments.push(attachment('edge-mask', 'edgeMask', null, [T, F], edgeMask));
-  const run = (context.channels ?? createLocalRunner()).run({ kind: 'time-frequency', setup }, signal, context, work);
+  const run = (context.channels ?? createLocalRunner()).run({ kind: 'time-frequency', setup }, watched?.source ?? signal, context, work);
+  watched?.check();
   const outcomes = run.outcomes as ChannelOutcome[];
   const threads = run.threads;
   let baselineInfo: NonNullable<TimeFrequencyResult['timeFrequency']>['baseline'] = null;

@@ -180,7 +180,7 @@ interface Candidate {
 
 /**
  * Continuous data read one channel at a time: `row(c)` gives channel c's samples (length
- * `sampleCount`). Epoching reads each channel's row once to screen the epochs ({@link EpochPlan})
+ * `sampleCount`; it may reuse one buffer, so each row is used before the next is asked for). Epoching reads each channel's row once to screen the epochs ({@link EpochPlan})
  * and once more per channel to cut them ({@link epochsOfChannel}), so a long recording never has
  * to be held whole.
  */
