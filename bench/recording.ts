@@ -247,6 +247,8 @@ async function benchServer(lines: string[], figures: ServerFigures): Promise<voi
       BODY_LIMIT_BYTES: String(2 * size),
       MAX_SAMPLES: String(2 * samples),
       REQUEST_TIMEOUT_MS: String(BOUND_MS),
+      // The per-job estimate (src/methods cost) still counts the whole signal and an epoched copy.
+      MAX_JOB_BYTES: String(8 * 2 ** 30),
     });
     lines.push(`  server pid ${server.pid}, idle VmRSS ${mib(readVm(server.pid, 'VmRSS') ?? 0)} MiB`);
     server.resetPeak();
