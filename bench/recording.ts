@@ -14,7 +14,7 @@
  * and what the RSS figure shows above that is what the engine itself holds.
  *
  * Then the engine alone, as it will run once the store reads rows on demand: the same samples (the
- * same generators) written channel-major as int16, read a row at a time by a file-backed
+ * same generators; past 2 hours each channel's 2 hours repeat) written channel-major as int16, read a row at a time by a file-backed
  * SampleSource in a fresh child process per length (RECORDING_HOURS, default "0.5,2,8" hours; the
  * shorter ones read a prefix of the longest file), the fixed-4-s Welch job timed and the child's peak
  * RSS (VmHWM) read. Its 2-hour record must have the server's result hash. Beside them, the Welch
@@ -284,31 +284,42 @@ function streamHours(): number[] {
   return [...new Set(hours)].sort((a, b) => a - b);
 }
 
-/** Every channel's `records` seconds one after another as int16: the EDF's samples, channel-major. */
+/**
+ * Every channel's `records` seconds one after another as int16: the EDF's samples, channel-major,
+ * for the first 2 hours; a longer file repeats each channel's 2 hours (the cost of the analysis does
+ * not depend on the values, and generating 8 hours took longer than analysing them).
+ */
 async function writeChannelMajor(path: string, records: number, remaining: () => number): Promise<number> {
   const handle = await open(path, 'w');
   try {
     const x = new Float64Array(SAMPLING_RATE);
-    const batch = new Int16Array(BATCH_RECORDS * SAMPLING_RATE);
+    const generated = Math.min(records, RECORDS);
+    const block = new Int16Array(generated * SAMPLING_RATE);
+    const bytes = new Uint8Array(block.buffer);
     let position = 0;
     for (let c = 0; c < CHANNELS; c++) {
       remaining();
       const random = createRandom(7000 + c);
-      for (let r0 = 0; r0 < records; r0 += BATCH_RECORDS) {
-        const r1 = Math.min(records, r0 + BATCH_RECORDS);
-        for (let r = r0; r < r1; r++) {
-          recordSamples(random, c, r, x);
-          for (let k = 0; k < SAMPLING_RATE; k++) batch[(r - r0) * SAMPLING_RATE + k] = quantize(x[k]!);
-        }
-        const bytes = new Uint8Array(batch.buffer, 0, (r1 - r0) * SAMPLING_RATE * 2);
-        for (let done = 0; done < bytes.length; ) done += (await handle.write(bytes, done, bytes.length - done, position + done)).bytesWritten;
-        position += bytes.length;
+      for (let r = 0; r < generated; r++) {
+        recordSamples(random, c, r, x);
+        for (let k = 0; k < SAMPLING_RATE; k++) block[r * SAMPLING_RATE + k] = quantize(x[k]!);
+      }
+      for (let r0 = 0; r0 < records; r0 += generated) {
+        const length = Math.min(generated, records - r0) * SAMPLING_RATE * 2;
+        for (let done = 0; done < length; ) done += (await handle.write(bytes, done, length - done, position + done)).bytesWritten;
+        position += length;
       }
     }
   } finally {
     await handle.close();
   }
   return (await stat(path)).size;
+}
+
+/** Physical values of int16 samples, as the EDF decoder calibrates them ((d − digital min) · gain + physical min). */
+function calibrate(digits: Int16Array, into: Float64Array, n: number): void {
+  const gain = (PHYSICAL_MAXIMUM - PHYSICAL_MINIMUM) / (DIGITAL_MAXIMUM - DIGITAL_MINIMUM);
+  for (let i = 0; i < n; i++) into[i] = (digits[i]! - DIGITAL_MINIMUM) * gain + PHYSICAL_MINIMUM;
 }
 
 /**
@@ -318,7 +329,6 @@ async function writeChannelMajor(path: string, records: number, remaining: () =>
  */
 function fileSource(path: string, samples: number, stride: number): SampleSource {
   const fd = openSync(path, 'r');
-  const gain = (PHYSICAL_MAXIMUM - PHYSICAL_MINIMUM) / (DIGITAL_MAXIMUM - DIGITAL_MINIMUM);
   let digits = new Int16Array(0);
   let open = true;
   const shape = { samplingRate: SAMPLING_RATE, channels: LABELS, unit: 'uV', epochCount: 1, samplesPerEpoch: samples };
@@ -336,7 +346,7 @@ function fileSource(path: string, samples: number, stride: number): SampleSource
         if (got === 0) throw new Error(`${path} ends before byte ${at + bytes.length}`);
         done += got;
       }
-      for (let i = 0; i < n; i++) into[i] = (digits[i]! - DIGITAL_MINIMUM) * gain + PHYSICAL_MINIMUM;
+      calibrate(digits, into, n);
     },
     close() {
       if (open) closeSync(fd);
@@ -357,7 +367,8 @@ interface StreamFigures {
 function streamChild(path: string, hours: number, stride: number): StreamFigures {
   const source = fileSource(path, hours * 3600 * SAMPLING_RATE, stride);
   const pinned = normalizeRecipe(STREAM_RECIPE);
-  const resolved = resolveRecipe(pinned.recipe, pinned.hash, source);
+  // The per-job estimate (src/methods cost) still counts the whole signal and an epoched copy.
+  const resolved = resolveRecipe(pinned.recipe, pinned.hash, source, { maxJobBytes: 64 * 2 ** 30 });
   const baselineRss = readVm(process.pid, 'VmRSS') ?? 0;
   const t0 = performance.now();
   const record = analyze(source, resolved, { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local' });
