@@ -70,7 +70,7 @@ export const connectivity = defineMethod({
     return fit;
   },
   cost(recipe, derived, shape) {
-    const { channels, epochs, loaded, prepared } = extentOf(recipe, derived, shape);
+    const { channels, epochs, loaded, prepared } = extentOf(recipe, derived, shape, 'every channel');
     const pairs = recipe.pairs?.length ?? (channels * (channels - 1)) / 2;
     const bins = Math.floor(derived.fftLength / 2) + 1;
     const tapers = recipe.tapers ? (recipe.tapers.taperCount ?? defaultTaperCount(recipe.tapers.timeBandwidth)) : 1;

@@ -19,6 +19,7 @@ import {
   type Fit,
   type RecipeLimits,
   type SignalShape,
+  streamedRows,
 } from './fit.js';
 import type { timeFrequencyCommon, timeFrequencyOutput } from './settings.js';
 import type { z } from 'zod';
@@ -80,11 +81,13 @@ export function fitTimeFrequency(recipe: TimeFrequencySettings, shape: SignalSha
 }
 
 /** The epochs, channels and trials a time–frequency job sees, for its output and cost. */
-export function extentOf(recipe: TimeFrequencySettings & { perEpoch?: boolean }, derived: DerivedSettings, shape: SignalShape) {
+export function extentOf(recipe: TimeFrequencySettings & { perEpoch?: boolean }, derived: DerivedSettings, shape: SignalShape, holds: 'one channel' | 'every channel' = 'one channel') {
   const channels = analysedChannels(recipe.reference, shape);
   const epochs = epochCountOf(recipe, shape, derived.epochSamples!);
   const loaded = (shape.channels?.length ?? 1) * (shape.epochCount ?? 1) * shape.samplesPerEpoch;
-  const prepared = (recipe.reference === 'none' ? 0 : loaded) + (recipe.epoching ? channels * epochs * derived.epochSamples! : 0);
+  // The engine reads a channel at a time; connectivity keeps every selected channel's epochs.
+  const channelSamples = recipe.epoching ? epochs * derived.epochSamples! : (shape.epochCount ?? 1) * shape.samplesPerEpoch;
+  const prepared = holds === 'every channel' ? (recipe.reference === 'none' ? 0 : loaded) + channels * channelSamples : streamedRows(recipe, shape, channelSamples);
   return { channels, epochs, loaded, prepared };
 }
 
