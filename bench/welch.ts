@@ -126,10 +126,23 @@ export async function benchWelch(): Promise<string[]> {
  * over 1 and 2 threads (src/threads), best of the repeats each; the records must be the same bytes.
  */
 function benchWelchJob(data: Float64Array): string[] {
+  const results = welchJobTimes(data, [1, 2]);
+  const [one, two] = results as [(typeof results)[0], (typeof results)[0]];
+  return [
+    ...results.map((r) => `  job   fftLength 1024 mean on ${r.threads} thread(s) (${r.used} computed): ${r.seconds.toFixed(3)} s`),
+    `  job   2 threads / 1 thread = ${(two.seconds / one.seconds).toFixed(2)}; same resultHash: ${one.hash === two.hash}`,
+  ];
+}
+
+/**
+ * The Welch job's best time on each thread count, and its seconds per sample (channels × samples):
+ * the per-sample rate other benchmarks compare with (bench/recording.ts).
+ */
+export function welchJobTimes(data: Float64Array = syntheticRecording(), threadCounts: number[] = [1]) {
   const signal: Signal = { samplingRate: SAMPLING_RATE, channels: Array.from({ length: CHANNELS }, (_, c) => `C${c}`), unit: 'uV', epochCount: 1, samplesPerEpoch: SAMPLES, data };
   const pinned = normalizeRecipe({ method: 'welch', segmentSeconds: SEGMENT / SAMPLING_RATE, overlap: OVERLAP / SEGMENT, fftLength: 1024 });
   const resolved = resolveRecipe(pinned.recipe, pinned.hash, signal);
-  const results = [1, 2].map((threads) => {
+  return threadCounts.map((threads) => {
     const channels = createChannelRunner({ threads });
     const once = () => analyze(signal, resolved, { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local', channels });
     let record = once(); // warm-up: JIT, plans and helper threads
@@ -139,13 +152,8 @@ function benchWelchJob(data: Float64Array): string[] {
       record = once();
       best = Math.min(best, (performance.now() - start) / 1000);
     }
-    return { threads, seconds: best, used: record.provenance.threads ?? 1, hash: record.resultHash };
+    return { threads, seconds: best, secondsPerSample: best / (CHANNELS * SAMPLES), used: record.provenance.threads ?? 1, hash: record.resultHash };
   });
-  const [one, two] = results as [(typeof results)[0], (typeof results)[0]];
-  return [
-    ...results.map((r) => `  job   fftLength 1024 mean on ${r.threads} thread(s) (${r.used} computed): ${r.seconds.toFixed(3)} s`),
-    `  job   2 threads / 1 thread = ${(two.seconds / one.seconds).toFixed(2)}; same resultHash: ${one.hash === two.hash}`,
-  ];
 }
 
 if (process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1]) {

@@ -6,7 +6,8 @@ import { methodOf } from '../methods/registry.js';
 import type { ConnectivityRecipe, SpectrumRecipe, TimeFrequencyRecipe } from '../recipes/schema.js';
 import { analyzeTimeFrequency } from './time-frequency.js';
 import type { Attachment } from './record.js';
-import type { Signal } from '../signals/signal.js';
+import { arraySource, type SampleSource } from '../signals/sample-source.js';
+import type { Signal, SignalDescription } from '../signals/signal.js';
 import { prepareInput } from './prepare.js';
 import type { SignalView } from '../signals/view.js';
 import type { FeatureRecord, RecordInput } from './record.js';
@@ -30,7 +31,7 @@ export interface AnalyzeContext {
   channels?: ChannelRunner;
 }
 
-export function recordInput(signal: Signal, signalId: string, sha256: string): RecordInput {
+export function recordInput(signal: SignalDescription, signalId: string, sha256: string): RecordInput {
   return {
     signal: signalId,
     sha256,
@@ -45,9 +46,14 @@ export function recordInput(signal: Signal, signalId: string, sha256: string): R
 /**
  * `analyze(signal, recipe) → FeatureRecord`. The only nondeterministic fields are in `provenance`,
  * which the result hash leaves out.
+ *
+ * The input is read a channel row at a time ({@link SampleSource}): a stored recording is never
+ * loaded whole, except by connectivity, which needs the selected channels' epochs together. A
+ * `Signal` already in memory is read through {@link arraySource}, with the same result.
  */
-export function analyze(original: Signal, resolved: ResolvedRecipe, context: AnalyzeContext): FeatureRecord {
+export function analyze(input: Signal | SampleSource, resolved: ResolvedRecipe, context: AnalyzeContext): FeatureRecord {
   const started = performance.now();
+  const original = 'readRow' in input ? input : arraySource(input);
   const prepared = prepareInput(original, resolved.recipe, context.view ?? null);
   const signal = prepared.signal;
   let result: FeatureRecord['result'];

@@ -5,10 +5,22 @@
  * default, computes them all here. Either way each channel is computed by the same kernel on the
  * same samples, so the outcome does not depend on the runner or its thread count.
  */
-import type { Signal } from '../signals/signal.js';
+import type { SignalDescription } from '../signals/signal.js';
 import { spectrumKernel, type SpectrumSetup } from './spectrum-channels.js';
 import { timeFrequencyKernel } from './tf-channels.js';
 import type { ChannelSetup } from './tf-channels.js';
+
+/**
+ * The prepared signal (after view, re-reference and epoching) read one channel at a time, so that
+ * the engine holds a few channels' rows, never the whole recording.
+ */
+export interface ChannelSource extends SignalDescription {
+  /**
+   * Every epoch of channel `c`, [epoch][sample] (length epochCount·samplesPerEpoch): a fresh array
+   * read from the stored samples on each call, which the caller may keep or drop.
+   */
+  channel(c: number): Float64Array;
+}
 
 /** Per-channel work, as plain data a helper thread can receive. */
 export type ChannelTask = { kind: 'time-frequency'; setup: ChannelSetup } | { kind: 'spectrum'; setup: SpectrumSetup };
@@ -47,7 +59,7 @@ export interface ChannelRunner {
    *
    * @param here - this thread's plan when the caller has already built it (else prepared here)
    */
-  run(task: ChannelTask, signal: Signal, context: ChannelRunContext, here?: unknown): { outcomes: unknown[]; threads: number };
+  run(task: ChannelTask, source: ChannelSource, context: ChannelRunContext, here?: unknown): { outcomes: unknown[]; threads: number };
 }
 
 /** The kernel of a task's kind. */
@@ -55,13 +67,12 @@ export function kernelOf(task: ChannelTask): ChannelKernel {
   return (task.kind === 'spectrum' ? spectrumKernel : timeFrequencyKernel) as unknown as ChannelKernel;
 }
 
-/** Samples of used epoch `i`, channel `c`, in an [epoch][channel][sample] array. */
-export function trialOf(layout: ChannelLayout, data: Float64Array, c: number): (i: number) => Float64Array {
-  const C = layout.channels.length;
+/** Samples of used epoch `i` in one channel's [epoch][sample] rows. */
+export function trialsOf(layout: ChannelLayout, rows: Float64Array): (i: number) => Float64Array {
   const n = layout.samplesPerEpoch;
   return (i) => {
-    const start = (layout.used[i]! * C + c) * n;
-    return data.subarray(start, start + n);
+    const start = layout.used[i]! * n;
+    return rows.subarray(start, start + n);
   };
 }
 
@@ -69,14 +80,15 @@ export function trialOf(layout: ChannelLayout, data: Float64Array, c: number): (
 export function createLocalRunner(): ChannelRunner {
   return {
     threads: 1,
-    run(task, signal, context, here) {
+    run(task, source, context, here) {
       const kernel = kernelOf(task);
       const { setup } = task;
       const work = here ?? kernel.prepare(setup);
       const total = setup.channels.length * setup.used.length;
       let done = 0;
       const outcomes = setup.channels.map((_, c) =>
-        kernel.compute(setup, work, c, trialOf(setup, signal.data, c), () => {
+        // Read here, dropped when the channel is done: one channel's rows at a time.
+        kernel.compute(setup, work, c, trialsOf(setup, source.channel(c)), () => {
           context.checkpoint?.();
           context.onProgress?.(done / total);
           done++;

@@ -1,13 +1,13 @@
 import { confidenceInterval } from '../dsp/dof.js';
 import { bandPowers, bandRatios } from '../features/bands.js';
-import { qualityFlags } from '../features/quality.js';
+import { qualityFlags, type QualityFlags } from '../features/quality.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
 import type { SpectrumRecipe } from '../recipes/schema.js';
-import { channelView, type Signal } from '../signals/signal.js';
-import { createLocalRunner, type ChannelRunContext, type ChannelRunner } from './channel-runner.js';
+import type { SignalDescription } from '../signals/signal.js';
+import { createLocalRunner, type ChannelRunContext, type ChannelRunner, type ChannelSource } from './channel-runner.js';
 import { EngineInputError } from './errors.js';
 import { createSpectrumEstimator, peakToPeak, type SpectrumOutcome, type SpectrumSetup } from './spectrum-channels.js';
-import { gapHandling, screenEpochs } from './gaps.js';
+import { gapHandling, scanChannels, screenEpochs, watchGaps } from './gaps.js';
 import { methodOf } from '../methods/registry.js';
 import type { PreparedInput } from './prepare.js';
 import type { ChannelFeatures, ChannelQuality, FeatureResult, SkippedEpoch } from './record.js';
@@ -52,13 +52,13 @@ export interface Spectra {
  * bits in every mode and on any number of threads.
  */
 export function computeSpectra(
-  signal: Signal,
+  signal: ChannelSource,
   resolved: ResolvedRecipe<SpectrumRecipe>,
   context: SpectraContext = {},
   prepared: Pick<PreparedInput, 'badSpans' | 'labels'> = { badSpans: [], labels: null },
 ): Spectra {
   const { recipe } = resolved;
-  const { usedEpochs, skipped, quality } = selectEpochs(signal, resolved);
+  const { usedEpochs, skipped, quality, source, check } = selectEpochs(signal, resolved);
   const labels = prepared.labels ? usedEpochs.map((e) => prepared.labels![e]!) : null;
   const groupNames = labels ? [...new Set(labels)] : [];
   const setup: SpectrumSetup = {
@@ -75,7 +75,8 @@ export function computeSpectra(
   const estimator = createSpectrumEstimator(setup);
   // Only methods whose channels are worth the copies go to helper threads (MethodModule.spreadsChannels).
   const runner = (methodOf(recipe).spreadsChannels ? context.channels : undefined) ?? createLocalRunner();
-  const run = runner.run({ kind: 'spectrum', setup }, signal, context, estimator);
+  const run = runner.run({ kind: 'spectrum', setup }, source, context, estimator);
+  check();
   const outcomes = run.outcomes as SpectrumOutcome[];
   // The first epoch (then channel) with no segment left names the refusal, as when epochs came first.
   let empty: { i: number; c: number } | null = null;
@@ -114,8 +115,13 @@ export function computeSpectra(
   };
 }
 
-/** Leaves out epochs with gaps (per `nonFinite`), over the amplitude limit, and (when asked) with flagged channels. */
-function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) {
+/**
+ * Leaves out epochs with gaps (per `nonFinite`), over the amplitude limit, and (when asked) with
+ * flagged channels. One pass over the channels gathers what each epoch's decision needs (its first
+ * gap, and per channel its peak-to-peak amplitude and quality flags); the decisions are then taken
+ * epoch by epoch, channels in order, as before.
+ */
+function selectEpochs(signal: ChannelSource, resolved: ResolvedRecipe<SpectrumRecipe>) {
   const { recipe } = resolved;
   const qualityOptions = recipe.features.quality;
   const quality: { index: number; channels: ChannelQuality[] }[] | null = qualityOptions ? [] : null;
@@ -123,19 +129,42 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) 
   const segmentsLeftOut = methodOf(recipe).leavesOutSegments === true;
   // Gaps as bad spans stay in a continuous signal whose Welch segments go round them (segmentFilterFor).
   const segmentsAvoidGaps = segmentsLeftOut && recipe.epoching === null && signal.epochCount === 1;
-  const { used, skipped } = screenEpochs(signal, gapHandling(recipe.nonFinite, segmentsAvoidGaps), (e): SkippedEpoch | null => {
-    // Without recipe epoching, Welch drops segments (see segmentFilterFor); the other methods drop epochs.
-    if (limit !== null && recipe.epoching === null && !segmentsLeftOut) {
-      const over = signal.channels.map((name, c) => ({ name, p2p: peakToPeak(channelView(signal, e, c)) })).filter((c) => c.p2p > limit);
+  const policy = gapHandling(recipe.nonFinite, segmentsAvoidGaps);
+  // Without recipe epoching, Welch drops segments (see segmentFilterFor); the other methods drop epochs.
+  const amplitudeLimit = limit !== null && recipe.epoching === null && !segmentsLeftOut ? limit : null;
+  if (policy === 'reject' && amplitudeLimit === null && !qualityOptions) {
+    // Every epoch is used unless a gap refuses the job: looked for as the channels are computed.
+    const watched = watchGaps(signal);
+    return { usedEpochs: Array.from({ length: signal.epochCount }, (_, e) => e), skipped: [], quality, ...watched };
+  }
+  const C = signal.channels.length;
+  const n = signal.samplesPerEpoch;
+  const amplitudes = amplitudeLimit !== null ? new Float64Array(signal.epochCount * C) : null;
+  const flags: QualityFlags[] | null = qualityOptions ? new Array<QualityFlags>(signal.epochCount * C) : null;
+  const flagOptions = qualityOptions && {
+    flatThreshold: qualityOptions.flatThreshold,
+    clipRunSamples: qualityOptions.clipRunSamples,
+    ...(qualityOptions.maxPeakToPeak === null ? {} : { maxPeakToPeak: qualityOptions.maxPeakToPeak }),
+  };
+  const visit =
+    amplitudes || flags
+      ? (c: number, rows: Float64Array) => {
+          for (let e = 0; e < signal.epochCount; e++) {
+            const x = rows.subarray(e * n, (e + 1) * n);
+            if (amplitudes) amplitudes[e * C + c] = peakToPeak(x);
+            if (flags && flagOptions) flags[e * C + c] = qualityFlags(x, flagOptions);
+          }
+        }
+      : undefined;
+  const gaps = scanChannels(signal, policy, visit);
+  const { used, skipped } = screenEpochs(signal, gaps, policy, (e): SkippedEpoch | null => {
+    if (amplitudes && amplitudeLimit !== null) {
+      const over = signal.channels.map((name, c) => ({ name, p2p: amplitudes[e * C + c]! })).filter((c) => c.p2p > amplitudeLimit);
       if (over.length > 0) return { index: e, reason: 'amplitude', detail: over.map((c) => `${c.name}: peak-to-peak ${c.p2p}`).join('; ') };
     }
-    if (qualityOptions && quality) {
+    if (qualityOptions && quality && flags) {
       const channels = signal.channels.map((name, c): ChannelQuality => {
-        const q = qualityFlags(channelView(signal, e, c), {
-          flatThreshold: qualityOptions.flatThreshold,
-          clipRunSamples: qualityOptions.clipRunSamples,
-          ...(qualityOptions.maxPeakToPeak === null ? {} : { maxPeakToPeak: qualityOptions.maxPeakToPeak }),
-        });
+        const q = flags[e * C + c]!;
         return { name, flat: q.flat, clipped: q.clipped, excessiveAmplitude: q.excessiveAmplitude, peakToPeak: q.peakToPeak, standardDeviation: q.standardDeviation, longestClipRun: q.longestClipRun };
       });
       quality.push({ index: e, channels });
@@ -147,11 +176,11 @@ function selectEpochs(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>) 
     }
     return null;
   });
-  return { usedEpochs: used, skipped, quality };
+  return { usedEpochs: used, skipped, quality, source: signal, check: () => {} };
 }
 
 /** Turns spectra into the deterministic result: range-limited PSDs, band powers, ratios and features. */
-export function summarize(signal: Signal, resolved: ResolvedRecipe<SpectrumRecipe>, spectra: Spectra): FeatureResult {
+export function summarize(signal: SignalDescription, resolved: ResolvedRecipe<SpectrumRecipe>, spectra: Spectra): FeatureResult {
   const { recipe, derived } = resolved;
   const { frequencies } = spectra;
   const [lo, hi] = derived.frequencyRange;

@@ -1,10 +1,10 @@
 import { crossSpectralConnectivity } from '../dsp/coherence.js';
 import type { ResolvedRecipe } from '../recipes/resolve.js';
 import type { ConnectivityRecipe, TimeFrequencyRecipe } from '../recipes/schema.js';
-import { channelView, type Signal } from '../signals/signal.js';
+import type { SignalDescription } from '../signals/signal.js';
 import { EngineInputError } from './errors.js';
-import { createLocalRunner, type ChannelRunContext, type ChannelRunner } from './channel-runner.js';
-import { gapHandling, screenEpochs } from './gaps.js';
+import { createLocalRunner, type ChannelRunContext, type ChannelRunner, type ChannelSource } from './channel-runner.js';
+import { gapHandling, scanChannels, screenEpochs, watchGaps } from './gaps.js';
 import type { PreparedInput } from './prepare.js';
 import type { Attachment, TimeFrequencyResult } from './record.js';
 import { taperOptions } from '../methods/settings.js';
@@ -20,20 +20,26 @@ interface Context extends ChannelRunContext {
  * normalized, with matrices as binary attachments; or cross-spectral connectivity between pairs.
  */
 export function analyzeTimeFrequency(
-  signal: Signal,
+  signal: ChannelSource,
   resolved: ResolvedRecipe<TimeFrequencyRecipe | ConnectivityRecipe>,
   prepared: PreparedInput,
   context: Context,
 ): { result: TimeFrequencyResult; attachments: Attachment[]; threads?: number } {
   const { recipe } = resolved;
-  const { used, skipped } = screenEpochs(signal, gapHandling(recipe.nonFinite, false));
+  const policy = gapHandling(recipe.nonFinite, false);
+  // Connectivity needs channel pairs, so it keeps the selected channels' rows from this pass.
+  const kept: Float64Array[] | null = recipe.method === 'connectivity' ? [] : null;
+  // Under `reject` every epoch is used unless a gap refuses the job: looked for as the channels are computed.
+  const watched = policy === 'reject' && !kept ? watchGaps(signal) : null;
+  const gaps = watched ? [] : scanChannels(signal, policy, kept ? (_c, rows) => kept.push(rows) : undefined);
+  const { used, skipped } = watched ? { used: Array.from({ length: signal.epochCount }, (_, e) => e), skipped: [] } : screenEpochs(signal, gaps, policy);
   const warnings = [...resolved.warnings, ...prepared.warnings];
   const base = { estimate: { method: recipe.method, epochsUsed: used.length, epochsSkipped: skipped }, warnings };
   if (recipe.method === 'connectivity') {
     // Resolving refuses a signal with one epoch; epochs left out for gaps or bad spans can still leave one.
     if (used.length < 2)
       throw new EngineInputError('no-usable-epochs', `connectivity needs at least 2 epochs (phase locking is measured across epochs); ${used.length} is left after screening`, '/recipe/epoching');
-    return { result: connectivity(signal, resolved as ResolvedRecipe<ConnectivityRecipe>, used, base), attachments: [] };
+    return { result: connectivity(signal, kept!, resolved as ResolvedRecipe<ConnectivityRecipe>, used, base), attachments: [] };
   }
 
   const setup: ChannelSetup = {
@@ -50,7 +56,8 @@ export function analyzeTimeFrequency(
   const F = frequencies.length;
   const attachments: Attachment[] = [];
   if (edgeMask && recipe.output === 'matrix') attachments.push(attachment('edge-mask', 'edgeMask', null, [T, F], edgeMask));
-  const run = (context.channels ?? createLocalRunner()).run({ kind: 'time-frequency', setup }, signal, context, work);
+  const run = (context.channels ?? createLocalRunner()).run({ kind: 'time-frequency', setup }, watched?.source ?? signal, context, work);
+  watched?.check();
   const outcomes = run.outcomes as ChannelOutcome[];
   const threads = run.threads;
   let baselineInfo: NonNullable<TimeFrequencyResult['timeFrequency']>['baseline'] = null;
@@ -80,12 +87,19 @@ export function analyzeTimeFrequency(
   return { result, attachments, threads };
 }
 
-function connectivity(signal: Signal, resolved: ResolvedRecipe<ConnectivityRecipe>, used: number[], base: Pick<TimeFrequencyResult, 'estimate' | 'warnings'>): TimeFrequencyResult {
+function connectivity(
+  signal: SignalDescription,
+  rows: Float64Array[],
+  resolved: ResolvedRecipe<ConnectivityRecipe>,
+  used: number[],
+  base: Pick<TimeFrequencyResult, 'estimate' | 'warnings'>,
+): TimeFrequencyResult {
   const { recipe, derived } = resolved;
   if (signal.channels.length < 2) throw new EngineInputError('no-usable-epochs', 'connectivity needs at least two channels', '/signal/channels');
   const index = new Map(signal.channels.map((name, i) => [name, i]));
   const pairs = recipe.pairs?.map(([a, b]) => [index.get(a)!, index.get(b)!] as [number, number]);
-  const epochs = used.map((e) => signal.channels.map((_, c) => channelView(signal, e, c)));
+  const n = signal.samplesPerEpoch;
+  const epochs = used.map((e) => rows.map((x) => x.subarray(e * n, (e + 1) * n)));
   const r = crossSpectralConnectivity(epochs, {
     samplingRate: signal.samplingRate,
     segmentSamples: derived.segmentSamples,

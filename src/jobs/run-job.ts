@@ -5,7 +5,8 @@ import type { ChannelRunner } from '../engine/channel-runner.js';
 import type { FeatureRecord } from '../engine/record.js';
 import { renameDeprecated } from '../recipes/renames.js';
 import { resolveRecipe, type ResolvedRecipe } from '../recipes/resolve.js';
-import type { Signal } from '../signals/signal.js';
+import type { Signal, SignalDescription, SignalEvent } from '../signals/signal.js';
+import { openSource } from './open-source.js';
 import type { Store } from '../stores/store.js';
 import { viewedShape, type JobSpec, type RunMode } from './spec.js';
 
@@ -44,21 +45,26 @@ export async function runJob(
     return { recordKey: spec.recordKey, resultHash: (JSON.parse(existing) as { resultHash: string }).resultHash, computed: false };
   }
   // A signal handed over with the job (an upload kept in memory) is the stored one: same content hash.
-  const loaded = options.signal ? { signal: options.signal } : await store.getSignal(spec.signalId);
-  if (!loaded) throw new DomainError('signal-not-found', `signal ${spec.signalId} is not in the store`, { pointer: '/signal' });
-  const queued = spec.resolved ?? (await resolveLegacy(spec, loaded.signal));
-  // A job queued before the 0.3.0 renames carries the old setting names.
-  const resolved = { ...queued, recipe: renameDeprecated(queued.recipe).input as ResolvedRecipe['recipe'] };
-  const record = analyze(loaded.signal, resolved, {
-    view: spec.view ?? null,
-    signalId: spec.signalId,
-    sha256: spec.sha256,
-    recipeId: spec.recipeId,
-    mode,
-    onProgress,
-    ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
-    ...(options.channels ? { channels: options.channels } : {}),
-  });
+  const opened = await openSource(store, spec.signalId, options.signal);
+  if (!opened) throw new DomainError('signal-not-found', `signal ${spec.signalId} is not in the store`, { pointer: '/signal' });
+  let record: FeatureRecord;
+  try {
+    const queued = spec.resolved ?? (await resolveLegacy(spec, opened.source));
+    // A job queued before the 0.3.0 renames carries the old setting names.
+    const resolved = { ...queued, recipe: renameDeprecated(queued.recipe).input as ResolvedRecipe['recipe'] };
+    record = analyze(opened.source, resolved, {
+      view: spec.view ?? null,
+      signalId: spec.signalId,
+      sha256: spec.sha256,
+      recipeId: spec.recipeId,
+      mode,
+      onProgress,
+      ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
+      ...(options.channels ? { channels: options.channels } : {}),
+    });
+  } finally {
+    opened.close();
+  }
   // Attachments first: once the record exists, everything it names can be fetched.
   for (const a of record.attachments ?? []) {
     const data = a.data!;
@@ -70,7 +76,7 @@ export async function runJob(
 }
 
 /** Jobs queued before the resolved recipe travelled with the spec are resolved here, as then. */
-async function resolveLegacy(spec: JobSpec, signal: Signal): Promise<ResolvedRecipe> {
+async function resolveLegacy(spec: JobSpec, signal: SignalDescription & { events?: SignalEvent[] | undefined }): Promise<ResolvedRecipe> {
   const shape = await locatedUnder('/signal', () => viewedShape(signal, spec.view ?? null));
   return locatedUnder('/recipe', () => resolveRecipe(spec.recipe, spec.recipeHash, shape));
 }

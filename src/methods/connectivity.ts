@@ -70,13 +70,13 @@ export const connectivity = defineMethod({
     return fit;
   },
   cost(recipe, derived, shape) {
-    const { channels, epochs, loaded, prepared } = extentOf(recipe, derived, shape);
+    const { channels, epochs, prepared } = extentOf(recipe, derived, shape, 'every channel');
     const pairs = recipe.pairs?.length ?? (channels * (channels - 1)) / 2;
     const bins = Math.floor(derived.fftLength / 2) + 1;
     const tapers = recipe.tapers ? (recipe.tapers.taperCount ?? defaultTaperCount(recipe.tapers.timeBandwidth)) : 1;
     // per pair: summed and per-epoch cross-spectra, phase sums and the three results; per channel: spectra and auto-spectra
     const arrays = 9 * pairs * bins + 3 * channels * bins + tapers * derived.segmentSamples + 2 * derived.fftLength;
-    const bytes = float64Bytes(loaded + prepared + arrays);
+    const bytes = float64Bytes(prepared + arrays);
     const work = epochs * derived.segmentsPerEpoch * tapers * ((channels / 2) * fftWork(derived.fftLength) + 10 * pairs * bins);
     return { bytes, work, driver: '/pairs' };
   },

@@ -137,6 +137,17 @@ export function analysedChannels(reference: Reference, shape: SignalShape): numb
   const channels = shape.channels?.length ?? 1;
   return typeof reference === 'object' ? Math.max(1, channels - 1) : channels;
 }
+/**
+ * Samples the engine holds while it reads one channel row at a time from the store
+ * (src/engine/prepare.ts; the signal itself is never loaded whole): the reference's row (mean or reference channel) when there is a
+ * reference, one continuous row being screened or cut, and the prepared rows (`channelSamples`,
+ * every epoch of one channel) of the channel being computed and of two more waiting for a helper
+ * thread.
+ */
+export function streamedRows(recipe: { reference: Reference }, shape: SignalShape, channelSamples: number): number {
+  const row = (shape.epochCount ?? 1) * shape.samplesPerEpoch;
+  return (recipe.reference === 'none' ? 0 : row) + row + 3 * channelSamples;
+}
 
 interface EpochingSettings {
   epoching:

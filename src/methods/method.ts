@@ -82,9 +82,10 @@ export interface MethodModule<R extends { method: string }, S = z.ZodType<R>> {
   readonly leavesOutSegments?: boolean;
   /**
    * `spectrum` path: whether the job's channels are worth spreading over helper threads. Welch and
-   * periodogram cost little per sample, and copying the signal into shared memory and each channel
-   * out of it cost more than a second thread saves (a 64-channel, 600-s Welch job took 0.65 s on
-   * two threads against 0.31 s on one, bench/welch.ts); multitaper ran 1.3–1.8× faster on two.
+   * periodogram cost little per sample, and copying the samples to a helper cost more than a second
+   * thread saves (a 64-channel, 600-s Welch job took 0.65 s on two threads against 0.31 s on one,
+   * bench/welch.ts, measured when the whole signal went to helpers through shared memory; channels
+   * are now posted one at a time); multitaper ran 1.3–1.8× faster on two.
    */
   readonly spreadsChannels?: boolean;
 }

@@ -93,7 +93,7 @@ export const morlet = defineMethod({
   cost(recipe, derived, shape) {
     const fs = shape.samplingRate;
     const n = derived.epochSamples!;
-    const { channels, epochs, loaded, prepared } = extentOf(recipe, derived, shape);
+    const { channels, epochs, prepared } = extentOf(recipe, derived, shape);
     const all = wavelets(recipe);
     let waveletPeak = 0,
       spectra = 0,
@@ -110,7 +110,7 @@ export const morlet = defineMethod({
     }
     const times = Math.ceil(n / recipe.decimation);
     const extra = recipe.phaseConsistency ? 2 : 0;
-    const bytes = float64Bytes(loaded + prepared + waveletPeak + spectra + 4 * 2 * n) + matrixBytes(recipe, channels, epochs, times, all.length, extra);
+    const bytes = float64Bytes(prepared + waveletPeak + spectra + 4 * 2 * n) + matrixBytes(recipe, channels, epochs, times, all.length, extra);
     const work = build + channels * epochs * (fftWork(2 * n) + perTrial);
     const driver = waveletPeak > spectra + times * all.length ? '/frequencies' : recipe.perEpoch ? '/perEpoch' : '/decimation';
     return { bytes, work, driver };

@@ -6,7 +6,7 @@
 import { z } from 'zod';
 import { DETREND_KINDS } from '../dsp/detrend.js';
 import { BASELINE_MODES } from '../dsp/baseline.js';
-import { WINDOW_NAMES } from '../dsp/windows.js';
+import type { WINDOW_NAMES } from '../dsp/windows.js';
 import { DEFAULT_BANDS } from './bands.js';
 
 /** Version of the recipe format. A recipe carrying another version is refused, never reinterpreted. */

@@ -60,14 +60,14 @@ export const spectrogram = defineMethod({
     return fit;
   },
   cost(recipe, derived, shape) {
-    const { channels, epochs, loaded, prepared } = extentOf(recipe, derived, shape);
+    const { channels, epochs, prepared } = extentOf(recipe, derived, shape);
     const times = derived.segmentsPerEpoch;
     const full = Math.floor(derived.fftLength / 2) + 1;
     const kept = binsInRange(derived.fftLength, shape.samplingRate, derived.frequencyRange);
     const tapers = recipe.tapers ? (recipe.tapers.taperCount ?? defaultTaperCount(recipe.tapers.timeBandwidth)) : 1;
     // a trial's full matrix and the plan's scratch, beside the kept matrices
     const scratch = float64Bytes(times * full + 4 * derived.fftLength + tapers * derived.segmentSamples);
-    const bytes = float64Bytes(loaded + prepared) + matrixBytes(recipe, channels, epochs, times, kept, 0) + scratch;
+    const bytes = float64Bytes(prepared) + matrixBytes(recipe, channels, epochs, times, kept, 0) + scratch;
     const work = channels * epochs * times * tapers * (fftWork(derived.fftLength) / 2);
     return { bytes, work, driver: recipe.perEpoch ? '/perEpoch' : '/stepSeconds' };
   },

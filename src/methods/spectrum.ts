@@ -22,6 +22,7 @@ import {
   type Fit,
   type RecipeLimits,
   type SignalShape,
+  streamedRows,
 } from './fit.js';
 import type { commonSettings } from './settings.js';
 import type { z } from 'zod';
@@ -129,20 +130,19 @@ function checkFeatureRanges(recipe: SpectrumSettings, nyquist: number): void {
 
 /**
  * The memory and work every spectrum job has, given what one estimate of one channel costs:
- * the loaded samples, a re-referenced and an epoched copy, the per-channel sums, per-epoch spectra
- * when kept, and the estimator's own scratch (`estimatorBytes`) and work per channel and epoch.
+ * the rows the engine holds while it reads a channel at a time from the store
+ * ({@link streamedRows}), the per-channel sums, per-epoch spectra when kept, and the estimator's
+ * own scratch (`estimatorBytes`) and work per channel and epoch.
  */
 export function spectrumCost(recipe: SpectrumSettings, derived: DerivedSettings, shape: SignalShape, estimatorBytes: number, estimateWork: number, driver: string): CostEstimate {
-  const channels = shape.channels?.length ?? 1;
-  const loaded = channels * (shape.epochCount ?? 1) * shape.samplesPerEpoch;
   const epochSamples = recipe.epoching ? epochLength(recipe, shape) : shape.samplesPerEpoch;
   const epochs = epochCountOf(recipe, shape, epochSamples);
   const analysed = analysedChannels(recipe.reference, shape);
-  const prepared = (recipe.reference === 'none' ? 0 : loaded) + (recipe.epoching ? analysed * epochs * epochSamples : 0);
+  const prepared = streamedRows(recipe, shape, recipe.epoching ? epochs * epochSamples : (shape.epochCount ?? 1) * shape.samplesPerEpoch);
   const bins = Math.floor(derived.fftLength / 2) + 1;
   const sums = 2 * analysed * bins;
   const kept = recipe.perEpoch ? epochs * analysed * bins : 0;
-  const bytes = float64Bytes(loaded + prepared + sums + kept) + estimatorBytes;
+  const bytes = float64Bytes(prepared + sums + kept) + estimatorBytes;
   const work = epochs * analysed * estimateWork;
-  return { bytes, work, driver: kept > loaded + prepared ? '/perEpoch' : driver };
+  return { bytes, work, driver: kept > prepared ? '/perEpoch' : driver };
 }

@@ -19,6 +19,7 @@ import {
   type Fit,
   type RecipeLimits,
   type SignalShape,
+  streamedRows,
 } from './fit.js';
 import type { timeFrequencyCommon, timeFrequencyOutput } from './settings.js';
 import type { z } from 'zod';
@@ -80,12 +81,15 @@ export function fitTimeFrequency(recipe: TimeFrequencySettings, shape: SignalSha
 }
 
 /** The epochs, channels and trials a time–frequency job sees, for its output and cost. */
-export function extentOf(recipe: TimeFrequencySettings & { perEpoch?: boolean }, derived: DerivedSettings, shape: SignalShape) {
+export function extentOf(recipe: TimeFrequencySettings & { perEpoch?: boolean }, derived: DerivedSettings, shape: SignalShape, holds: 'one channel' | 'every channel' = 'one channel') {
   const channels = analysedChannels(recipe.reference, shape);
   const epochs = epochCountOf(recipe, shape, derived.epochSamples!);
-  const loaded = (shape.channels?.length ?? 1) * (shape.epochCount ?? 1) * shape.samplesPerEpoch;
-  const prepared = (recipe.reference === 'none' ? 0 : loaded) + (recipe.epoching ? channels * epochs * derived.epochSamples! : 0);
-  return { channels, epochs, loaded, prepared };
+  // The engine reads a channel row at a time from the store; connectivity keeps every selected
+  // channel's epochs (and the reference's row while it reads them).
+  const row = (shape.epochCount ?? 1) * shape.samplesPerEpoch;
+  const channelSamples = recipe.epoching ? epochs * derived.epochSamples! : row;
+  const prepared = holds === 'every channel' ? (recipe.reference === 'none' ? 0 : row) + channels * channelSamples : streamedRows(recipe, shape, channelSamples);
+  return { channels, epochs, prepared };
 }
 
 /**

@@ -103,6 +103,15 @@ function sampleCountOf(input: ContinuousData): number {
   return data.length / channelCount;
 }
 
+function checkRows(input: ChannelRows): ChannelRows {
+  const { channelCount, samplingRate, sampleCount } = input;
+  if (!Number.isInteger(channelCount) || channelCount < 1) throw new RangeError(`channelCount must be an integer ≥ 1, got ${channelCount}`);
+  requireFinite(samplingRate, 'samplingRate');
+  if (samplingRate <= 0) throw new RangeError(`samplingRate must be > 0 Hz, got ${samplingRate}`);
+  if (!Number.isInteger(sampleCount) || sampleCount < 0) throw new RangeError(`sampleCount must be an integer ≥ 0, got ${sampleCount}`);
+  return input;
+}
+
 interface Window {
   /** Offsets relative to the lock sample. */
   first: number;
@@ -169,45 +178,80 @@ interface Candidate {
   descriptor: EpochDescriptor;
 }
 
-function cut(input: ContinuousData, candidates: Candidate[], window: Window, screening: EpochScreening): EpochingResult {
-  const sampleCount = input.data.length / input.channelCount;
-  const { channelCount, samplingRate: fs } = input;
+/**
+ * Continuous data read one channel at a time: `row(c)` gives channel c's samples (length
+ * `sampleCount`; it may reuse one buffer, so each row is used before the next is asked for). Epoching reads each channel's row once to screen the epochs ({@link EpochPlan})
+ * and once more per channel to cut them ({@link epochsOfChannel}), so a long recording never has
+ * to be held whole.
+ */
+export interface ChannelRows {
+  channelCount: number;
+  sampleCount: number;
+  /** Hz. */
+  samplingRate: number;
+  row(c: number): Float64Array;
+}
+
+/** Which epochs are kept and dropped, and how each channel's epochs are cut: plain data. */
+export interface EpochPlan {
+  channelCount: number;
+  samplesPerEpoch: number;
+  /** [from, to) offsets in the epoch of the baseline whose mean is subtracted, or null */
+  baseline: [number, number] | null;
+  kept: EpochDescriptor[];
+  dropped: DroppedEpoch[];
+}
+
+function rowsOf(input: ContinuousData): ChannelRows {
+  const sampleCount = sampleCountOf(input);
+  return {
+    channelCount: input.channelCount,
+    sampleCount,
+    samplingRate: input.samplingRate,
+    row: (c) => input.data.subarray(c * sampleCount, (c + 1) * sampleCount),
+  };
+}
+
+// The same copy and baseline arithmetic for the screening and for the output.
+function extract(target: Float64Array, row: Float64Array, a: number, baseline: [number, number] | null): void {
+  const spe = target.length;
+  target.set(row.subarray(a, a + spe));
+  if (baseline !== null) {
+    let sum = 0;
+    for (let k = baseline[0]; k < baseline[1]; k++) sum += target[k]!;
+    const mean = sum / (baseline[1] - baseline[0]);
+    for (let k = 0; k < spe; k++) target[k]! -= mean;
+  }
+}
+
+/**
+ * Decides which candidate epochs stay. Bounds and bad spans need no samples; the peak-to-peak
+ * screening reads each checked channel's row once, in channel order, and keeps only the amplitude
+ * of each (candidate, channel), so the same epochs are kept and the same channel is named as when
+ * every channel was screened epoch by epoch.
+ */
+function planCut(input: ChannelRows, candidates: Candidate[], window: Window, screening: EpochScreening): EpochPlan {
+  const { channelCount, sampleCount, samplingRate: fs } = input;
   const spe = window.length;
   const baseline = baselineRange(screening, fs, window);
   const threshold = screening.peakToPeakThreshold;
   const checked = screening.rejectionChannels ?? Array.from({ length: channelCount }, (_, c) => c);
-  const kept: EpochDescriptor[] = [];
-  const dropped: DroppedEpoch[] = [];
-  const p2p = new Float64Array(channelCount);
-  const scratch = new Float64Array(spe);
-
-  // The same copy and baseline arithmetic as the output, on one channel at a time.
-  const extract = (target: Float64Array, c: number, a: number): void => {
-    target.set(input.data.subarray(c * sampleCount + a, c * sampleCount + a + spe));
-    if (baseline !== null) {
-      let sum = 0;
-      for (let k = baseline[0]; k < baseline[1]; k++) sum += target[k]!;
-      const mean = sum / (baseline[1] - baseline[0]);
-      for (let k = 0; k < spe; k++) target[k]! -= mean;
-    }
-  };
-
-  // First pass decides which epochs stay, so the output is allocated once at its final size:
-  // a long recording is then held twice (input and epochs), never three times.
-  for (const { descriptor } of candidates) {
+  // Per candidate, why it is dropped (null: kept so far); bounds and bad spans need no samples.
+  const verdicts = candidates.map(({ descriptor }): DroppedEpoch | null => {
     const a = descriptor.startSample;
-    if (a < 0 || a + spe > sampleCount) {
-      dropped.push({ ...descriptor, reason: 'out-of-bounds' });
-      continue;
-    }
+    if (a < 0 || a + spe > sampleCount) return { ...descriptor, reason: 'out-of-bounds' };
     const span = overlappedSpan(screening.badSpans, fs, a, spe);
-    if (span !== null) {
-      dropped.push({ ...descriptor, reason: 'bad-span', span });
-      continue;
-    }
-    if (threshold !== undefined) {
-      for (const c of checked) {
-        extract(scratch, c, a);
+    return span === null ? null : { ...descriptor, reason: 'bad-span', span };
+  });
+  const open = verdicts.flatMap((v, i) => (v === null ? [i] : []));
+  if (threshold !== undefined && open.length > 0) {
+    // p2p[j·channelCount + c]: peak-to-peak of open candidate j in channel c.
+    const p2p = new Float64Array(open.length * channelCount);
+    const scratch = new Float64Array(spe);
+    for (const c of [...new Set(checked)].sort((x, y) => x - y)) {
+      const row = input.row(c);
+      open.forEach((i, j) => {
+        extract(scratch, row, candidates[i]!.descriptor.startSample, baseline);
         let low = Infinity;
         let high = -Infinity;
         for (let k = 0; k < spe; k++) {
@@ -215,30 +259,48 @@ function cut(input: ContinuousData, candidates: Candidate[], window: Window, scr
           if (x < low) low = x;
           if (x > high) high = x;
         }
-        p2p[c] = high - low;
-      }
-      let worst = -1;
-      for (const c of checked) if (p2p[c]! > threshold && (worst < 0 || p2p[c]! > p2p[worst]!)) worst = c;
-      if (worst >= 0) {
-        dropped.push({ ...descriptor, reason: 'amplitude', channel: worst, value: p2p[worst]! });
-        continue;
-      }
+        p2p[j * channelCount + c] = high - low;
+      });
     }
-    kept.push(descriptor);
+    open.forEach((i, j) => {
+      const at = j * channelCount;
+      let worst = -1;
+      for (const c of checked) if (p2p[at + c]! > threshold && (worst < 0 || p2p[at + c]! > p2p[at + worst]!)) worst = c;
+      if (worst >= 0) verdicts[i] = { ...candidates[i]!.descriptor, reason: 'amplitude', channel: worst, value: p2p[at + worst]! };
+    });
   }
-  const out = new Float64Array(kept.length * channelCount * spe);
-  kept.forEach((descriptor, e) => {
-    const base = e * channelCount * spe;
-    for (let c = 0; c < channelCount; c++) extract(out.subarray(base + c * spe, base + (c + 1) * spe), c, descriptor.startSample);
-  });
   return {
-    data: out,
-    epochCount: kept.length,
     channelCount,
     samplesPerEpoch: spe,
-    kept,
-    dropped,
+    baseline,
+    kept: candidates.filter((_, i) => verdicts[i] === null).map((c) => c.descriptor),
+    dropped: verdicts.filter((v): v is DroppedEpoch => v !== null),
   };
+}
+
+/**
+ * One channel's kept epochs, [epoch][sample] (length kept·samplesPerEpoch), cut from its continuous
+ * row with the plan's baseline removal.
+ */
+export function epochsOfChannel(plan: EpochPlan, row: Float64Array): Float64Array {
+  const spe = plan.samplesPerEpoch;
+  const out = new Float64Array(plan.kept.length * spe);
+  plan.kept.forEach((descriptor, e) => extract(out.subarray(e * spe, (e + 1) * spe), row, descriptor.startSample, plan.baseline));
+  return out;
+}
+
+/** Every channel's epochs in one [epoch][channel][sample] array: allocated once, at its final size. */
+function assemble(plan: EpochPlan, rows: ChannelRows): EpochingResult {
+  const { channelCount, samplesPerEpoch: spe } = plan;
+  const out = new Float64Array(plan.kept.length * channelCount * spe);
+  for (let c = 0; c < channelCount; c++) {
+    const row = rows.row(c);
+    plan.kept.forEach((descriptor, e) => {
+      const base = e * channelCount * spe;
+      extract(out.subarray(base + c * spe, base + (c + 1) * spe), row, descriptor.startSample, plan.baseline);
+    });
+  }
+  return { data: out, epochCount: plan.kept.length, channelCount, samplesPerEpoch: spe, kept: plan.kept, dropped: plan.dropped };
 }
 
 /**
@@ -259,8 +321,13 @@ function cut(input: ContinuousData, candidates: Candidate[], window: Window, scr
  * analysis.
  */
 export function fixedLengthEpochs(input: ContinuousData, options: FixedLengthOptions): EpochingResult {
-  const sampleCount = sampleCountOf(input);
-  const fs = input.samplingRate;
+  const rows = rowsOf(input);
+  return assemble(planFixedLengthEpochs(rows, options), rows);
+}
+
+/** {@link fixedLengthEpochs} on data read a channel at a time: which epochs stay, for {@link epochsOfChannel}. */
+export function planFixedLengthEpochs(input: ChannelRows, options: FixedLengthOptions): EpochPlan {
+  const { sampleCount, samplingRate: fs } = checkRows(input);
   const { spe, step } = tiling(options, fs);
   checkScreening(options, input.channelCount);
   const label = options.label ?? '';
@@ -270,7 +337,7 @@ export function fixedLengthEpochs(input: ContinuousData, options: FixedLengthOpt
     if (start >= sampleCount) break;
     candidates.push({ descriptor: { source: k, label, startSample: start, lockSample: start, startSeconds: start / fs } });
   }
-  return cut(input, candidates, { first: 0, length: spe }, options);
+  return planCut(input, candidates, { first: 0, length: spe }, options);
 }
 
 /**
@@ -292,8 +359,13 @@ export function fixedLengthEpochs(input: ContinuousData, options: FixedLengthOpt
  * evoked-potential analysis.
  */
 export function eventLockedEpochs(input: ContinuousData, events: readonly EpochEvent[], options: EventLockedOptions): EpochingResult {
-  sampleCountOf(input);
-  const fs = input.samplingRate;
+  const rows = rowsOf(input);
+  return assemble(planEventLockedEpochs(rows, events, options), rows);
+}
+
+/** {@link eventLockedEpochs} on data read a channel at a time: which epochs stay, for {@link epochsOfChannel}. */
+export function planEventLockedEpochs(input: ChannelRows, events: readonly EpochEvent[], options: EventLockedOptions): EpochPlan {
+  const fs = checkRows(input).samplingRate;
   requireFinite(options.beforeSeconds, 'beforeSeconds');
   requireFinite(options.afterSeconds, 'afterSeconds');
   const before = Math.round(options.beforeSeconds * fs);
@@ -307,7 +379,7 @@ export function eventLockedEpochs(input: ContinuousData, events: readonly EpochE
     const start = lock - before;
     return { descriptor: { source: i, label: event.label, startSample: start, lockSample: lock, startSeconds: start / fs } };
   });
-  return cut(input, candidates, { first: -before, length: spe }, options);
+  return planCut(input, candidates, { first: -before, length: spe }, options);
 }
 
 export interface EpochBlock {
@@ -345,8 +417,13 @@ export interface BlockOptions extends EpochScreening {
  * rest) is common practice in resting-state EEG analysis.
  */
 export function blockEpochs(input: ContinuousData, blocks: readonly EpochBlock[], options: BlockOptions): EpochingResult {
-  sampleCountOf(input);
-  const fs = input.samplingRate;
+  const rows = rowsOf(input);
+  return assemble(planBlockEpochs(rows, blocks, options), rows);
+}
+
+/** {@link blockEpochs} on data read a channel at a time: which epochs stay, for {@link epochsOfChannel}. */
+export function planBlockEpochs(input: ChannelRows, blocks: readonly EpochBlock[], options: BlockOptions): EpochPlan {
+  const fs = checkRows(input).samplingRate;
   const { spe, step } = tiling(options, fs);
   checkScreening(options, input.channelCount);
   const candidates: Candidate[] = [];
@@ -363,5 +440,5 @@ export function blockEpochs(input: ContinuousData, blocks: readonly EpochBlock[]
       candidates.push({ descriptor: { source: i, label: block.label, startSample: start, lockSample: start, startSeconds: start / fs } });
     }
   });
-  return cut(input, candidates, { first: 0, length: spe }, options);
+  return planCut(input, candidates, { first: 0, length: spe }, options);
 }
