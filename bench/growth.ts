@@ -1,0 +1,232 @@
+/**
+ * How the time and peak memory of analyze() grow with the size of the input, for Welch, multitaper
+ * and Morlet: from each method's base workload, one of channel count, epoch length and epoch count
+ * is doubled three times (4 points) while the other two stay at the base. Each point runs in a fresh
+ * child process (`--point <json>`), on one thread (no channel runner), so points share no heap, JIT
+ * state, FFT plans or cached tapers:
+ *
+ * - the first analyze() fills the caches (DPSS tapers, FFT plans) and is the one whose memory is
+ *   read: the peak resident set (VmHWM, reset through /proc/self/clear_refs just before the
+ *   signal is made) minus the resident set at that moment, so the input itself counts, as it does in
+ *   a worker;
+ * - more runs warm the JIT (WARM_MS), then MIN_RUNS to RUNS more analyze() calls, each after a full GC, are timed; the least CPU time (user +
+ *   system of the process) is fitted, because on this shared 2-core machine other work stretches wall
+ *   time far more than CPU time; the exponent of the least wall time is printed beside it.
+ *
+ * The exponent b of time ≈ a·n^b (and of memory) is fitted by least squares on the logs
+ * (bench/power-law-fit.ts) and printed beside what one would expect:
+ * - channels and epoch count: b ≈ 1, every channel–epoch is the same independent work (common practice);
+ * - epoch length, Welch: b ≈ 1, segments keep their length and their count grows with the epoch
+ *   (common practice);
+ * - epoch length, multitaper and Morlet: one FFT of about the epoch's length per taper or frequency,
+ *   so n·log n (common practice); the printed expectation is the exponent fitted to n·ln n over the
+ *   same n, a little above 1;
+ * - memory: b ≈ 1 on every axis, the input and its prepared copies grow with n (Morlet's matrices are
+ *   averaged over trials, so they stay put as epochs are added, and its memory grows more slowly there);
+ *   a fixed part (code and heap the first run touches, some MiB) pulls the fitted b under 1 where the
+ *   input is small, so the peak over the input at the largest point is printed too.
+ *
+ * Bounded: each child at most 60 s. Prints figures, never asserts. Run: npx tsx bench/growth.ts
+ */
+import { spawnSync } from 'node:child_process';
+import { writeFileSync } from 'node:fs';
+import { loadavg } from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { fitPowerLaw } from './power-law-fit.js';
+import { readVm } from './upload.js';
+
+const SAMPLING_RATE = 256;
+/** timed runs per point: at most RUNS, fewer once the timed runs have taken RUN_BUDGET_MS (never under MIN_RUNS) */
+const RUNS = 5;
+const MIN_RUNS = 3;
+const RUN_BUDGET_MS = 2000;
+/**
+ * Warm-up runs go on until WARM_MS have passed (at least 2 runs): V8 optimizes a function after
+ * enough calls and compiles it on a background thread whose CPU time the process's figure counts, so
+ * a small point timed after a single run still paid for compiling (the least CPU time of the smallest
+ * Welch point was 1.5–2× a later quiet one, which pulled its exponent down to 0.6–0.7).
+ */
+const WARM_MS = 500;
+const CHILD_BOUND_MS = 60_000;
+const MiB = 2 ** 20;
+
+type Axis = 'channels' | 'epochSeconds' | 'epochs';
+
+interface Workload {
+  channels: number;
+  epochSeconds: number;
+  epochs: number;
+}
+
+interface Method {
+  name: string;
+  recipe: Record<string, unknown>;
+  base: Workload;
+  /** what b of time should be on the epoch-length axis: 'linear' or 'n log n' */
+  lengthGrowth: 'linear' | 'n log n';
+}
+
+// Base workloads sized so that the smallest point takes tens of milliseconds and the largest a few
+// hundred on one thread, and the whole block stays within about two minutes on a 2-core machine.
+const METHODS: readonly Method[] = [
+  { name: 'welch', recipe: { method: 'welch', segmentSeconds: 1 }, base: { channels: 32, epochSeconds: 4, epochs: 40 }, lengthGrowth: 'linear' },
+  { name: 'multitaper', recipe: { method: 'multitaper', timeBandwidth: 4 }, base: { channels: 32, epochSeconds: 2, epochs: 20 }, lengthGrowth: 'n log n' },
+  {
+    name: 'morlet',
+    recipe: { method: 'morlet', frequencies: { low: 8, high: 40, count: 16 }, cycles: 7 },
+    base: { channels: 16, epochSeconds: 2, epochs: 10 },
+    lengthGrowth: 'n log n',
+  },
+];
+
+const AXES: readonly Axis[] = ['channels', 'epochSeconds', 'epochs'];
+const AXIS_LABEL: Record<Axis, string> = { channels: 'channels', epochSeconds: 'epoch length', epochs: 'epoch count' };
+const STEPS = [1, 2, 4, 8];
+
+interface PointResult {
+  /** wall seconds of each timed run */
+  seconds: number[];
+  /** CPU seconds (user + system, this process) of each timed run */
+  cpuSeconds: number[];
+  peakGrowthBytes: number;
+  inputBytes: number;
+  /** false when VmHWM could not be reset, so the peak may be an earlier one */
+  peakReset: boolean;
+}
+
+/** One point, in this (child) process: prints one JSON line. */
+async function runPoint(method: Method, w: Workload): Promise<void> {
+  const { analyze } = await import('../src/engine/analyze.js');
+  const { normalizeRecipe } = await import('../src/recipes/normalize.js');
+  const { resolveRecipe } = await import('../src/recipes/resolve.js');
+  const gc = (globalThis as { gc?: () => void }).gc ?? (() => {});
+  const samples = w.epochSeconds * SAMPLING_RATE;
+  const pinned = normalizeRecipe(method.recipe);
+
+  gc();
+  const before = readVm(process.pid, 'VmRSS') ?? process.memoryUsage().rss;
+  let peakReset = true;
+  try {
+    // "5" resets the peak resident set (VmHWM) to the current one (Linux ≥ 4.0).
+    writeFileSync('/proc/self/clear_refs', '5');
+  } catch {
+    peakReset = false;
+  }
+  const data = new Float64Array(w.epochs * w.channels * samples);
+  // The sine-hash noise of bench/sine-hash.ts (signal k at k·samples), written straight into the
+  // packed array so that no temporary copy counts towards the peak.
+  for (let i = 0; i < data.length; i++) {
+    const h = Math.sin((i + 1) * 12.9898) * 43758.5453;
+    data[i] = h - Math.floor(h) - 0.5;
+  }
+  const signal = { samplingRate: SAMPLING_RATE, channels: Array.from({ length: w.channels }, (_, c) => `E${c + 1}`), unit: 'uV', epochCount: w.epochs, samplesPerEpoch: samples, data };
+  const context = { signalId: 'sig_growth', sha256: 'growth', recipeId: pinned.id, mode: 'local' as const };
+  const run = () => analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), context);
+  run();
+  const peak = readVm(process.pid, 'VmHWM') ?? process.resourceUsage().maxRSS * 1024;
+  const warmStart = performance.now();
+  for (let r = 1; r < 2 || performance.now() - warmStart < WARM_MS; r++) run();
+  const seconds: number[] = [];
+  const cpuSeconds: number[] = [];
+  const began = performance.now();
+  for (let r = 0; r < RUNS && (r < MIN_RUNS || performance.now() - began < RUN_BUDGET_MS); r++) {
+    gc();
+    const t0 = performance.now();
+    const cpu0 = process.cpuUsage();
+    run();
+    const cpu = process.cpuUsage(cpu0);
+    seconds.push((performance.now() - t0) / 1000);
+    cpuSeconds.push((cpu.user + cpu.system) / 1e6);
+  }
+  const result: PointResult = { seconds, cpuSeconds, peakGrowthBytes: peak - before, inputBytes: data.byteLength, peakReset };
+  console.log(JSON.stringify(result));
+}
+
+function pointInChild(method: Method, w: Workload): PointResult | string {
+  const child = spawnSync(process.execPath, ['--expose-gc', '--import', 'tsx', fileURLToPath(import.meta.url), '--point', JSON.stringify({ method: method.name, workload: w })], {
+    encoding: 'utf8',
+    timeout: CHILD_BOUND_MS,
+  });
+  const line = child.stdout?.trim().split('\n').at(-1) ?? '';
+  if (child.status !== 0 || !line.startsWith('{')) return `${child.error?.message ?? child.stderr?.trim().split('\n').at(-1) ?? `exit ${child.status}`}`;
+  return JSON.parse(line) as PointResult;
+}
+
+const fmt = (v: number, digits = 2): string => v.toFixed(digits);
+/** The 1-minute load average: other work on this shared machine changes every figure. */
+const load = (): string => loadavg()[0]!.toFixed(1);
+
+export async function benchGrowth(): Promise<string[]> {
+  const started = performance.now();
+  const lines = [
+    `growth: analyze() on one thread, ${SAMPLING_RATE} Hz sine-hash noise; one axis doubled 3 times from each method's base, the others held; each point in a fresh child`,
+    `  time: the least CPU time (user + system) of ${MIN_RUNS}–${RUNS} runs after ${WARM_MS} ms of warm-up runs, which other work on the machine disturbs less than wall time;`,
+    '  b wall: the same fit on the least wall time; memory: peak resident growth during the first run, input included; peak/input at the largest n',
+    '  method      axis          n                     CPU s (least)            b cpu  r²     b wall  expected        peak MiB         b mem  peak/input',
+  ];
+  let notes = 0;
+  for (const method of METHODS) {
+    lines.push(`  ${method.name} base: ${method.base.channels} ch × ${method.base.epochSeconds} s × ${method.base.epochs} epochs; recipe ${JSON.stringify(method.recipe)}; load average ${load()}`);
+    for (const axis of AXES) {
+      const ns = STEPS.map((s) => method.base[axis] * s);
+      const results: PointResult[] = [];
+      let failed: string | null = null;
+      for (const n of ns) {
+        const result = pointInChild(method, { ...method.base, [axis]: n });
+        if (typeof result === 'string') {
+          failed = `n = ${n}: ${result}`;
+          break;
+        }
+        results.push(result);
+      }
+      const label = `  ${method.name.padEnd(11)} ${AXIS_LABEL[axis].padEnd(13)}`;
+      if (failed !== null) {
+        lines.push(`${label} not measured (${failed})`);
+        notes++;
+        continue;
+      }
+      const times = results.map((r) => Math.min(...r.cpuSeconds));
+      const walls = results.map((r) => Math.min(...r.seconds));
+      const peaks = results.map((r) => r.peakGrowthBytes);
+      const time = fitPowerLaw(ns, times);
+      const wall = fitPowerLaw(ns, walls);
+      const last = results.at(-1)!;
+      const memory = peaks.every((p) => p > 0) ? fitPowerLaw(ns, peaks) : null;
+      const nlogn = fitPowerLaw(
+        ns,
+        ns.map((n) => n * SAMPLING_RATE * Math.log(n * SAMPLING_RATE)),
+      ).b;
+      const expected = axis === 'epochSeconds' && method.lengthGrowth === 'n log n' ? `${fmt(nlogn)} (n log n)` : '1 (linear)';
+      const nText = axis === 'epochSeconds' ? ns.map((n) => `${n} s`).join(', ') : ns.join(', ');
+      lines.push(
+        `${label} ${nText.padEnd(21)} ${times
+          .map((t) => fmt(t, 3))
+          .join(' ')
+          .padEnd(24)} ${fmt(time.b).padStart(5)}  ${fmt(time.r2, 3)}  ${fmt(wall.b).padStart(5)}   ${expected.padEnd(15)} ${peaks
+          .map((p) => (p / MiB).toFixed(0))
+          .join(' ')
+          .padEnd(16)} ${(memory === null ? 'n/a' : fmt(memory.b)).padStart(5)}  ${fmt(last.peakGrowthBytes / last.inputBytes, 1)}×`,
+      );
+      if (results.some((r) => !r.peakReset)) lines.push(`    (VmHWM could not be reset here: the peaks may include the process start)`);
+    }
+  }
+  lines.push(
+    '  expected: linear in channels and epochs (independent channel–epochs); Welch linear in epoch length (fixed segments);',
+    '  multitaper and Morlet n log n in epoch length (an FFT of about the epoch per taper or frequency): common practice.',
+    `  (${((performance.now() - started) / 1000).toFixed(0)} s for ${METHODS.length * AXES.length * STEPS.length} child processes${notes > 0 ? `; ${notes} axis(es) not measured` : ''})`,
+  );
+  return lines;
+}
+
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  const at = process.argv.indexOf('--point');
+  if (at >= 0) {
+    const spec = JSON.parse(process.argv[at + 1] ?? '{}') as { method: string; workload: Workload };
+    const method = METHODS.find((m) => m.name === spec.method);
+    if (method === undefined) throw new RangeError(`--point: unknown method ${JSON.stringify(spec.method)}; use one of ${METHODS.map((m) => m.name).join(', ')}`);
+    await runPoint(method, spec.workload);
+  } else {
+    for (const line of await benchGrowth()) console.log(line);
+  }
+}
