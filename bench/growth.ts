@@ -1,17 +1,19 @@
 /**
  * How the time and peak memory of analyze() grow with the size of the input, for Welch, multitaper
  * and Morlet: from each method's base workload, one of channel count, epoch length and epoch count
- * is doubled three times (4 points) while the other two stay at the base. Each point runs in a fresh
- * child process (`--point <json>`), on one thread (no channel runner), so points share no heap, JIT
- * state, FFT plans or cached tapers:
+ * is doubled three times (4 points) while the other two stay at the base. Everything runs on one
+ * thread (no channel runner), in child processes of this file:
  *
- * - the first analyze() fills the caches (DPSS tapers, FFT plans) and is the one whose memory is
- *   read: the peak resident set (VmHWM, reset through /proc/self/clear_refs just before the
- *   signal is made) minus the resident set at that moment, so the input itself counts, as it does in
- *   a worker;
- * - more runs warm the JIT (WARM_MS), then MIN_RUNS to RUNS more analyze() calls, each after a full GC, are timed; the least CPU time (user +
- *   system of the process) is fitted, because on this shared 2-core machine other work stretches wall
- *   time far more than CPU time; the exponent of the least wall time is printed beside it.
+ * - memory, one fresh child per point (`--memory`): its one analyze() is its first, so the caches
+ *   (DPSS tapers, FFT plans) are filled inside it; read is the peak resident set (VmHWM, reset
+ *   through /proc/self/clear_refs just before the signal is made) minus the resident set at that
+ *   moment, so the input itself counts, as it does in a worker;
+ * - time, one child per axis (`--timing`): each size is warmed for WARM_MS, then ROUNDS rounds run
+ *   every size once, each run after a full GC, so a noisy spell of this shared machine hits all
+ *   sizes alike (timing each point in its own child, the same base workload measured 0.036–0.063 s
+ *   at a load average of 8, which moved exponents by ±0.3). The least CPU time (user + system of the
+ *   process) of each size is fitted: other work stretches wall time far more than CPU time; the
+ *   exponent of the least wall time is printed beside it.
  *
  * The exponent b of time ≈ a·n^b (and of memory) is fitted by least squares on the logs
  * (bench/power-law-fit.ts) and printed beside what one would expect:
@@ -37,10 +39,8 @@ import { fitPowerLaw } from './power-law-fit.js';
 import { readVm } from './upload.js';
 
 const SAMPLING_RATE = 256;
-/** timed runs per point: at most RUNS, fewer once the timed runs have taken RUN_BUDGET_MS (never under MIN_RUNS) */
-const RUNS = 5;
-const MIN_RUNS = 3;
-const RUN_BUDGET_MS = 2000;
+/** timed rounds; each round runs every size of the axis once, smallest first */
+const ROUNDS = 5;
 /**
  * Warm-up runs go on until WARM_MS have passed (at least 2 runs): V8 optimizes a function after
  * enough calls and compiles it on a background thread whose CPU time the process's figure counts, so
@@ -84,26 +84,49 @@ const AXES: readonly Axis[] = ['channels', 'epochSeconds', 'epochs'];
 const AXIS_LABEL: Record<Axis, string> = { channels: 'channels', epochSeconds: 'epoch length', epochs: 'epoch count' };
 const STEPS = [1, 2, 4, 8];
 
-interface PointResult {
-  /** wall seconds of each timed run */
-  seconds: number[];
-  /** CPU seconds (user + system, this process) of each timed run */
-  cpuSeconds: number[];
+interface MemoryResult {
   peakGrowthBytes: number;
   inputBytes: number;
   /** false when VmHWM could not be reset, so the peak may be an earlier one */
   peakReset: boolean;
 }
 
-/** One point, in this (child) process: prints one JSON line. */
-async function runPoint(method: Method, w: Workload): Promise<void> {
+interface TimingResult {
+  /** per size, the wall seconds of each timed run */
+  seconds: number[][];
+  /** per size, the CPU seconds (user + system, this process) of each timed run */
+  cpuSeconds: number[][];
+}
+
+type Engine = { makeRun(w: Workload): { run: () => unknown; inputBytes: number } };
+
+async function loadEngine(method: Method): Promise<Engine> {
   const { analyze } = await import('../src/engine/analyze.js');
   const { normalizeRecipe } = await import('../src/recipes/normalize.js');
   const { resolveRecipe } = await import('../src/recipes/resolve.js');
-  const gc = (globalThis as { gc?: () => void }).gc ?? (() => {});
-  const samples = w.epochSeconds * SAMPLING_RATE;
   const pinned = normalizeRecipe(method.recipe);
+  return {
+    makeRun(w) {
+      const samples = w.epochSeconds * SAMPLING_RATE;
+      const data = new Float64Array(w.epochs * w.channels * samples);
+      // The sine-hash noise of bench/sine-hash.ts (signal k at k·samples), written straight into the
+      // packed array so that no temporary copy counts towards the peak.
+      for (let i = 0; i < data.length; i++) {
+        const h = Math.sin((i + 1) * 12.9898) * 43758.5453;
+        data[i] = h - Math.floor(h) - 0.5;
+      }
+      const signal = { samplingRate: SAMPLING_RATE, channels: Array.from({ length: w.channels }, (_, c) => `E${c + 1}`), unit: 'uV', epochCount: w.epochs, samplesPerEpoch: samples, data };
+      const context = { signalId: 'sig_growth', sha256: 'growth', recipeId: pinned.id, mode: 'local' as const };
+      return { run: () => analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), context), inputBytes: data.byteLength };
+    },
+  };
+}
 
+const gc = (): void => (globalThis as { gc?: () => void }).gc?.();
+
+/** The memory of one point, in this (child) process: prints one JSON line. */
+async function memoryPoint(method: Method, w: Workload): Promise<void> {
+  const engine = await loadEngine(method);
   gc();
   const before = readVm(process.pid, 'VmRSS') ?? process.memoryUsage().rss;
   let peakReset = true;
@@ -113,44 +136,42 @@ async function runPoint(method: Method, w: Workload): Promise<void> {
   } catch {
     peakReset = false;
   }
-  const data = new Float64Array(w.epochs * w.channels * samples);
-  // The sine-hash noise of bench/sine-hash.ts (signal k at k·samples), written straight into the
-  // packed array so that no temporary copy counts towards the peak.
-  for (let i = 0; i < data.length; i++) {
-    const h = Math.sin((i + 1) * 12.9898) * 43758.5453;
-    data[i] = h - Math.floor(h) - 0.5;
-  }
-  const signal = { samplingRate: SAMPLING_RATE, channels: Array.from({ length: w.channels }, (_, c) => `E${c + 1}`), unit: 'uV', epochCount: w.epochs, samplesPerEpoch: samples, data };
-  const context = { signalId: 'sig_growth', sha256: 'growth', recipeId: pinned.id, mode: 'local' as const };
-  const run = () => analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), context);
+  const { run, inputBytes } = engine.makeRun(w);
   run();
   const peak = readVm(process.pid, 'VmHWM') ?? process.resourceUsage().maxRSS * 1024;
-  const warmStart = performance.now();
-  for (let r = 1; r < 2 || performance.now() - warmStart < WARM_MS; r++) run();
-  const seconds: number[] = [];
-  const cpuSeconds: number[] = [];
-  const began = performance.now();
-  for (let r = 0; r < RUNS && (r < MIN_RUNS || performance.now() - began < RUN_BUDGET_MS); r++) {
-    gc();
-    const t0 = performance.now();
-    const cpu0 = process.cpuUsage();
-    run();
-    const cpu = process.cpuUsage(cpu0);
-    seconds.push((performance.now() - t0) / 1000);
-    cpuSeconds.push((cpu.user + cpu.system) / 1e6);
-  }
-  const result: PointResult = { seconds, cpuSeconds, peakGrowthBytes: peak - before, inputBytes: data.byteLength, peakReset };
+  const result: MemoryResult = { peakGrowthBytes: peak - before, inputBytes, peakReset };
   console.log(JSON.stringify(result));
 }
 
-function pointInChild(method: Method, w: Workload): PointResult | string {
-  const child = spawnSync(process.execPath, ['--expose-gc', '--import', 'tsx', fileURLToPath(import.meta.url), '--point', JSON.stringify({ method: method.name, workload: w })], {
-    encoding: 'utf8',
-    timeout: CHILD_BOUND_MS,
-  });
+/** The times of every size of one axis, in this (child) process, interleaved: prints one JSON line. */
+async function timingAxis(method: Method, sizes: readonly Workload[]): Promise<void> {
+  const engine = await loadEngine(method);
+  const runs = sizes.map((w) => engine.makeRun(w).run);
+  for (const run of runs) {
+    const warmStart = performance.now();
+    for (let r = 0; r < 2 || performance.now() - warmStart < WARM_MS; r++) run();
+  }
+  const result: TimingResult = { seconds: runs.map(() => []), cpuSeconds: runs.map(() => []) };
+  for (let round = 0; round < ROUNDS; round++) {
+    runs.forEach((run, i) => {
+      gc();
+      const t0 = performance.now();
+      const cpu0 = process.cpuUsage();
+      run();
+      const cpu = process.cpuUsage(cpu0);
+      result.seconds[i]!.push((performance.now() - t0) / 1000);
+      result.cpuSeconds[i]!.push((cpu.user + cpu.system) / 1e6);
+    });
+  }
+  console.log(JSON.stringify(result));
+}
+
+/** Runs this file in a child with `args`; its last stdout line as JSON, or why there is none. */
+function inChild<T>(args: string[]): T | string {
+  const child = spawnSync(process.execPath, ['--expose-gc', '--import', 'tsx', fileURLToPath(import.meta.url), ...args], { encoding: 'utf8', timeout: CHILD_BOUND_MS });
   const line = child.stdout?.trim().split('\n').at(-1) ?? '';
   if (child.status !== 0 || !line.startsWith('{')) return `${child.error?.message ?? child.stderr?.trim().split('\n').at(-1) ?? `exit ${child.status}`}`;
-  return JSON.parse(line) as PointResult;
+  return JSON.parse(line) as T;
 }
 
 const fmt = (v: number, digits = 2): string => v.toFixed(digits);
@@ -160,9 +181,10 @@ const load = (): string => loadavg()[0]!.toFixed(1);
 export async function benchGrowth(): Promise<string[]> {
   const started = performance.now();
   const lines = [
-    `growth: analyze() on one thread, ${SAMPLING_RATE} Hz sine-hash noise; one axis doubled 3 times from each method's base, the others held; each point in a fresh child`,
-    `  time: the least CPU time (user + system) of ${MIN_RUNS}–${RUNS} runs after ${WARM_MS} ms of warm-up runs, which other work on the machine disturbs less than wall time;`,
-    '  b wall: the same fit on the least wall time; memory: peak resident growth during the first run, input included; peak/input at the largest n',
+    `growth: analyze() on one thread, ${SAMPLING_RATE} Hz sine-hash noise; one axis doubled 3 times from each method's base, the others held`,
+    `  time: one child per axis runs its 4 sizes in turn, ${ROUNDS} rounds after ${WARM_MS} ms of warm-up each; the least CPU time (user + system) of each size`,
+    '  (other work on the machine disturbs it less than wall time); b wall: the same fit on the least wall time',
+    '  memory: one child per point, peak resident growth during its one run, input included; peak/input at the largest n',
     '  method      axis          n                     CPU s (least)            b cpu  r²     b wall  expected        peak MiB         b mem  peak/input',
   ];
   let notes = 0;
@@ -170,24 +192,20 @@ export async function benchGrowth(): Promise<string[]> {
     lines.push(`  ${method.name} base: ${method.base.channels} ch × ${method.base.epochSeconds} s × ${method.base.epochs} epochs; recipe ${JSON.stringify(method.recipe)}; load average ${load()}`);
     for (const axis of AXES) {
       const ns = STEPS.map((s) => method.base[axis] * s);
-      const results: PointResult[] = [];
-      let failed: string | null = null;
-      for (const n of ns) {
-        const result = pointInChild(method, { ...method.base, [axis]: n });
-        if (typeof result === 'string') {
-          failed = `n = ${n}: ${result}`;
-          break;
-        }
-        results.push(result);
-      }
+      const sizes = ns.map((n) => ({ ...method.base, [axis]: n }));
       const label = `  ${method.name.padEnd(11)} ${AXIS_LABEL[axis].padEnd(13)}`;
-      if (failed !== null) {
+      const timing = inChild<TimingResult>(['--timing', JSON.stringify({ method: method.name, sizes })]);
+      const memories = sizes.map((w) => inChild<MemoryResult>(['--memory', JSON.stringify({ method: method.name, sizes: [w] })]));
+      const failed = [timing, ...memories].find((r): r is string => typeof r === 'string');
+      if (failed !== undefined) {
         lines.push(`${label} not measured (${failed})`);
         notes++;
         continue;
       }
-      const times = results.map((r) => Math.min(...r.cpuSeconds));
-      const walls = results.map((r) => Math.min(...r.seconds));
+      const results = memories as MemoryResult[];
+      const { cpuSeconds, seconds } = timing as TimingResult;
+      const times = cpuSeconds.map((t) => Math.min(...t));
+      const walls = seconds.map((t) => Math.min(...t));
       const peaks = results.map((r) => r.peakGrowthBytes);
       const time = fitPowerLaw(ns, times);
       const wall = fitPowerLaw(ns, walls);
@@ -214,18 +232,19 @@ export async function benchGrowth(): Promise<string[]> {
   lines.push(
     '  expected: linear in channels and epochs (independent channel–epochs); Welch linear in epoch length (fixed segments);',
     '  multitaper and Morlet n log n in epoch length (an FFT of about the epoch per taper or frequency): common practice.',
-    `  (${((performance.now() - started) / 1000).toFixed(0)} s for ${METHODS.length * AXES.length * STEPS.length} child processes${notes > 0 ? `; ${notes} axis(es) not measured` : ''})`,
+    `  (${((performance.now() - started) / 1000).toFixed(0)} s for ${METHODS.length * AXES.length * (STEPS.length + 1)} child processes${notes > 0 ? `; ${notes} axis(es) not measured` : ''})`,
   );
   return lines;
 }
 
 if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
-  const at = process.argv.indexOf('--point');
-  if (at >= 0) {
-    const spec = JSON.parse(process.argv[at + 1] ?? '{}') as { method: string; workload: Workload };
+  const mode = process.argv.find((a) => a === '--timing' || a === '--memory');
+  if (mode !== undefined) {
+    const spec = JSON.parse(process.argv[process.argv.indexOf(mode) + 1] ?? '{}') as { method: string; sizes: Workload[] };
     const method = METHODS.find((m) => m.name === spec.method);
-    if (method === undefined) throw new RangeError(`--point: unknown method ${JSON.stringify(spec.method)}; use one of ${METHODS.map((m) => m.name).join(', ')}`);
-    await runPoint(method, spec.workload);
+    if (method === undefined) throw new RangeError(`${mode}: unknown method ${JSON.stringify(spec.method)}; use one of ${METHODS.map((m) => m.name).join(', ')}`);
+    if (mode === '--timing') await timingAxis(method, spec.sizes);
+    else await memoryPoint(method, spec.sizes[0]!);
   } else {
     for (const line of await benchGrowth()) console.log(line);
   }
