@@ -42,10 +42,10 @@ const SAMPLING_RATE = 256;
 /** timed rounds; each round runs every size of the axis once, smallest first */
 const ROUNDS = 5;
 /**
- * Warm-up runs go on until WARM_MS have passed (at least 2 runs): V8 optimizes a function after
- * enough calls and compiles it on a background thread whose CPU time the process's figure counts, so
- * a small point timed after a single run still paid for compiling (the least CPU time of the smallest
- * Welch point was 1.5–2× a later quiet one, which pulled its exponent down to 0.6–0.7).
+ * Each size is run until WARM_MS have passed (at least 2 runs) before timing: V8 optimizes a function
+ * after enough calls, on a background thread whose CPU time the process's figure counts. With a single
+ * warm-up run the smallest Welch point took 1.5–2× its later least time; the longer warm-up did not
+ * lift the slopes measured at a load average of 7–12 either, so compilation is not the whole story.
  */
 const WARM_MS = 500;
 const CHILD_BOUND_MS = 60_000;
@@ -68,7 +68,8 @@ interface Method {
 }
 
 // Base workloads sized so that the smallest point takes tens of milliseconds and the largest a few
-// hundred on one thread, and the whole block stays within about two minutes on a 2-core machine.
+// hundred on one thread. The block took 4–5 minutes at a load average of 7–12 on the shared 2-core
+// machine, most of it starting the 45 children under tsx.
 const METHODS: readonly Method[] = [
   { name: 'welch', recipe: { method: 'welch', segmentSeconds: 1 }, base: { channels: 32, epochSeconds: 4, epochs: 40 }, lengthGrowth: 'linear' },
   { name: 'multitaper', recipe: { method: 'multitaper', timeBandwidth: 4 }, base: { channels: 32, epochSeconds: 2, epochs: 20 }, lengthGrowth: 'n log n' },
