@@ -156,6 +156,9 @@ async function runConfiguration(config: Configuration, batch: readonly Recording
       Array.from({ length: 2 * slots }, (_, i) => post('/v1/jobs', { signal: signals[i]!, recipe: { method: RECIPES[i % 2]!.recipe.method, epoching: { mode: 'fixed', epochSeconds: 3 } } })),
     );
     for (const job of warm) while (!FINISHED.has((await fetch(`${base}/v1/jobs/${String(job.id)}`).then(json)).state as string)) await sleep(50);
+    // Their log lines too (see below), so that none is counted in the first run.
+    const warmDeadline = performance.now() + 5000;
+    while (workers.reduce((sum, w) => sum + w.logs('job completed').length, 0) < warm.length && performance.now() < warmDeadline) await sleep(20);
     const warmed = workers.map((w) => w.logs('job completed').length);
     if (warmed.some((n) => n === 0)) lines.push(`  note: a worker took no warm-up job (${warmed.join(' + ')}); its first jobs below start cold`);
 
@@ -174,6 +177,12 @@ async function runConfiguration(config: Configuration, batch: readonly Recording
         await sleep(25);
       }
       const seconds = (performance.now() - t0) / 1000;
+      // A worker's "job completed" line can reach this process after the run has ended (the run
+      // follows the queue's notification, not the log pipe): wait for it, bounded, so that it is
+      // not counted in the next run. A job found instead of computed never logs, and stays missing.
+      const completed = () => workers.reduce((sum, w, i) => sum + w.logs('job completed').length - before[i]!, 0);
+      const logDeadline = performance.now() + 5000;
+      while (completed() < batch.length && performance.now() < logDeadline) await sleep(20);
       const perWorker = workers.map((w, i) => w.logs('job completed').length - before[i]!);
       const counts = view.counts as Record<string, number>;
       const computed = perWorker.reduce((s, n) => s + n, 0);
