@@ -2,18 +2,20 @@
  * How the time and peak memory of analyze() grow with the size of the input, for Welch, multitaper
  * and Morlet: from each method's base workload, one of channel count, epoch length and epoch count
  * is doubled three times (4 points) while the other two stay at the base. Everything runs on one
- * thread (no channel runner), in child processes of this file:
+ * thread (no channel runner). Each point runs in a child process of its own (`--point`), and
+ * CHILD_ROUNDS such children per point are run in turn over all points:
  *
- * - memory, one fresh child per point (`--memory`): its one analyze() is its first, so the caches
- *   (DPSS tapers, FFT plans) are filled inside it; read is the peak resident set (VmHWM, reset
- *   through /proc/self/clear_refs just before the signal is made) minus the resident set at that
- *   moment, so the input itself counts, as it does in a worker;
- * - time, one child per axis (`--timing`): each size is warmed for WARM_MS, then ROUNDS rounds run
- *   every size once, each run after a full GC, so a noisy spell of this shared machine hits all
- *   sizes alike (timing each point in its own child, the same base workload measured 0.036–0.063 s
- *   at a load average of 8, which moved exponents by ±0.3). The least CPU time (user + system of the
- *   process) of each size is fitted: other work stretches wall time far more than CPU time; the
- *   exponent of the least wall time is printed beside it.
+ * - memory: the child's first analyze() fills the caches (DPSS tapers, FFT plans); read is the peak
+ *   resident set (VmHWM, reset through /proc/self/clear_refs just before the signal is made) minus
+ *   the resident set at that moment, so the input itself counts, as it does in a worker;
+ * - time: after WARM_MS of warm-up, ROUNDS runs, each after a full GC; the least CPU time (user +
+ *   system of the process) over all of a point's children is fitted (other work stretches wall time
+ *   far more than CPU time); the exponent of the least wall time is printed beside it.
+ *   One child per point, because sizes timed side by side in one child were not independent: there
+ *   Welch's base point took 57–66 ms of CPU beside the three larger sizes against 25 ms in a
+ *   process holding only small ones, which pulled every slope under 1. Two children per point, in
+ *   turn, because one child per point measured the same base workload at 0.036–0.063 s at a load
+ *   average of 8.
  *
  * The exponent b of time ≈ a·n^b (and of memory) is fitted by least squares on the logs
  * (bench/power-law-fit.ts) and printed beside what one would expect:
@@ -39,8 +41,10 @@ import { fitPowerLaw } from './power-law-fit.js';
 import { readVm } from './upload.js';
 
 const SAMPLING_RATE = 256;
-/** timed rounds; each round runs every size of the axis once, smallest first */
-const ROUNDS = 5;
+/** timed runs per child */
+const ROUNDS = 4;
+/** children per point, run in turn over all points */
+const CHILD_ROUNDS = 2;
 /**
  * Each size is run until WARM_MS have passed (at least 2 runs) before timing: V8 optimizes a function
  * after enough calls, on a background thread whose CPU time the process's figure counts. With a single
@@ -68,8 +72,7 @@ interface Method {
 }
 
 // Base workloads sized so that the smallest point takes tens of milliseconds and the largest a few
-// hundred on one thread. The block took 4–5 minutes at a load average of 7–12 on the shared 2-core
-// machine, most of it starting the 45 children under tsx.
+// hundred on one thread. Most of the block's time goes into starting its 60 children under tsx.
 const METHODS: readonly Method[] = [
   { name: 'welch', recipe: { method: 'welch', segmentSeconds: 1 }, base: { channels: 32, epochSeconds: 4, epochs: 40 }, lengthGrowth: 'linear' },
   { name: 'multitaper', recipe: { method: 'multitaper', timeBandwidth: 4 }, base: { channels: 32, epochSeconds: 2, epochs: 20 }, lengthGrowth: 'n log n' },
@@ -85,18 +88,15 @@ const AXES: readonly Axis[] = ['channels', 'epochSeconds', 'epochs'];
 const AXIS_LABEL: Record<Axis, string> = { channels: 'channels', epochSeconds: 'epoch length', epochs: 'epoch count' };
 const STEPS = [1, 2, 4, 8];
 
-interface MemoryResult {
+interface PointResult {
+  /** wall seconds of each timed run */
+  seconds: number[];
+  /** CPU seconds (user + system, this process) of each timed run */
+  cpuSeconds: number[];
   peakGrowthBytes: number;
   inputBytes: number;
   /** false when VmHWM could not be reset, so the peak may be an earlier one */
   peakReset: boolean;
-}
-
-interface TimingResult {
-  /** per size, the wall seconds of each timed run */
-  seconds: number[][];
-  /** per size, the CPU seconds (user + system, this process) of each timed run */
-  cpuSeconds: number[][];
 }
 
 type Engine = { makeRun(w: Workload): { run: () => unknown; inputBytes: number } };
@@ -125,8 +125,11 @@ async function loadEngine(method: Method): Promise<Engine> {
 
 const gc = (): void => (globalThis as { gc?: () => void }).gc?.();
 
-/** The memory of one point, in this (child) process: prints one JSON line. */
-async function memoryPoint(method: Method, w: Workload): Promise<void> {
+/**
+ * One point, in this (child) process: the memory of its first run, then the times of ROUNDS runs
+ * after WARM_MS of warm-up. Prints one JSON line.
+ */
+async function runPoint(method: Method, w: Workload): Promise<void> {
   const engine = await loadEngine(method);
   gc();
   const before = readVm(process.pid, 'VmRSS') ?? process.memoryUsage().rss;
@@ -140,29 +143,17 @@ async function memoryPoint(method: Method, w: Workload): Promise<void> {
   const { run, inputBytes } = engine.makeRun(w);
   run();
   const peak = readVm(process.pid, 'VmHWM') ?? process.resourceUsage().maxRSS * 1024;
-  const result: MemoryResult = { peakGrowthBytes: peak - before, inputBytes, peakReset };
-  console.log(JSON.stringify(result));
-}
-
-/** The times of every size of one axis, in this (child) process, interleaved: prints one JSON line. */
-async function timingAxis(method: Method, sizes: readonly Workload[]): Promise<void> {
-  const engine = await loadEngine(method);
-  const runs = sizes.map((w) => engine.makeRun(w).run);
-  for (const run of runs) {
-    const warmStart = performance.now();
-    for (let r = 0; r < 2 || performance.now() - warmStart < WARM_MS; r++) run();
-  }
-  const result: TimingResult = { seconds: runs.map(() => []), cpuSeconds: runs.map(() => []) };
+  const warmStart = performance.now();
+  for (let r = 0; r < 2 || performance.now() - warmStart < WARM_MS; r++) run();
+  const result: PointResult = { seconds: [], cpuSeconds: [], peakGrowthBytes: peak - before, inputBytes, peakReset };
   for (let round = 0; round < ROUNDS; round++) {
-    runs.forEach((run, i) => {
-      gc();
-      const t0 = performance.now();
-      const cpu0 = process.cpuUsage();
-      run();
-      const cpu = process.cpuUsage(cpu0);
-      result.seconds[i]!.push((performance.now() - t0) / 1000);
-      result.cpuSeconds[i]!.push((cpu.user + cpu.system) / 1e6);
-    });
+    gc();
+    const t0 = performance.now();
+    const cpu0 = process.cpuUsage();
+    run();
+    const cpu = process.cpuUsage(cpu0);
+    result.seconds.push((performance.now() - t0) / 1000);
+    result.cpuSeconds.push((cpu.user + cpu.system) / 1e6);
   }
   console.log(JSON.stringify(result));
 }
@@ -183,28 +174,48 @@ export async function benchGrowth(): Promise<string[]> {
   const started = performance.now();
   const lines = [
     `growth: analyze() on one thread, ${SAMPLING_RATE} Hz sine-hash noise; one axis doubled 3 times from each method's base, the others held`,
-    `  time: one child per axis runs its 4 sizes in turn, ${ROUNDS} rounds after ${WARM_MS} ms of warm-up each; the least CPU time (user + system) of each size`,
-    '  (other work on the machine disturbs it less than wall time); b wall: the same fit on the least wall time',
-    '  memory: one child per point, peak resident growth during its one run, input included; peak/input at the largest n',
+    `  each point in its own child, ${CHILD_ROUNDS} children per point in turn; time: ${ROUNDS} runs per child after ${WARM_MS} ms of warm-up, the least CPU time`,
+    '  (user + system; other work on the machine disturbs it less than wall time); b wall: the same fit on the least wall time',
+    `  memory: peak resident growth during a child's first run, input included; peak/input at the largest n; load average ${load()} at the start`,
     '  method      axis          n                     CPU s (least)            b cpu  r²     b wall  expected        peak MiB         b mem  peak/input',
   ];
+  // Every point in its own child, CHILD_ROUNDS times over in turn, so that a noisy spell of the
+  // machine hits one child of each point rather than all of one; the base point serves all 3 axes.
+  const measured = new Map<string, PointResult[]>();
+  const key = (method: Method, w: Workload) => `${method.name} ${w.channels} ${w.epochSeconds} ${w.epochs}`;
+  const sizesOf = (method: Method, axis: Axis) => STEPS.map((step) => ({ ...method.base, [axis]: method.base[axis] * step }));
+  const failures = new Map<string, string>();
+  for (let round = 0; round < CHILD_ROUNDS; round++) {
+    for (const method of METHODS) {
+      const seen = new Set<string>();
+      for (const w of AXES.flatMap((axis) => sizesOf(method, axis))) {
+        const k = key(method, w);
+        if (seen.has(k) || failures.has(k)) continue;
+        seen.add(k);
+        const result = inChild<PointResult>(['--point', JSON.stringify({ method: method.name, workload: w })]);
+        if (typeof result === 'string') failures.set(k, result);
+        else measured.set(k, [...(measured.get(k) ?? []), result]);
+      }
+    }
+  }
   let notes = 0;
   for (const method of METHODS) {
-    lines.push(`  ${method.name} base: ${method.base.channels} ch × ${method.base.epochSeconds} s × ${method.base.epochs} epochs; recipe ${JSON.stringify(method.recipe)}; load average ${load()}`);
+    lines.push(`  ${method.name} base: ${method.base.channels} ch × ${method.base.epochSeconds} s × ${method.base.epochs} epochs; recipe ${JSON.stringify(method.recipe)}`);
     for (const axis of AXES) {
-      const ns = STEPS.map((s) => method.base[axis] * s);
-      const sizes = ns.map((n) => ({ ...method.base, [axis]: n }));
+      const sizes = sizesOf(method, axis);
+      const ns = sizes.map((w) => w[axis]);
       const label = `  ${method.name.padEnd(11)} ${AXIS_LABEL[axis].padEnd(13)}`;
-      const timing = inChild<TimingResult>(['--timing', JSON.stringify({ method: method.name, sizes })]);
-      const memories = sizes.map((w) => inChild<MemoryResult>(['--memory', JSON.stringify({ method: method.name, sizes: [w] })]));
-      const failed = [timing, ...memories].find((r): r is string => typeof r === 'string');
+      const failed = sizes.map((w) => failures.get(key(method, w))).find((f) => f !== undefined);
       if (failed !== undefined) {
         lines.push(`${label} not measured (${failed})`);
         notes++;
         continue;
       }
-      const results = memories as MemoryResult[];
-      const { cpuSeconds, seconds } = timing as TimingResult;
+      const points = sizes.map((w) => measured.get(key(method, w))!);
+      // Memory from each point's first child; time the least over all of its children's runs.
+      const results = points.map((p) => p[0]!);
+      const cpuSeconds = points.map((p) => p.flatMap((r) => r.cpuSeconds));
+      const seconds = points.map((p) => p.flatMap((r) => r.seconds));
       const times = cpuSeconds.map((t) => Math.min(...t));
       const walls = seconds.map((t) => Math.min(...t));
       const peaks = results.map((r) => r.peakGrowthBytes);
@@ -233,19 +244,18 @@ export async function benchGrowth(): Promise<string[]> {
   lines.push(
     '  expected: linear in channels and epochs (independent channel–epochs); Welch linear in epoch length (fixed segments);',
     '  multitaper and Morlet n log n in epoch length (an FFT of about the epoch per taper or frequency): common practice.',
-    `  (${((performance.now() - started) / 1000).toFixed(0)} s for ${METHODS.length * AXES.length * (STEPS.length + 1)} child processes${notes > 0 ? `; ${notes} axis(es) not measured` : ''})`,
+    `  (${((performance.now() - started) / 1000).toFixed(0)} s for ${CHILD_ROUNDS * measured.size} child processes; load average ${load()} at the end${notes > 0 ? `; ${notes} axis(es) not measured` : ''})`,
   );
   return lines;
 }
 
 if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
-  const mode = process.argv.find((a) => a === '--timing' || a === '--memory');
-  if (mode !== undefined) {
-    const spec = JSON.parse(process.argv[process.argv.indexOf(mode) + 1] ?? '{}') as { method: string; sizes: Workload[] };
+  const at = process.argv.indexOf('--point');
+  if (at >= 0) {
+    const spec = JSON.parse(process.argv[at + 1] ?? '{}') as { method: string; workload: Workload };
     const method = METHODS.find((m) => m.name === spec.method);
-    if (method === undefined) throw new RangeError(`${mode}: unknown method ${JSON.stringify(spec.method)}; use one of ${METHODS.map((m) => m.name).join(', ')}`);
-    if (mode === '--timing') await timingAxis(method, spec.sizes);
-    else await memoryPoint(method, spec.sizes[0]!);
+    if (method === undefined) throw new RangeError(`--point: unknown method ${JSON.stringify(spec.method)}; use one of ${METHODS.map((m) => m.name).join(', ')}`);
+    await runPoint(method, spec.workload);
   } else {
     for (const line of await benchGrowth()) console.log(line);
   }
