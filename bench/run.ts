@@ -30,6 +30,8 @@ const BLOCKS: readonly Block[] = [
   { name: 'load (autocannon)', file: 'load.ts', exportName: 'benchLoad' },
   { name: 'study run', file: 'study.ts', exportName: 'benchStudy' },
   { name: 'table export', file: 'tables.ts', exportName: 'benchTables' },
+  { name: 'scale-out (Redis, 1 and 2 workers)', file: 'scale-out.ts', exportName: 'benchScaleOut' },
+  { name: 'growth with size', file: 'growth.ts', exportName: 'benchGrowth' },
 ];
 
 function machine(): string[] {
