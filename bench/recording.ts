@@ -404,7 +404,9 @@ async function benchStreaming(lines: string[], server: ServerFigures): Promise<v
   );
   if (server.engineSeconds !== undefined) {
     const perSample = server.engineSeconds / (CHANNELS * RECORDS * SAMPLING_RATE);
-    lines.push(`  server job above (2 h, rows read from the store by openSource): ${(perSample * 1e9).toFixed(1)} ns per sample, ${(perSample / welch.secondsPerSample).toFixed(2)}× the Welch benchmark's`);
+    lines.push(
+      `  server job above (2 h, rows read from the store by openSource): ${(perSample * 1e9).toFixed(1)} ns per sample, ${(perSample / welch.secondsPerSample).toFixed(2)}× the Welch benchmark's`,
+    );
   }
   const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-rows-'));
   try {
