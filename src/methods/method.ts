@@ -81,11 +81,13 @@ export interface MethodModule<R extends { method: string }, S = z.ZodType<R>> {
    */
   readonly leavesOutSegments?: boolean;
   /**
-   * `spectrum` path: whether the job's channels are worth spreading over helper threads. Welch and
-   * periodogram cost little per sample, and copying the samples to a helper cost more than a second
-   * thread saves (a 64-channel, 600-s Welch job took 0.65 s on two threads against 0.31 s on one,
-   * bench/welch.ts, measured when the whole signal went to helpers through shared memory; channels
-   * are now posted one at a time); multitaper ran 1.3–1.8× faster on two.
+   * `spectrum` path: whether the method's channels may go to helper threads at all (Welch,
+   * multitaper, periodogram). Whether a given job's do is decided from its resolved cost
+   * (`spreadsChannels` and `SPREAD_MIN_WORK_PER_CHANNEL` in engine/spectra.ts): a channel with
+   * little work costs more to post to a helper than the helper saves. Welch and periodogram once
+   * stayed on one thread because the whole signal was copied to helpers (a 64-channel, 600-s Welch
+   * job took 0.65 s on two threads against 0.31 s on one); since channels are posted one at a time,
+   * that job takes 0.20–0.33 s on two threads against 0.32–0.34 s on one (bench/welch.ts).
    */
   readonly spreadsChannels?: boolean;
 }
