@@ -88,7 +88,7 @@ export interface MethodModule<R extends { method: string }, S = z.ZodType<R>> {
    * stayed on one thread because the whole signal was copied to helpers (a 64-channel, 600-s Welch
    * job took 0.65 s on two threads against 0.31 s on one); since channels are posted one at a time,
    * that job took 0.19–0.37 s on two threads against 0.33–0.47 s on one at fftLength 1024, and
-   * 0.19–0.32 s against 0.34–0.42 s at 1000 (bench/welch.ts, three runs at a load average of 2–5).
+   * 0.19–0.32 s against 0.34–0.42 s at 1000 (bench/welch.ts, four runs at a load average of 1.2–5).
    */
   readonly spreadsChannels?: boolean;
 }
