@@ -120,9 +120,11 @@ export function computeSpectra(
  * channel to a helper and collecting it costs about what the helper saves. Measured with
  * `analyze()` on 1 and 2 threads (best of 5–200 runs, 8–64 channels of white noise, load average
  * 1.3–2.1 on this 2-core machine), 2 threads / 1 thread: Welch 11k → 1.15, 34k → 1.06, 100k →
- * 0.95 (64 ch) and 1.38 (8 ch), 157k → 0.91, 213k → 0.85–0.91, 660k → 0.75, 3.2M → 0.64;
- * periodogram of 40 epochs 50k → 1.02, 100k → 0.79, 199k → 0.70; multitaper 24k → 1.62, 52k →
- * 1.05, 114k → 1.00, 245k → 0.85. The W1 Welch job (bench/welch.ts) is 15M per channel.
+ * 0.95 (64 ch) and 1.38 (8 ch), 157k → 0.91, 213k → 0.85–0.91, 660k → 0.75, 3.4M → 0.64;
+ * periodogram of 10, 20 and 40 epochs of 250 samples 50k → 1.02, 100k → 0.79, 199k → 0.70 (of
+ * one 75,000-sample epoch, 3.0M → 0.97: building the record, not the channels, takes its time);
+ * multitaper 24k → 1.62, 52k → 1.05, 114k → 1.00, 245k → 0.85. The W1 Welch job (bench/welch.ts)
+ * is 15M per channel.
  */
 export const SPREAD_MIN_WORK_PER_CHANNEL = 150_000;
 
