@@ -1,7 +1,7 @@
 /**
  * Welch throughput: 64 channels × 600 s × 500 Hz, Hann, 2 s segments (1000 samples), 50 % overlap,
  * mean detrend; mean average at fftLength 1024 and 1000, and median average at 1024, single thread; then a
- * whole Welch job through the engine on 1 and 2 threads. The same seeded recording is
+ * whole Welch job through the engine on 1 and 2 threads at fftLength 1024 and 1000, each against SciPy. The same seeded recording is
  * written to a temporary float64 file and timed with scipy.signal.welch (one call per channel) through
  * /usr/bin/python3 when scipy is there.
  *
@@ -97,7 +97,8 @@ export async function benchWelch(): Promise<string[]> {
     const rate = (CHANNELS * SAMPLES) / best;
     lines.push(`  ours  fftLength ${fftLength} ${average}: ${best.toFixed(3)} s, ${(rate / 1e6).toFixed(1)} M samples/s, ${((best / CHANNELS) * 1000).toFixed(2)} ms/channel`);
   }
-  lines.push(...benchWelchJob(data));
+  const jobs = benchWelchJob(data);
+  lines.push(...jobs.lines);
   const dir = await mkdtemp(join(tmpdir(), 'rhythmetric-bench-'));
   try {
     const file = join(dir, 'recording.f64');
@@ -113,6 +114,10 @@ export async function benchWelch(): Promise<string[]> {
         lines.push(
           `  scipy fftLength ${run.fftLength} ${run.average}: ${run.seconds.toFixed(3)} s (${scipy.version}); ours/scipy = ${(mine.seconds / run.seconds).toFixed(2)}; channel 0 max relative difference ${worst.toExponential(1)}`,
         );
+        // The issue's W1 figure: a whole job (record included) against SciPy's channel loop.
+        for (const job of jobs.times.filter((j) => j.fftLength === run.fftLength && run.average === 'mean')) {
+          lines.push(`  job   fftLength ${run.fftLength} mean on ${job.threads} thread(s) / scipy = ${(job.seconds / run.seconds).toFixed(2)}`);
+        }
       }
     }
   } finally {
@@ -122,38 +127,52 @@ export async function benchWelch(): Promise<string[]> {
 }
 
 /**
- * One whole Welch job through the engine (fftLength 1024), its channels spread by a channel runner
- * over 1 and 2 threads (src/threads), best of the repeats each; the records must be the same bytes.
+ * One whole Welch job through the engine at fftLength 1024 and 1000, its channels spread by a
+ * channel runner over 1 and 2 threads (src/threads), best of the repeats each, the thread counts
+ * interleaved per repeat so that load from other work falls on both; the records must be the same bytes.
  */
-function benchWelchJob(data: Float64Array): string[] {
-  const results = welchJobTimes(data, [1, 2]);
-  const [one, two] = results as [(typeof results)[0], (typeof results)[0]];
-  return [
-    ...results.map((r) => `  job   fftLength 1024 mean on ${r.threads} thread(s) (${r.used} computed): ${r.seconds.toFixed(3)} s`),
-    `  job   2 threads / 1 thread = ${(two.seconds / one.seconds).toFixed(2)}; same resultHash: ${one.hash === two.hash}`,
-  ];
+function benchWelchJob(data: Float64Array) {
+  const lines: string[] = [];
+  const times: { fftLength: number; threads: number; seconds: number }[] = [];
+  for (const fftLength of [1024, 1000]) {
+    const results = welchJobTimes(data, [1, 2], fftLength);
+    const [one, two] = results as [(typeof results)[0], (typeof results)[0]];
+    lines.push(
+      ...results.map((r) => `  job   fftLength ${fftLength} mean on ${r.threads} thread(s) (${r.used} computed): ${r.seconds.toFixed(3)} s`),
+      `  job   fftLength ${fftLength}: 2 threads / 1 thread = ${(two.seconds / one.seconds).toFixed(2)}; same resultHash: ${one.hash === two.hash}`,
+    );
+    times.push(...results.map((r) => ({ fftLength, threads: r.threads, seconds: r.seconds })));
+  }
+  return { lines, times };
 }
 
 /**
  * The Welch job's best time on each thread count, and its seconds per sample (channels × samples):
  * the per-sample rate other benchmarks compare with (bench/recording.ts).
  */
-export function welchJobTimes(data: Float64Array = syntheticRecording(), threadCounts: number[] = [1]) {
+export function welchJobTimes(data: Float64Array = syntheticRecording(), threadCounts: number[] = [1], fftLength = 1024) {
   const signal: Signal = { samplingRate: SAMPLING_RATE, channels: Array.from({ length: CHANNELS }, (_, c) => `C${c}`), unit: 'uV', epochCount: 1, samplesPerEpoch: SAMPLES, data };
-  const pinned = normalizeRecipe({ method: 'welch', segmentSeconds: SEGMENT / SAMPLING_RATE, overlap: OVERLAP / SEGMENT, fftLength: 1024 });
+  const pinned = normalizeRecipe({ method: 'welch', segmentSeconds: SEGMENT / SAMPLING_RATE, overlap: OVERLAP / SEGMENT, fftLength });
   const resolved = resolveRecipe(pinned.recipe, pinned.hash, signal);
-  return threadCounts.map((threads) => {
+  const runs = threadCounts.map((threads) => {
     const channels = createChannelRunner({ threads });
     const once = () => analyze(signal, resolved, { signalId: 'sig_bench', sha256: 'bench', recipeId: pinned.id, mode: 'local', channels });
-    let record = once(); // warm-up: JIT, plans and helper threads
-    let best = Infinity;
-    for (let r = 0; r < REPEATS; r++) {
-      const start = performance.now();
-      record = once();
-      best = Math.min(best, (performance.now() - start) / 1000);
-    }
-    return { threads, seconds: best, secondsPerSample: best / (CHANNELS * SAMPLES), used: record.provenance.threads ?? 1, hash: record.resultHash };
+    return { threads, once, record: once(), best: Infinity }; // warm-up: JIT, plans and helper threads
   });
+  for (let r = 0; r < REPEATS; r++) {
+    for (const run of runs) {
+      const start = performance.now();
+      run.record = run.once();
+      run.best = Math.min(run.best, (performance.now() - start) / 1000);
+    }
+  }
+  return runs.map(({ threads, best, record }) => ({
+    threads,
+    seconds: best,
+    secondsPerSample: best / (CHANNELS * SAMPLES),
+    used: record.provenance.threads ?? 1,
+    hash: record.resultHash,
+  }));
 }
 
 if (process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1]) {

@@ -73,8 +73,7 @@ export function computeSpectra(
     groupCount: groupNames.length,
   };
   const estimator = createSpectrumEstimator(setup);
-  // Only methods whose channels are worth the copies go to helper threads (MethodModule.spreadsChannels).
-  const runner = (methodOf(recipe).spreadsChannels ? context.channels : undefined) ?? createLocalRunner();
+  const runner = (spreadsChannels(resolved, signal.channels.length) ? context.channels : undefined) ?? createLocalRunner();
   const run = runner.run({ kind: 'spectrum', setup }, source, context, estimator);
   check();
   const outcomes = run.outcomes as SpectrumOutcome[];
@@ -113,6 +112,29 @@ export function computeSpectra(
     warnings: [...warnings],
     threads: run.threads,
   };
+}
+
+/**
+ * Estimated work (the resolved cost's units, `CostEstimate.work`) of one channel over all its
+ * epochs below which a spectrum job keeps its channels on its own thread. Below it, posting a
+ * channel to a helper and collecting it costs about what the helper saves. Measured with
+ * `analyze()` on 1 and 2 threads (best of 5–200 runs, 8–64 channels of white noise, load average
+ * 1.3–2.1 on this 2-core machine), 2 threads / 1 thread: Welch 11k → 1.15, 34k → 1.06, 100k →
+ * 0.95 (64 ch) and 1.38 (8 ch), 157k → 0.91, 213k → 0.85–0.91, 660k → 0.75, 3.4M → 0.64;
+ * periodogram of 10, 20 and 40 epochs of 250 samples 50k → 1.02, 100k → 0.79, 199k → 0.70 (of
+ * one 75,000-sample epoch, 3.0M → 0.97: building the record, not the channels, takes its time);
+ * multitaper 24k → 1.62, 52k → 1.05, 114k → 1.00, 245k → 0.85. The W1 Welch job (bench/welch.ts)
+ * is 15M per channel.
+ */
+export const SPREAD_MIN_WORK_PER_CHANNEL = 150_000;
+
+/**
+ * Whether a spectrum job's channels go to the context's runner: the method must allow it
+ * (`MethodModule.spreadsChannels`) and each channel must hold enough work to pay for its copy.
+ * Either way the record is the same bytes.
+ */
+export function spreadsChannels(resolved: ResolvedRecipe<SpectrumRecipe>, channels: number): boolean {
+  return methodOf(resolved.recipe).spreadsChannels === true && resolved.cost.work >= SPREAD_MIN_WORK_PER_CHANNEL * Math.max(1, channels);
 }
 
 /**

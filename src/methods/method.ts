@@ -81,11 +81,14 @@ export interface MethodModule<R extends { method: string }, S = z.ZodType<R>> {
    */
   readonly leavesOutSegments?: boolean;
   /**
-   * `spectrum` path: whether the job's channels are worth spreading over helper threads. Welch and
-   * periodogram cost little per sample, and copying the samples to a helper cost more than a second
-   * thread saves (a 64-channel, 600-s Welch job took 0.65 s on two threads against 0.31 s on one,
-   * bench/welch.ts, measured when the whole signal went to helpers through shared memory; channels
-   * are now posted one at a time); multitaper ran 1.3–1.8× faster on two.
+   * `spectrum` path: whether the method's channels may go to helper threads at all (Welch,
+   * multitaper, periodogram). Whether a given job's do is decided from its resolved cost
+   * (`spreadsChannels` and `SPREAD_MIN_WORK_PER_CHANNEL` in engine/spectra.ts): a channel with
+   * little work costs more to post to a helper than the helper saves. Welch and periodogram once
+   * stayed on one thread because the whole signal was copied to helpers (a 64-channel, 600-s Welch
+   * job took 0.65 s on two threads against 0.31 s on one); since channels are posted one at a time,
+   * that job took 0.19–0.37 s on two threads against 0.33–0.47 s on one at fftLength 1024, and
+   * 0.19–0.32 s against 0.34–0.42 s at 1000 (bench/welch.ts, four runs at a load average of 1.2–5).
    */
   readonly spreadsChannels?: boolean;
 }

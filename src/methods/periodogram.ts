@@ -25,6 +25,7 @@ export const periodogram = defineMethod({
   name: 'periodogram',
   schema: PeriodogramRecipeSchema,
   path: 'spectrum',
+  spreadsChannels: true,
   check(recipe) {
     checkTukey(recipe);
     checkSpectrumSettings(recipe);

@@ -29,6 +29,7 @@ export const welch = defineMethod({
   schema: WelchRecipeSchema,
   path: 'spectrum',
   leavesOutSegments: true,
+  spreadsChannels: true,
   check(recipe) {
     checkTukey(recipe);
     checkSpectrumSettings(recipe);

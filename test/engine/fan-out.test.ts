@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { createRandom } from '../../src/common/random.js';
 import { analyze } from '../../src/engine/analyze.js';
+import { SPREAD_MIN_WORK_PER_CHANNEL, spreadsChannels } from '../../src/engine/spectra.js';
 import type { FeatureRecord } from '../../src/engine/record.js';
 import { normalizeRecipe } from '../../src/recipes/normalize.js';
-import { resolveRecipe } from '../../src/recipes/resolve.js';
+import { type ResolvedRecipe, resolveRecipe } from '../../src/recipes/resolve.js';
+import type { SpectrumRecipe } from '../../src/recipes/schema.js';
 import type { Signal } from '../../src/signals/signal.js';
 import { createThreadBudget, takeJobSlot } from '../../src/threads/budget.js';
 import { createChannelRunner } from '../../src/threads/channel-runner.js';
@@ -29,8 +31,34 @@ function study(): Signal {
   return { samplingRate: FS, channels: CHANNELS, unit: 'uV', epochCount: TRIALS, samplesPerEpoch: SAMPLES, data };
 }
 
-function run(recipe: unknown, threads: number, extra: { checkpoint?: () => void; onProgress?: (f: number) => void } = {}) {
-  const signal = study();
+/**
+ * Invented recording: 4 channels × `seconds` of white noise at 250 Hz in `epochs` epochs, with a
+ * 10 Hz tone in channel 1. At 60 s a Welch or periodogram channel holds more work than
+ * SPREAD_MIN_WORK_PER_CHANNEL and goes to a helper.
+ */
+function longRecording(epochs = 1, seconds = 60): Signal {
+  const random = createRandom(7);
+  const channels = ['F3', 'F4', 'P3', 'P4'];
+  const samples = (seconds * FS) / epochs;
+  const data = new Float64Array(epochs * channels.length * samples);
+  for (let e = 0; e < epochs; e++) {
+    for (let c = 0; c < channels.length; c++) {
+      for (let i = 0; i < samples; i++) {
+        const tone = c === 1 ? 2 * Math.cos((2 * Math.PI * 10 * (e * samples + i)) / FS) : 0;
+        data[(e * channels.length + c) * samples + i] = random.normal() + tone;
+      }
+    }
+  }
+  return { samplingRate: FS, channels, unit: 'uV', epochCount: epochs, samplesPerEpoch: samples, data };
+}
+
+/** A spectrum recipe resolved on `signal`. */
+function resolve(recipe: unknown, signal: Signal) {
+  const pinned = normalizeRecipe(recipe);
+  return { id: pinned.id, resolved: resolveRecipe(pinned.recipe, pinned.hash, signal) as ResolvedRecipe<SpectrumRecipe> };
+}
+
+function run(recipe: unknown, threads: number, extra: { checkpoint?: () => void; onProgress?: (f: number) => void } = {}, signal: Signal = study()) {
   const pinned = normalizeRecipe(recipe);
   return analyze(signal, resolveRecipe(pinned.recipe, pinned.hash, signal), {
     signalId: 'sig_test',
@@ -56,16 +84,18 @@ const spectrogram = { method: 'spectrogram', segmentSeconds: 0.25, stepSeconds: 
 const welch = { method: 'welch', segmentSeconds: 0.5, perEpoch: true, features: { peakFrequency: {} } };
 const multitaper = { method: 'multitaper', timeBandwidth: 3 };
 const periodogram = { method: 'periodogram', window: 'hann' };
+const longWelch = { method: 'welch', segmentSeconds: 2, features: { peakFrequency: {} } };
+const epochedPeriodogram = { method: 'periodogram', window: 'hann', perEpoch: true };
 
 /**
  * Threads that computed a job on a budget of 2. A helper starts on first use and may miss a short
  * job while it loads; once it runs it takes its share. Bounded retries keep a slow machine from
  * failing this, not a broken helper.
  */
-async function threadsOnceWarm(recipe: unknown): Promise<number> {
+async function threadsOnceWarm(recipe: unknown, signal: Signal = study()): Promise<number> {
   let threads = 0;
   for (let attempt = 0; attempt < 40 && threads < 2; attempt++) {
-    threads = run(recipe, 2).provenance.threads ?? 0;
+    threads = run(recipe, 2, {}, signal).provenance.threads ?? 0;
     if (threads < 2) await new Promise((resolve) => setTimeout(resolve, 250));
   }
   return threads;
@@ -149,14 +179,47 @@ describe('when a spectrum job spreads its channels over helper threads', () => {
     }
   });
 
+  it.each([
+    ['a 60-s Welch job', longWelch, 1],
+    ['a periodogram of 60 epochs with per-epoch spectra', epochedPeriodogram, 60],
+  ])('should give %s whose channels go to helpers the same result hash on 1, 2 and 4 threads', async (_name, recipe, epochs) => {
+    const signal = longRecording(epochs);
+    // The premise: each channel holds enough work to be spread (engine/spectra.ts).
+    expect(spreadsChannels(resolve(recipe, signal).resolved, signal.channels.length)).toBe(true);
+    expect(await threadsOnceWarm(recipe, signal)).toBe(2);
+    const one = run(recipe, 1, {}, signal);
+    expect(one.provenance.threads).toBe(1);
+    for (const threads of [2, 4]) {
+      const many = run(recipe, threads, {}, signal);
+      expect(many.resultHash).toBe(one.resultHash);
+      expect(many.result).toEqual(one.result);
+    }
+  });
+
   it('should take multitaper channels on a helper thread once one is running', async () => {
     expect(await threadsOnceWarm(multitaper)).toBe(2);
   });
 
-  it('should keep Welch and periodogram channels on the job thread, where the copies would cost more than a helper saves', () => {
-    // bench/welch.ts: a 64-channel, 600-s Welch job took 0.65 s on two threads against 0.31 s on one.
-    expect(run(welch, 2).provenance.threads ?? 1).toBe(1);
-    expect(run(periodogram, 2).provenance.threads ?? 1).toBe(1);
+  it('should keep channels with little work on the job thread, where posting them would cost more than a helper saves', () => {
+    // SPREAD_MIN_WORK_PER_CHANNEL, measured with analyze() on 1 and 2 threads (engine/spectra.ts).
+    const signal = study();
+    for (const recipe of [welch, periodogram]) {
+      expect(spreadsChannels(resolve(recipe, signal).resolved, signal.channels.length)).toBe(false);
+      expect(run(recipe, 2).provenance.threads ?? 1).toBe(1);
+    }
+  });
+
+  it('should decide from the work per channel, not the method alone', () => {
+    // The same Welch recipe on one short and one long recording: only the long one spreads.
+    const recipe = { method: 'welch', segmentSeconds: 2 };
+    const short = longRecording(1, 4); // 4 s: three segments
+    const long = longRecording(1);
+    const perChannel = (signal: Signal) => resolve(recipe, signal).resolved.cost.work / signal.channels.length;
+    expect(perChannel(short)).toBeLessThan(SPREAD_MIN_WORK_PER_CHANNEL);
+    expect(perChannel(long)).toBeGreaterThanOrEqual(SPREAD_MIN_WORK_PER_CHANNEL);
+    expect(spreadsChannels(resolve(recipe, short).resolved, short.channels.length)).toBe(false);
+    expect(spreadsChannels(resolve(recipe, long).resolved, long.channels.length)).toBe(true);
+    expect(run(recipe, 2, {}, short).provenance.threads ?? 1).toBe(1);
   });
 
   it('should use no helper when the thread budget has no free slot', () => {
