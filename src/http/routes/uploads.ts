@@ -136,7 +136,7 @@ export const uploadRoutes =
         // A declared length is reserved before a byte is read, so a part that cannot fit is refused (507) at once.
         let reservation: Reservation | null = declared >= 0 && declared <= bodyLimitBytes ? await area.reservePart(declared, maxStoreBytes) : null;
         try {
-          const received = await receiveToFile(request.body, dir, bodyLimitBytes, request.headers['content-length']);
+          const received = await receiveToFile(request.body, dir, bodyLimitBytes, request.headers['content-length'], '', true);
           try {
             if (reservation?.bytes !== received.bytes) {
               reservation?.release();
